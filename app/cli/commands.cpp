@@ -1,0 +1,50 @@
+#include "app/cli/commands.h"
+
+#include <iostream>
+
+#include "core/util/errors.h"
+
+namespace calivera::cli {
+
+// Each command's file defines its entry point; register it here, one line each.
+const std::vector<Command>& allCommands() {
+  static const std::vector<Command> commands = {
+  };
+  return commands;
+}
+
+int runReportingErrors(int (*body)(const std::vector<std::string>&),
+                       const std::vector<std::string>& words) {
+  try {
+    return body(words);
+  } catch (const InputError& error) {
+    std::cerr << "error: " << error.what() << '\n';
+    return 2;
+  } catch (const AnalysisError& error) {
+    std::cerr << "error: " << error.what() << '\n';
+    return 1;
+  } catch (const Cancelled&) {
+    std::cerr << "error: cancelled\n";
+    return 1;
+  } catch (const std::exception& error) {
+    std::cerr << "error: " << error.what() << '\n';
+    return 1;
+  }
+}
+
+void printUsage() {
+  std::cout << "Calivera " << CALIVERA_VERSION
+            << " - validate a clinical risk-prediction model on a local cohort\n\n"
+               "usage: calivera                      open the workstation\n"
+               "       calivera COMMAND [options]    run headless\n\n"
+               "commands:\n";
+  for (const Command& command : allCommands()) {
+    std::cout << "  " << command.name << std::string(12 - std::string(command.name).size(), ' ')
+              << command.summary << '\n';
+  }
+  std::cout << "\nRun 'calivera COMMAND --help' for a command's options.\n"
+               "Results describe model performance on this cohort; they do not replace clinical\n"
+               "judgment, and any use in care is for local clinical governance to decide.\n";
+}
+
+}  // namespace calivera::cli

@@ -1,0 +1,36 @@
+#include "core/data/table.h"
+
+#include "core/util/errors.h"
+
+namespace calivera {
+
+const Column* Table::find(std::string_view name) const {
+  for (const Column& column : columns) {
+    if (column.name == name) return &column;
+  }
+  return nullptr;
+}
+
+const Column& Table::require(std::string_view name) const {
+  if (const Column* column = find(name)) return *column;
+  std::string available;
+  for (const Column& column : columns) {
+    available += available.empty() ? "" : ", ";
+    available += column.name;
+  }
+  throw InputError(sourceName + ": no column named '" + std::string(name) +
+                   "' (columns: " + available + ")");
+}
+
+const Column& Table::requireNumeric(std::string_view name) const {
+  const Column& column = require(name);
+  if (column.kind == ColumnKind::Text) {
+    const std::size_t line = column.firstNonNumeric ? column.firstNonNumeric->line : 0;
+    const std::string text = column.firstNonNumeric ? column.firstNonNumeric->text : "";
+    throw InputError(sourceName + ":" + std::to_string(line) + ": column '" + column.name +
+                     "': '" + text + "' is not a number");
+  }
+  return column;
+}
+
+}  // namespace calivera

@@ -1,0 +1,55 @@
+#pragma once
+// Columnar in-memory cohort as read from a file. Every column is parsed as numeric where possible;
+// a column with any non-numeric, non-missing field is kept as text (categorical levels) and
+// remembers where its first non-numeric field was, so an analysis that needs the column numeric
+// can name the file, line, column and the offending text.
+
+#include <cstddef>
+#include <cstdint>
+#include <optional>
+#include <string>
+#include <string_view>
+#include <vector>
+
+namespace calivera {
+
+enum class ColumnKind { Numeric, Text };
+
+struct FieldLocation {
+  std::size_t line = 0;  // physical line in the file; the header is line 1
+  std::string text;      // the field as written (unquoted)
+};
+
+struct Column {
+  std::string name;
+  ColumnKind kind = ColumnKind::Numeric;
+  std::vector<double> numbers;      // Numeric: one value per row, NaN where missing
+  std::vector<std::int32_t> codes;  // Text: index into levels per row, -1 where missing
+  std::vector<std::string> levels;  // Text: distinct levels in sorted (byte) order
+  std::size_t missingCount = 0;
+  std::optional<FieldLocation> firstNonNumeric;  // Text columns: where numeric parsing failed
+
+  bool isMissing(std::size_t row) const {
+    return kind == ColumnKind::Numeric ? numbers[row] != numbers[row] : codes[row] < 0;
+  }
+};
+
+struct Table {
+  std::string sourceName;  // the file path, used in every message about this table
+  std::vector<Column> columns;
+  std::size_t rowCount = 0;
+  // Physical line on which each record starts. Empty when no record spans several lines, in
+  // which case row r (0-based) is on line r + 2.
+  std::vector<std::uint32_t> recordLines;
+
+  std::size_t lineOfRow(std::size_t row) const {
+    return recordLines.empty() ? row + 2 : recordLines[row];
+  }
+  const Column* find(std::string_view name) const;
+  // Throws InputError naming the file and listing the available columns.
+  const Column& require(std::string_view name) const;
+  // Throws InputError naming file, line, column and text when the column is not numeric.
+  const Column& requireNumeric(std::string_view name) const;
+};
+
+}  // namespace calivera

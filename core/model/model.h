@@ -1,0 +1,66 @@
+#pragma once
+// A logistic risk model as a value: intercept plus terms, each term a transformation of one cohort
+// column (or the product of two terms) with its coefficient. Risk = 1 / (1 + exp(-LP)),
+// LP = intercept + sum of coefficient * transformed value. The JSON file format lives in
+// model_io.h and is documented in the README.
+
+#include <map>
+#include <optional>
+#include <string>
+#include <vector>
+
+namespace calivera {
+
+inline constexpr const char* kModelFormatId = "calivera-model/1";
+
+struct Estimate {
+  double coefficient = 0.0;
+  std::optional<double> se;
+};
+
+enum class TransformKind {
+  Linear,     // (x - center) / scale
+  Log,        // ln(x); x must be > 0
+  Power,      // x^power, power 0 meaning ln(x) (fractional-polynomial convention); x must be > 0
+  Indicator,  // 1 when the (text or numeric) value equals `level`, else 0
+  Spline,     // one basis function of a restricted cubic spline with `knots` (Harrell)
+  Product,    // product of the two `factors` (an interaction)
+};
+
+struct Term {
+  std::string name;      // label in tables, unique within the model
+  std::string variable;  // cohort column (after the model's column mapping); empty for Product
+  TransformKind kind = TransformKind::Linear;
+  double center = 0.0;
+  double scale = 1.0;
+  double power = 1.0;
+  std::string level;
+  std::vector<double> knots;  // Spline: ascending, at least 3
+  int basisIndex = 0;         // Spline: 0 = the linear part x, j = 1..k-2 the j-th cubic part
+  std::vector<Term> factors;  // Product: exactly two; their own estimates are ignored
+  std::optional<std::string> unit;  // unit the model expects the variable in, when stated
+  Estimate estimate;
+};
+
+struct DevelopmentRecord {
+  std::optional<long long> n;
+  std::optional<long long> events;
+  std::optional<std::string> dataSha256;  // lowercase hex of the development data file
+  std::optional<std::string> software;    // e.g. "calivera 0.1.0"
+  std::optional<std::string> method;      // e.g. "maximum likelihood", "Firth penalized"
+  std::optional<std::string> description; // free text: source publication, setting
+};
+
+struct Model {
+  std::string name;
+  std::string outcome;  // the outcome the model predicts (a description or column name)
+  Estimate intercept;
+  std::vector<Term> terms;
+  DevelopmentRecord development;
+  // Model variable name -> local cohort column, for published models whose names differ.
+  std::map<std::string, std::string> columnMapping;
+  // Free-form provenance of updates (which model it updates, on which data, which method).
+  std::optional<std::string> provenance;
+};
+
+}  // namespace calivera
