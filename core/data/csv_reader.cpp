@@ -204,11 +204,8 @@ void parseChunk(std::string_view text, const FieldReader& reader, const std::str
   std::size_t row = 0;
   while (p < end) {
     const std::size_t line = chunk.firstRow + row + 2;
-    const char* lineEnd =
-        static_cast<const char*>(std::memchr(p, '\n', static_cast<std::size_t>(end - p)));
-    if (lineEnd == nullptr) lineEnd = end;
-    const char* contentEnd = lineEnd;
-    if (contentEnd > p && contentEnd[-1] == '\r') --contentEnd;
+    const csv::Line current = csv::lineAt(p, end);
+    const char* const contentEnd = current.contentEnd;
     const char* field = p;
     for (std::size_t c = 0; c < width; ++c) {
       const char* fieldEnd = nullptr;
@@ -220,9 +217,7 @@ void parseChunk(std::string_view text, const FieldReader& reader, const std::str
         slots[c][row] = value;
         fieldEnd = stop;
       } else {
-        fieldEnd = static_cast<const char*>(
-            std::memchr(field, delimiter, static_cast<std::size_t>(contentEnd - field)));
-        if (fieldEnd == nullptr) fieldEnd = contentEnd;
+        fieldEnd = csv::fieldEndAt(field, contentEnd, delimiter);
         reader.store(std::string_view(field, static_cast<std::size_t>(fieldEnd - field)),
                      slots[c][row], chunk.tallies[c], line);
       }
@@ -246,7 +241,7 @@ void parseChunk(std::string_view text, const FieldReader& reader, const std::str
       }
     }
     ++row;
-    p = lineEnd + 1;
+    p = current.next;
     release.passed(p);
   }
   release.finish(end);

@@ -111,24 +111,18 @@ void fillTextColumns(std::string_view text, std::size_t dataBegin, std::size_t f
     const char* p = text.data() + dataBegin;
     const char* const end = text.data() + text.size();
     while (p < end) {
-      const char* lineEnd =
-          static_cast<const char*>(std::memchr(p, '\n', static_cast<std::size_t>(end - p)));
-      if (lineEnd == nullptr) lineEnd = end;
-      const char* contentEnd = lineEnd;
-      if (contentEnd > p && contentEnd[-1] == '\r') --contentEnd;
+      const Line line = lineAt(p, end);
       const char* field = p;
       std::size_t k = 0;
       for (std::size_t c = 0; k < textColumns.size(); ++c) {
-        const char* fieldEnd = static_cast<const char*>(
-            std::memchr(field, delimiter, static_cast<std::size_t>(contentEnd - field)));
-        if (fieldEnd == nullptr) fieldEnd = contentEnd;
+        const char* fieldEnd = fieldEndAt(field, line.contentEnd, delimiter);
         if (c == textColumns[k]) {
           add(k, std::string_view(field, static_cast<std::size_t>(fieldEnd - field)));
           ++k;
         }
         field = fieldEnd + 1;
       }
-      p = lineEnd + 1;
+      p = line.next;
       release.passed(p);
     }
   } else {
