@@ -289,24 +289,31 @@ void addSummary(const AuditReportInput& input, const DisclosurePlan& plan,
 }
 
 void addCharts(const AuditDocument& doc, std::vector<ReportBlock>& blocks) {
-  ReportBlock first;
-  first.kind = Kind::ChartPair;
-  first.charts = {ChartKind::Roc, ChartKind::Calibration};
-  first.captions = {"Figure 1. ROC curve",
-                    "Figure 2. Calibration: smoothed observed "
-                    "proportion and risk groups against predicted risk"};
-  blocks.push_back(first);
-  ReportBlock second;
-  second.kind = Kind::ChartPair;
-  second.charts = {ChartKind::DecisionCurve, ChartKind::RiskDistribution};
-  second.captions = {
-      "Figure 3. Decision curve: net benefit of the model, treat all and treat "
-      "none",
-      "Figure 4. Distribution of predicted risk by outcome"};
-  if (doc.suppressionApplied) {
-    second.captions[1] += " (bins with hidden counts drawn empty)";
+  const std::vector<std::pair<ChartKind, std::string>> charts = {
+      {ChartKind::Roc,
+       "Figure 1. ROC curve: sensitivity against 1 - specificity over all "
+       "thresholds, with the chance diagonal"},
+      {ChartKind::Calibration,
+       "Figure 2. Calibration: smoothed observed proportion and risk "
+       "groups (95% CI) against predicted risk; the ideal is the diagonal"},
+      {ChartKind::DecisionCurve,
+       "Figure 3. Decision curve: net benefit of the model, of treating "
+       "all and of treating none; the shaded band is the reasonable "
+       "threshold range"},
+      {ChartKind::RiskDistribution, "Figure 4. Distribution of predicted risk by outcome"},
+  };
+  for (const auto& [kind, caption] : charts) {
+    ReportBlock block;
+    block.kind = Kind::ChartPair;
+    block.charts = {kind};
+    block.captions = {caption};
+    if (doc.suppressionApplied && kind != ChartKind::Roc) {
+      block.captions[0] += kind == ChartKind::RiskDistribution
+                               ? " (bins with hidden counts drawn empty)"
+                               : " (drawn from the suppressed values)";
+    }
+    blocks.push_back(block);
   }
-  blocks.push_back(second);
 }
 
 void addHosmerLemeshow(const AuditReportInput& input, const DisclosurePlan& plan,
@@ -342,14 +349,17 @@ void addThresholdTable(const std::vector<ThresholdRow>& rows, const DisclosurePl
   table.caption = "Table 6. At the selected thresholds (flagged: predicted risk at or above)";
   table.header = {"Threshold",   "TP",          "FP",  "FN",  "TN",
                   "Sensitivity", "Specificity", "PPV", "NPV", "Flagged per 1000"};
-  table.widths = {0.08, 0.06, 0.06, 0.06, 0.06, 0.14, 0.14, 0.14, 0.14, 0.12};
+  table.widths = {0.10, 0.06, 0.06, 0.06, 0.06, 0.14, 0.14, 0.14, 0.14, 0.10};
   table.align = std::vector<CellAlign>(table.header.size(), CellAlign::Right);
   const std::string hidden = kComplementaryMark;
   for (std::size_t i = 0; i < rows.size(); ++i) {
     const ThresholdRow& row = rows[i];
     const bool h = plan.rowHidden(i);
     auto rate = [&](double value, const Interval& ci) {
-      return h ? hidden : formatFixed(value, 3) + " (" + formatInterval(ci, 3) + ")";
+      // Estimate over its interval: the narrow rate columns never break inside a number.
+      return h ? hidden
+               : formatFixed(value, 3) + "\n(" + formatFixed(ci.lo, 3) + "\u2013" +
+                     formatFixed(ci.hi, 3) + ")";
     };
     table.rows.push_back({formatThreshold(row.threshold), plan.rowTp(i), plan.rowFp(i),
                           plan.rowFn(i), plan.rowTn(i), rate(row.sensitivity, row.sensitivityCi),
@@ -466,6 +476,10 @@ AuditDocument buildAuditDocument(const AuditReportInput& input) {
   doc.suppressBelow = plan.active() ? plan.below() : 0;
   doc.suppressionApplied = plan.anyHidden();
   doc.chartData = plan.chartData(input.result);
+  doc.reasonableThresholds = input.settings.reasonableThresholds;
+  for (std::size_t i = 0; i < tableRows.size() && !doc.markedThreshold; ++i) {
+    if (!plan.rowHidden(i)) doc.markedThreshold = tableRows[i];
+  }
 
   std::vector<ReportBlock>& blocks = doc.blocks;
   ReportBlock caution;

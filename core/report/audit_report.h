@@ -81,6 +81,9 @@ struct AuditDocument {
   std::vector<ReportBlock> blocks;
   // What the charts draw: the validation result with suppressed bins and points removed.
   ValidationResult chartData;
+  // Where the charts mark a threshold: the first tabulated row whose counts are shown.
+  std::optional<ThresholdRow> markedThreshold;
+  std::optional<Interval> reasonableThresholds;  // shaded on the decision curve
   std::size_t suppressBelow = 0;
   bool suppressionApplied = false;  // at least one count was hidden
 };
