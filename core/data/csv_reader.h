@@ -22,6 +22,7 @@ struct CsvReadResult {
   char delimiter = ',';
   bool delimiterDetected = false;
   bool hadByteOrderMark = false;
+  unsigned threadsUsed = 1;  // > 1 when the quote-free fast path split the text between threads
 };
 
 // Throws InputError naming the file and line for a ragged row, an unterminated quote, an empty

@@ -1,0 +1,145 @@
+#include "ui/charts/calibration_chart.h"
+
+#include <QtCharts/QAreaSeries>
+#include <QtCharts/QLineSeries>
+#include <QtCharts/QScatterSeries>
+#include <QtCharts/QValueAxis>
+#include <algorithm>
+#include <cmath>
+
+#include "ui/charts/chart_style.h"
+#include "ui/charts/chart_text.h"
+#include "ui/charts/histogram_series.h"
+
+namespace calivera::ui::charts {
+
+namespace {
+
+// Zooms to the risks that occur (rounded up to a tenth), so a low-risk cohort is not squeezed
+// into a corner; never below 0.2 so the ideal line stays readable.
+double axisLimit(const Calibration& c) {
+  double top = 0.0;
+  for (const auto& g : c.groups) top = std::max({top, g.riskHi, g.observedCi.hi});
+  for (const auto& p : c.curve) top = std::max({top, p.risk, p.observed});
+  return std::clamp(std::ceil(top * 10.0 - 1e-9) / 10.0, 0.2, 1.0);
+}
+
+}  // namespace
+
+CalibrationChart::CalibrationChart(const Calibration& calibration,
+                                   const RiskHistogram& distribution)
+    : groups_(calibration.groups), curve_(calibration.curve), axisMax_(axisLimit(calibration)) {
+  applyChartStyle(this, QStringLiteral("Calibration — slope %1, intercept %2")
+                            .arg(fixed(calibration.slope, 2), fixed(calibration.intercept, 2)));
+  auto* x = makeAxis(QStringLiteral("Predicted risk (probability)"), 0, axisMax_, "%.2f", 6);
+  auto* y = makeAxis(QStringLiteral("Observed proportion with the event"), 0, axisMax_, "%.2f", 6);
+  addAxis(x, Qt::AlignBottom);
+  addAxis(y, Qt::AlignLeft);
+  auto attach = [&](QAbstractSeries* s, QValueAxis* yAxis) { addOnAxes(this, s, x, yAxis); };
+
+  // Histogram first so that every line is drawn over it.
+  std::size_t maxCount = 1;
+  std::vector<double> totals(distribution.eventCounts.size());
+  for (std::size_t i = 0; i < totals.size(); ++i) {
+    totals[i] = static_cast<double>(distribution.eventCounts[i] + distribution.nonEventCounts[i]);
+    maxCount = std::max(maxCount, static_cast<std::size_t>(totals[i]));
+  }
+  auto* histogramAxis = new QValueAxis;
+  histogramAxis->setRange(0, static_cast<double>(maxCount) * 5.0);
+  histogramAxis->setVisible(false);
+  addAxis(histogramAxis, Qt::AlignRight);
+  if (!totals.empty()) {
+    auto* histogram = makeHistogramArea(distribution.binEdges, totals);
+    histogram->setName(QStringLiteral("Distribution of predicted risks (relative height)"));
+    histogram->setColor(QColor(200, 200, 200, 150));
+    histogram->setBorderColor(palette::kGrey);
+    attach(histogram, histogramAxis);
+  }
+
+  auto* ideal = new QLineSeries;
+  ideal->setName(QStringLiteral("Ideal (observed = predicted)"));
+  ideal->setPen(rolePen(SeriesRole::Reference));
+  ideal->append(0, 0);
+  ideal->append(axisMax_, axisMax_);
+  attach(ideal, y);
+
+  auto* smooth = new QLineSeries;
+  smooth->setName(QStringLiteral("Smoothed calibration curve (loess)"));
+  smooth->setPen(rolePen(SeriesRole::Model));
+  QList<QPointF> pts;
+  for (const auto& p : curve_) pts.append(QPointF(p.risk, p.observed));
+  smooth->replace(pts);
+  attach(smooth, y);
+
+  bool first = true;
+  for (const auto& g : groups_) {
+    auto* bar = new QLineSeries;
+    bar->setPen(rolePen(SeriesRole::Groups));
+    bar->append(g.meanRisk, g.observedCi.lo);
+    bar->append(g.meanRisk, g.observedCi.hi);
+    attach(bar, y);
+    if (first) {
+      bar->setName(QStringLiteral("95% CI of a group (Wilson)"));
+      first = false;
+    } else {
+      hideFromLegend(this, bar);
+    }
+  }
+  auto* observed = new QScatterSeries;
+  observed->setName(QStringLiteral("Observed proportion per risk group"));
+  observed->setMarkerShape(QScatterSeries::MarkerShapeRectangle);
+  observed->setMarkerSize(9);
+  observed->setColor(Qt::white);
+  observed->setBorderColor(palette::kBlack);
+  for (const auto& g : groups_) observed->append(g.meanRisk, g.observedProportion);
+  attach(observed, y);
+
+  marker_ = new QLineSeries;
+  marker_->setName(QStringLiteral("Threshold"));
+  marker_->setPen(rolePen(SeriesRole::Threshold));
+  marker_->append(0, 0);
+  marker_->append(0, axisMax_);
+  attach(marker_, y);
+}
+
+void CalibrationChart::setThreshold(const ThresholdSnapshot& snapshot) {
+  marker_->replace({QPointF(snapshot.threshold, 0), QPointF(snapshot.threshold, axisMax_)});
+}
+
+double CalibrationChart::markedThreshold() const {
+  return marker_->at(0).x();
+}
+
+std::optional<double> CalibrationChart::thresholdAt(QPointF value) const {
+  if (value.x() < 0 || value.x() > axisMax_) return std::nullopt;
+  return value.x();
+}
+
+QString CalibrationChart::describeAt(QPointF value) const {
+  const double tolerance = axisMax_ * 0.02;
+  for (std::size_t i = 0; i < groups_.size(); ++i) {
+    const auto& g = groups_[i];
+    if (std::abs(g.meanRisk - value.x()) < tolerance && value.y() >= g.observedCi.lo - tolerance &&
+        value.y() <= g.observedCi.hi + tolerance) {
+      return QStringLiteral(
+                 "Risk group %1 (risks %2 to %3), %4 patients\nMean predicted risk %5\n"
+                 "Observed %6 events = %7 (95% CI %8 to %9)")
+          .arg(i + 1)
+          .arg(fixed(g.riskLo, 3), fixed(g.riskHi, 3))
+          .arg(g.n)
+          .arg(fixed(g.meanRisk, 4))
+          .arg(g.observed)
+          .arg(fixed(g.observedProportion, 4), fixed(g.observedCi.lo, 4),
+               fixed(g.observedCi.hi, 4));
+    }
+  }
+  if (curve_.empty()) return {};
+  auto it = std::lower_bound(curve_.begin(), curve_.end(), value.x(),
+                             [](const CalibrationCurvePoint& p, double r) { return p.risk < r; });
+  if (it == curve_.end()) --it;
+  if (std::abs(it->observed - value.y()) > tolerance * 2) return {};
+  return QStringLiteral("Smoothed curve: predicted %1, observed %2")
+      .arg(fixed(it->risk, 4), fixed(it->observed, 4));
+}
+
+}  // namespace calivera::ui::charts

@@ -1,0 +1,113 @@
+#include "ui/charts/decision_curve_chart.h"
+
+#include <QtCharts/QAreaSeries>
+#include <QtCharts/QLineSeries>
+#include <QtCharts/QValueAxis>
+#include <algorithm>
+#include <cmath>
+
+#include "ui/charts/chart_style.h"
+#include "ui/charts/chart_text.h"
+
+namespace calivera::ui::charts {
+
+DecisionCurveChart::DecisionCurveChart(const std::vector<DecisionCurvePoint>& curve,
+                                       const CohortSummary& cohort)
+    : curve_(curve) {
+  applyChartStyle(this, QStringLiteral("Decision curve — net benefit across thresholds"));
+  // Net benefit cannot exceed the prevalence; below a small negative margin treat-all only dives.
+  const double prevalence = cohort.prevalence > 0 ? cohort.prevalence : 0.1;
+  yMax_ = std::ceil(prevalence * 1.1 * 100.0) / 100.0;
+  yMin_ = -std::max(0.01, std::ceil(prevalence * 0.3 * 100.0) / 100.0);
+  xMax_ =
+      curve_.empty() ? 1.0 : std::clamp(std::ceil(curve_.back().threshold * 10.0) / 10.0, 0.1, 1.0);
+
+  auto* x = makeAxis(QStringLiteral("Threshold probability (risk at which one would act)"), 0,
+                     xMax_, "%.1f", 6);
+  auto* y = makeAxis(QStringLiteral("Net benefit (net true positives per patient)"), yMin_, yMax_,
+                     "%.3f", 6);
+  addAxis(x, Qt::AlignBottom);
+  addAxis(y, Qt::AlignLeft);
+  auto attach = [&](QAbstractSeries* s) { addOnAxes(this, s, x, y); };
+
+  rangeUpper_ = new QLineSeries;
+  rangeLower_ = new QLineSeries;
+  auto* range = new QAreaSeries(rangeUpper_, rangeLower_);
+  rangeUpper_->setParent(range);
+  rangeLower_->setParent(range);
+  range->setName(QStringLiteral("Clinically reasonable thresholds (your setting)"));
+  QColor fill = roleColor(SeriesRole::Range);
+  fill.setAlpha(45);
+  range->setColor(fill);
+  range->setBorderColor(roleColor(SeriesRole::Range));
+  attach(range);
+
+  auto clampY = [&](double v) { return std::clamp(v, yMin_, yMax_); };
+  auto* none = new QLineSeries;
+  none->setName(QStringLiteral("Treat no one"));
+  none->setPen(rolePen(SeriesRole::TreatNone));
+  none->append(0, 0);
+  none->append(xMax_, 0);
+  auto* all = new QLineSeries;
+  all->setName(QStringLiteral("Treat everyone"));
+  all->setPen(rolePen(SeriesRole::TreatAll));
+  auto* model = new QLineSeries;
+  model->setName(QStringLiteral("Model"));
+  model->setPen(rolePen(SeriesRole::Model));
+  QList<QPointF> allPts, modelPts;
+  for (const auto& p : curve_) {
+    // Stop treat-all where it leaves the plot instead of drawing a flat line along the floor.
+    if (p.netBenefitTreatAll >= yMin_) allPts.append(QPointF(p.threshold, p.netBenefitTreatAll));
+    modelPts.append(QPointF(p.threshold, clampY(p.netBenefit)));
+  }
+  all->replace(allPts);
+  model->replace(modelPts);
+  attach(none);
+  attach(all);
+  attach(model);
+
+  marker_ = new QLineSeries;
+  marker_->setName(QStringLiteral("Threshold"));
+  marker_->setPen(rolePen(SeriesRole::Threshold));
+  marker_->append(0, yMin_);
+  marker_->append(0, yMax_);
+  attach(marker_);
+  setReasonableRange(0.0, 0.0);
+}
+
+void DecisionCurveChart::setThreshold(const ThresholdSnapshot& snapshot) {
+  marker_->replace({QPointF(snapshot.threshold, yMin_), QPointF(snapshot.threshold, yMax_)});
+}
+
+double DecisionCurveChart::markedThreshold() const {
+  return marker_->at(0).x();
+}
+
+void DecisionCurveChart::setReasonableRange(double lo, double hi) {
+  rangeUpper_->replace({QPointF(lo, yMax_), QPointF(hi, yMax_)});
+  rangeLower_->replace({QPointF(lo, yMin_), QPointF(hi, yMin_)});
+}
+
+std::optional<double> DecisionCurveChart::thresholdAt(QPointF value) const {
+  if (value.x() < 0 || value.x() > xMax_) return std::nullopt;
+  return value.x();
+}
+
+QString DecisionCurveChart::describeAt(QPointF value) const {
+  if (curve_.empty()) return {};
+  auto it = std::lower_bound(curve_.begin(), curve_.end(), value.x(),
+                             [](const DecisionCurvePoint& p, double t) { return p.threshold < t; });
+  if (it == curve_.end()) --it;
+  if (it != curve_.begin() &&
+      std::abs(std::prev(it)->threshold - value.x()) < std::abs(it->threshold - value.x())) {
+    --it;
+  }
+  return QStringLiteral(
+             "Threshold %1\nNet benefit: model %2, treat everyone %3, treat no one 0\n"
+             "Interventions avoided per 100 patients vs treat everyone: %4\n"
+             "(click to use this threshold)")
+      .arg(fixed(it->threshold, 3), fixed(it->netBenefit, 4), fixed(it->netBenefitTreatAll, 4),
+           fixed(it->interventionsAvoidedPer100, 1));
+}
+
+}  // namespace calivera::ui::charts

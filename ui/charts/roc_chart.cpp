@@ -1,0 +1,89 @@
+#include "ui/charts/roc_chart.h"
+
+#include <QtCharts/QLineSeries>
+#include <QtCharts/QScatterSeries>
+#include <QtCharts/QValueAxis>
+#include <algorithm>
+#include <cmath>
+
+#include "ui/charts/chart_style.h"
+#include "ui/charts/chart_text.h"
+
+namespace calivera::ui::charts {
+
+RocChart::RocChart(const Discrimination& discrimination) : points_(discrimination.roc) {
+  applyChartStyle(this, QStringLiteral("ROC curve — AUC %1 (95% CI %2 to %3)")
+                            .arg(fixed(discrimination.auc, 3), fixed(discrimination.aucCi.lo, 3),
+                                 fixed(discrimination.aucCi.hi, 3)));
+  auto* x = makeAxis(QStringLiteral("1 − specificity (false-positive rate)"), 0, 1, "%.1f", 6);
+  auto* y = makeAxis(QStringLiteral("Sensitivity (true-positive rate)"), 0, 1, "%.1f", 6);
+  addAxis(x, Qt::AlignBottom);
+  addAxis(y, Qt::AlignLeft);
+
+  auto* chance = new QLineSeries;
+  chance->setName(QStringLiteral("No discrimination (AUC 0.5)"));
+  chance->setPen(rolePen(SeriesRole::Reference));
+  chance->append(0, 0);
+  chance->append(1, 1);
+
+  auto* curve = new QLineSeries;
+  curve->setName(QStringLiteral("Model"));
+  curve->setPen(rolePen(SeriesRole::Model));
+  QList<QPointF> pts;
+  pts.reserve(static_cast<qsizetype>(points_.size()));
+  for (const RocPoint& p : points_) pts.append(QPointF(p.fpr, p.tpr));
+  curve->replace(pts);
+
+  operatingPoint_ = new QScatterSeries;
+  operatingPoint_->setName(QStringLiteral("Operating point at the threshold"));
+  operatingPoint_->setMarkerShape(QScatterSeries::MarkerShapeRectangle);
+  operatingPoint_->setMarkerSize(13);
+  operatingPoint_->setColor(roleColor(SeriesRole::Threshold));
+  operatingPoint_->setBorderColor(palette::kBlack);
+  operatingPoint_->append(0, 0);
+
+  for (QAbstractSeries* s :
+       {static_cast<QAbstractSeries*>(chance), static_cast<QAbstractSeries*>(curve),
+        static_cast<QAbstractSeries*>(operatingPoint_)}) {
+    addOnAxes(this, s, x, y);
+  }
+}
+
+void RocChart::setThreshold(const ThresholdSnapshot& snapshot) {
+  const double fpr = std::isfinite(snapshot.falsePositiveRate) ? snapshot.falsePositiveRate : 0;
+  const double tpr = std::isfinite(snapshot.sensitivity) ? snapshot.sensitivity : 0;
+  operatingPoint_->replace(0, QPointF(fpr, tpr));
+}
+
+QPointF RocChart::operatingPoint() const {
+  return operatingPoint_->at(0);
+}
+
+const RocPoint* RocChart::nearest(QPointF value, double maxDistance) const {
+  const RocPoint* best = nullptr;
+  double bestDistance = maxDistance;
+  for (const RocPoint& p : points_) {
+    const double d = std::hypot(p.fpr - value.x(), p.tpr - value.y());
+    if (d < bestDistance) {
+      bestDistance = d;
+      best = &p;
+    }
+  }
+  return best;
+}
+
+std::optional<double> RocChart::thresholdAt(QPointF value) const {
+  const RocPoint* p = nearest(value, 0.08);
+  if (p == nullptr) return std::nullopt;
+  return std::clamp(p->threshold, 0.0, 1.0);
+}
+
+QString RocChart::describeAt(QPointF value) const {
+  const RocPoint* p = nearest(value, 0.04);
+  if (p == nullptr) return {};
+  return QStringLiteral(
+             "Threshold %1\nSensitivity %2\n1 − specificity %3\n(click to use this threshold)")
+      .arg(fixed(std::clamp(p->threshold, 0.0, 1.0), 4), fixed(p->tpr, 4), fixed(p->fpr, 4));
+}
+
+}  // namespace calivera::ui::charts

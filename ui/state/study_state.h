@@ -1,0 +1,66 @@
+#pragma once
+// Everything one analysis consists of, as plain values (no Qt): the inputs with their SHA-256, the
+// import and analysis settings the user chose, and (once computed) the model and the validation
+// result. The study file (study_file.h) saves the inputs and settings; the workstation recomputes
+// the rest on reopening. The PDF report reads a StudyState and nothing else.
+
+#include <map>
+#include <memory>
+#include <optional>
+#include <string>
+#include <vector>
+
+#include "core/data/cohort.h"
+#include "core/metrics/validation.h"
+#include "core/model/model.h"
+
+namespace calivera::ui {
+
+struct InputFileRecord {
+  std::string path;    // absolute path at the time it was loaded
+  std::string sha256;  // lowercase hex of the file contents when loaded
+};
+
+struct ImportSettings {
+  char delimiter = 0;  // 0: detect from the header line
+  std::vector<std::string> missingTokens{"", "NA"};
+  std::string outcomeColumn;
+  std::optional<std::string> eventValue;  // empty: the outcome column holds 0/1
+};
+
+enum class ModelSource { None, File, Fitted };
+
+struct FitSettings {
+  std::vector<std::string> predictors;  // cohort columns; text columns become indicator terms
+  bool firth = false;
+};
+
+struct AnalysisSettings {
+  double threshold = 0.10;
+  // Range of clinically reasonable thresholds, chosen by the user (shaded on the decision curve).
+  double reasonableLo = 0.05;
+  double reasonableHi = 0.30;
+  int groups = 10;        // risk groups for the calibration table and Hosmer-Lemeshow
+  bool apparent = false;  // the cohort is the model's development data
+};
+
+struct StudyState {
+  std::optional<InputFileRecord> data;
+  ImportSettings import;
+  ModelSource modelSource = ModelSource::None;
+  std::optional<InputFileRecord> modelFile;          // ModelSource::File
+  FitSettings fit;                                   // ModelSource::Fitted
+  std::map<std::string, std::string> columnMapping;  // model variable -> cohort column
+  AnalysisSettings analysis;
+  // Predictor-space views: chosen predictors and the values the others are held at.
+  std::vector<std::string> predictorView;
+  std::map<std::string, std::string> heldValues;
+
+  // Computed, not saved (recomputed from the inputs when a study is reopened).
+  std::optional<Model> model;
+  std::vector<std::string> modelWarnings;  // separation, non-convergence, unit checks
+  ExclusionReport exclusions;
+  std::shared_ptr<const ValidationResult> result;
+};
+
+}  // namespace calivera::ui

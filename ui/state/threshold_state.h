@@ -1,0 +1,65 @@
+#pragma once
+// The one decision threshold that drives every linked view, as plain C++ (no Qt) so it can be
+// tested without widgets. Counts at any threshold come from core's ThresholdIndex (one sort, then
+// O(log n) per move), so a move never recomputes a metric.
+//
+// Conventions: a patient is flagged when risk >= threshold (as in core). Proportions with a zero
+// denominator (PPV when nobody is flagged) are NaN and shown as "not defined". Net benefit follows
+// Vickers & Elkin, Med Decis Making 2006: NB = TP/n - FP/n * t/(1-t); treat-all NB =
+// pi - (1-pi) t/(1-t); both are NaN at t = 1.
+
+#include <cstddef>
+#include <memory>
+#include <vector>
+
+#include "core/metrics/threshold_index.h"
+
+namespace calivera::ui {
+
+struct ThresholdSnapshot {
+  double threshold = 0.0;
+  ConfusionCounts counts;
+  std::size_t n = 0;
+  std::size_t events = 0;
+  double sensitivity = 0.0;  // TP / events
+  double specificity = 0.0;  // TN / non-events
+  double falsePositiveRate = 0.0;
+  double ppv = 0.0;  // TP / flagged
+  double npv = 0.0;  // TN / not flagged
+  double flaggedPer1000 = 0.0;
+  double eventsCaughtPer1000 = 0.0;
+  double eventsMissedPer1000 = 0.0;
+  double flaggedWithoutEventPer1000 = 0.0;
+  double netBenefit = 0.0;
+  double netBenefitTreatAll = 0.0;
+};
+
+// All derived quantities from the four counts at threshold t.
+ThresholdSnapshot snapshotFromCounts(double threshold, const ConfusionCounts& counts);
+
+class ThresholdState {
+ public:
+  static constexpr double kDefaultStep = 0.005;
+
+  ThresholdState() = default;
+  // Builds the sorted index once (O(n log n)); risk and outcome per analysed patient.
+  void setData(const std::vector<double>& risk, const std::vector<double>& outcome);
+  void clear();
+  bool hasData() const { return index_ != nullptr && index_->size() > 0; }
+
+  double threshold() const { return threshold_; }
+  // Clamped to [0, 1]; returns true when the value changed.
+  bool setThreshold(double threshold);
+  // Moves by steps * step, clamped; returns true when the value changed.
+  bool nudge(int steps, double step = kDefaultStep);
+
+  // O(log n). Without data the counts are all zero.
+  ThresholdSnapshot snapshot() const;
+  ThresholdSnapshot snapshotAt(double threshold) const;
+
+ private:
+  std::shared_ptr<const ThresholdIndex> index_;
+  double threshold_ = 0.1;
+};
+
+}  // namespace calivera::ui
