@@ -2,6 +2,7 @@
 
 #include <iostream>
 
+#include "app/cli/validate_command.h"
 #include "core/util/errors.h"
 
 namespace calivera::cli {
@@ -9,6 +10,7 @@ namespace calivera::cli {
 // Each command's file defines its entry point; register it here, one line each.
 const std::vector<Command>& allCommands() {
   static const std::vector<Command> commands = {
+      {"validate", "performance of a model or risk column on a cohort", runValidateCommand},
   };
   return commands;
 }
