@@ -218,6 +218,16 @@ TEST(CsvReader, EmptyFileHeaderOnlyAndBadHeaderNames) {
             "cohort.csv:1: header columns 1 and 2 are both named 'age'");
 }
 
+TEST(CsvReader, CarriageReturnOnlyAndUtf16AreRefused) {
+  EXPECT_EQ(errorOf("a,b\r1,2\r3,4\r"),
+            "cohort.csv: lines end with a carriage return only (old Mac format); save the file "
+            "with LF or CRLF line ends");
+  EXPECT_EQ(errorOf(std::string("\xFF\xFE"
+                                "a\0,\0b\0",
+                                8)),
+            "cohort.csv: the file is UTF-16 text; save it as UTF-8");
+}
+
 TEST(CsvReader, FileErrorsNameThePath) {
   const std::filesystem::path missingPath =
       std::filesystem::temp_directory_path() / "calivera_no_such_file.csv";
