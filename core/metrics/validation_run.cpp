@@ -1,9 +1,6 @@
 #include "core/metrics/validation_run.h"
 
-#include <cerrno>
 #include <cmath>
-#include <cstring>
-#include <fstream>
 #include <sstream>
 #include <utility>
 
@@ -128,16 +125,8 @@ ValidationRun runValidation(const ValidationRequest& request, Table table, std::
 }
 
 ValidationRun runValidation(const ValidationRequest& request) {
-  // One read serves both the fingerprint and the parse, so the SHA-256 is of exactly the bytes
-  // analysed and a large file is read from disk once.
-  std::ifstream in(request.dataPath, std::ios::binary);
-  if (!in) throw InputError(request.dataPath + ": cannot open (" + std::strerror(errno) + ")");
-  std::ostringstream buffer;
-  buffer << in.rdbuf();
-  if (in.bad()) throw InputError(request.dataPath + ": read failed");
-  const std::string contents = std::move(buffer).str();
-  std::string sha = sha256OfBytes(contents);
-  CsvReadResult read = parseCsv(contents, request.dataPath, request.csv);
+  std::string sha = sha256OfFile(request.dataPath);
+  CsvReadResult read = readCsvFile(request.dataPath, request.csv);
   return runValidation(request, std::move(read.table), std::move(sha));
 }
 

@@ -78,3 +78,10 @@ write.csv(data.frame(outcome = y, risk = sprintf("%.17g", p), lp = sprintf("%.17
           quote = FALSE)
 write.csv(data.frame(name = names(out), value = sprintf("%.17g", unlist(out))),
           "tests/reference/data/breast_cancer_validation_r.csv", row.names = FALSE, quote = FALSE)
+
+# Loess with heavy ties (risks rounded to 2 decimals) and the boundary: R's fitted values at every
+# patient, for the tie handling of the q-th nearest distance.
+pt <- round(p, 2)
+lt <- loess(y ~ pt, span = 0.75, degree = 2, family = "gaussian", surface = "direct")
+write.csv(data.frame(outcome = y, risk = sprintf("%.17g", pt), fitted = sprintf("%.17g", fitted(lt))),
+          "tests/reference/data/breast_cancer_loess_ties_r.csv", row.names = FALSE, quote = FALSE)
