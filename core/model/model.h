@@ -37,6 +37,9 @@ struct Term {
   std::string level;
   std::vector<double> knots;  // Spline: ascending, at least 3
   int basisIndex = 0;         // Spline: 0 = the linear part x, j = 1..k-2 the j-th cubic part
+  // Spline: divide the cubic parts by (t_k - t_1)^2, Harrell's default that keeps them on the
+  // scale of x; false for models published with the undivided basis.
+  bool splineScaled = true;
   std::vector<Term> factors;  // Product: exactly two; their own estimates are ignored
   std::optional<std::string> unit;  // unit the model expects the variable in, when stated
   Estimate estimate;
