@@ -56,14 +56,15 @@ std::vector<double> parseThresholds(const std::string& text) {
     }
   }
   std::vector<double> values;
-  for (const std::string& item : splitList(text, option)) values.push_back(parseNumber(item, option));
+  for (const std::string& item : splitList(text, option))
+    values.push_back(parseNumber(item, option));
   return values;
 }
 
 int validateBody(const std::vector<std::string>& words) {
   OptionSpec spec;
-  spec.valued = {"--data", "--outcome", "--model", "--risk", "--groups", "--thresholds", "--json",
-                 "--csv-dir"};
+  spec.valued = {"--data",   "--outcome",    "--model", "--risk",
+                 "--groups", "--thresholds", "--json",  "--csv-dir"};
   spec.flags = {"--help"};
   addDataOptions(spec);
   const Arguments arguments(words, spec);
@@ -113,6 +114,8 @@ int validateBody(const std::vector<std::string>& words) {
 
 }  // namespace
 
-int runValidateCommand(const std::vector<std::string>& words) { return validateBody(words); }
+int runValidateCommand(const std::vector<std::string>& words) {
+  return validateBody(words);
+}
 
 }  // namespace calivera::cli

@@ -19,8 +19,8 @@ std::string exclusionWarning(const ExclusionReport& report) {
   bool first = true;
   for (const ColumnExclusion& c : report.byColumn) {
     if (c.rowsMissing == 0) continue;
-    text += std::string(first ? " " : ", ") + c.column + " missing in " +
-            std::to_string(c.rowsMissing);
+    text +=
+        std::string(first ? " " : ", ") + c.column + " missing in " + std::to_string(c.rowsMissing);
     first = false;
   }
   return text;
@@ -109,7 +109,8 @@ ValidationRun runValidation(const ValidationRequest& request, Table table, std::
   } else if (model && model->development.dataSha256) {
     run.performanceBasis = "the cohort file differs from the model's development data (SHA-256)";
   } else if (model) {
-    run.performanceBasis = "the model file records no development data SHA-256; treated as new data";
+    run.performanceBasis =
+        "the model file records no development data SHA-256; treated as new data";
   } else {
     run.performanceBasis = "risks read from a column; no development record, treated as new data";
   }

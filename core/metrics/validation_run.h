@@ -29,21 +29,21 @@ struct ValidationRequest {
   std::string dataPath;
   CsvOptions csv;
   OutcomeSpec outcome;
-  std::optional<std::string> modelPath;   // exactly one of modelPath and riskColumn
+  std::optional<std::string> modelPath;  // exactly one of modelPath and riskColumn
   std::optional<std::string> riskColumn;
-  ValidationOptions options;              // thresholds empty: the default 0.01..0.99 by 0.01
+  ValidationOptions options;  // thresholds empty: the default 0.01..0.99 by 0.01
 };
 
 // The analysed cohort before any metric: what validate() receives, plus where it came from.
 struct PreparedCohort {
   std::vector<std::uint32_t> rows;  // table rows analysed, ascending
   ExclusionReport exclusions;
-  ValidationInput input;            // outcome, risk and (model route) linear predictor per row
+  ValidationInput input;  // outcome, risk and (model route) linear predictor per row
   std::vector<std::string> warnings;
 };
 
 struct ValidationRun {
-  ValidationRequest request;     // as given, with options.thresholds filled in
+  ValidationRequest request;  // as given, with options.thresholds filled in
   std::string dataSha256;
   std::optional<Model> model;    // model route only
   std::string modelSha256;       // model route only
@@ -52,14 +52,14 @@ struct ValidationRun {
   std::string performanceBasis;  // one sentence: why apparent / new data
   Table table;                   // the cohort as read (for subgroups, bootstrap, the GUI)
   PreparedCohort cohort;
-  ValidationResult result;       // result.warnings also holds the pipeline's warnings
-  std::string softwareVersion;   // CALIVERA_VERSION
+  ValidationResult result;      // result.warnings also holds the pipeline's warnings
+  std::string softwareVersion;  // CALIVERA_VERSION
 };
 
 // Complete-case selection, outcome and risks on an already loaded table. Throws InputError for a
 // missing column, a non-numeric risk column or a risk outside [0, 1] (naming file, line, column).
-PreparedCohort prepareCohort(const Table& table, const OutcomeSpec& outcome,
-                             const Model* model, const std::optional<std::string>& riskColumn);
+PreparedCohort prepareCohort(const Table& table, const OutcomeSpec& outcome, const Model* model,
+                             const std::optional<std::string>& riskColumn);
 
 // "apparent" when the model's development data SHA-256 equals the cohort's, else "new data".
 bool isApparent(const Model* model, const std::string& dataSha256);

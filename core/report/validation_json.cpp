@@ -7,9 +7,13 @@ namespace {
 
 using nlohmann::json;
 
-json number(double value) { return std::isfinite(value) ? json(value) : json(nullptr); }
+json number(double value) {
+  return std::isfinite(value) ? json(value) : json(nullptr);
+}
 
-json interval(const Interval& ci) { return json::array({number(ci.lo), number(ci.hi)}); }
+json interval(const Interval& ci) {
+  return json::array({number(ci.lo), number(ci.hi)});
+}
 
 json groupsJson(const std::vector<CalibrationGroup>& groups) {
   json out = json::array();
@@ -136,8 +140,8 @@ json inputsJson(const ValidationRun& run) {
 json settingsJson(const ValidationRun& run) {
   const ValidationOptions& o = run.request.options;
   return {{"outcome", run.request.outcome.column},
-          {"event_value", run.request.outcome.eventValue ? json(*run.request.outcome.eventValue)
-                                                         : json(nullptr)},
+          {"event_value",
+           run.request.outcome.eventValue ? json(*run.request.outcome.eventValue) : json(nullptr)},
           {"groups", o.groups},
           {"thresholds", o.thresholds},
           {"flag_rule", "risk >= threshold"},
@@ -172,8 +176,8 @@ json validationToJson(const ValidationRun& run) {
           {"settings", settingsJson(run)},
           {"cohort", cohortJson(run)},
           {"discrimination", discriminationJson(r.discrimination)},
-          {"overall", {{"brier", number(r.overall.brier)},
-                       {"brier_scaled", number(r.overall.brierScaled)}}},
+          {"overall",
+           {{"brier", number(r.overall.brier)}, {"brier_scaled", number(r.overall.brierScaled)}}},
           {"calibration", calibrationJson(r.calibration)},
           {"hosmer_lemeshow", hl},
           {"decision_curve", decisionCurveJson(r.decisionCurve)},

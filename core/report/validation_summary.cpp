@@ -50,12 +50,11 @@ std::string validationSummaryText(const ValidationRun& run) {
       out << "  missing " << col.column << ": " << col.rowsMissing << "\n";
     }
   }
-  out << "Events        " << r.cohort.events << " (prevalence " << fixed(100 * r.cohort.prevalence, 1)
-      << "%)\n\n";
+  out << "Events        " << r.cohort.events << " (prevalence "
+      << fixed(100 * r.cohort.prevalence, 1) << "%)\n\n";
   out << "Discrimination\n";
-  out << "  AUC (c-statistic)       "
-      << withCi(r.discrimination.auc, r.discrimination.aucCi, 3) << ", DeLong SE "
-      << fixed(r.discrimination.aucSe, 4) << "\n";
+  out << "  AUC (c-statistic)       " << withCi(r.discrimination.auc, r.discrimination.aucCi, 3)
+      << ", DeLong SE " << fixed(r.discrimination.aucSe, 4) << "\n";
   out << "  Discrimination slope    " << fixed(r.discrimination.discriminationSlope, 3) << "\n";
   out << "Overall\n";
   out << "  Brier score             " << fixed(r.overall.brier, 4) << " (scaled "

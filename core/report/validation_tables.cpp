@@ -56,10 +56,27 @@ class CsvText {
 };
 
 std::string thresholdsCsv(const std::vector<ThresholdRow>& rows) {
-  CsvText csv({"threshold", "tp", "fp", "tn", "fn", "sensitivity", "sensitivity_lo",
-               "sensitivity_hi", "specificity", "specificity_lo", "specificity_hi", "ppv", "ppv_lo",
-               "ppv_hi", "npv", "npv_lo", "npv_hi", "flagged_per_1000", "events_caught_per_1000",
-               "events_missed_per_1000", "flagged_without_event_per_1000"});
+  CsvText csv({"threshold",
+               "tp",
+               "fp",
+               "tn",
+               "fn",
+               "sensitivity",
+               "sensitivity_lo",
+               "sensitivity_hi",
+               "specificity",
+               "specificity_lo",
+               "specificity_hi",
+               "ppv",
+               "ppv_lo",
+               "ppv_hi",
+               "npv",
+               "npv_lo",
+               "npv_hi",
+               "flagged_per_1000",
+               "events_caught_per_1000",
+               "events_missed_per_1000",
+               "flagged_without_event_per_1000"});
   for (const ThresholdRow& r : rows) {
     csv.num(r.threshold).count(r.tp).count(r.fp).count(r.tn).count(r.fn);
     csv.num(r.sensitivity).ci(r.sensitivityCi).num(r.specificity).ci(r.specificityCi);

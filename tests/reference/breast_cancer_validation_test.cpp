@@ -74,7 +74,7 @@ TEST_F(BreastCancerValidation, CohortAndDiscrimination) {
   const ValidationResult& r = *result_;
   EXPECT_EQ(r.cohort.n, static_cast<std::size_t>(ref("n")));
   EXPECT_EQ(r.cohort.events, static_cast<std::size_t>(ref("events")));
-  EXPECT_NEAR(r.discrimination.auc, ref("auc"), kClosedForm);  // R: Mann-Whitney from rank()
+  EXPECT_NEAR(r.discrimination.auc, ref("auc"), kClosedForm);       // R: Mann-Whitney from rank()
   EXPECT_NEAR(r.discrimination.aucSe, ref("auc_se"), kClosedForm);  // R: DeLong 1988 by definition
   EXPECT_NEAR(r.discrimination.aucCi.lo, ref("auc_ci_lo"), kClosedForm);
   EXPECT_NEAR(r.discrimination.aucCi.hi, ref("auc_ci_hi"), kClosedForm);
@@ -112,7 +112,7 @@ TEST_F(BreastCancerValidation, HosmerLemeshowGroupsAndWilsonIntervals) {
   const HosmerLemeshow& hl = result_->hosmerLemeshow;
   ASSERT_EQ(hl.groups.size(), static_cast<std::size_t>(ref("hl_groups")));
   EXPECT_NEAR(hl.statistic, ref("hl_statistic"), kChiSquare);
-  EXPECT_EQ(hl.df, static_cast<int>(ref("hl_groups")));  // new data: df = groups
+  EXPECT_EQ(hl.df, static_cast<int>(ref("hl_groups")));      // new data: df = groups
   EXPECT_NEAR(hl.pValue, ref("hl_p_new_data"), kChiSquare);  // R pchisq
   for (std::size_t k = 0; k < hl.groups.size(); ++k) {
     const std::string g = "group" + std::to_string(k + 1) + "_";
