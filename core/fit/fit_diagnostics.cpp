@@ -1,11 +1,11 @@
 #include "core/fit/fit_diagnostics.h"
 
-#include <algorithm>
-#include <cmath>
-#include <set>
-
 #include <Eigen/Eigenvalues>
 #include <Eigen/QR>
+#include <algorithm>
+#include <cmath>
+#include <limits>
+#include <set>
 
 namespace calivera::detail {
 namespace {
@@ -50,8 +50,8 @@ RankFinding checkRank(const Eigen::MatrixXd& X, const Eigen::MatrixXd& informati
   if (n < p) {
     finding.deficient = true;
     for (int j = 0; j < p; ++j) finding.columns.push_back(j);
-    finding.detail = std::to_string(n) + " rows cannot identify " + std::to_string(p) +
-                     " coefficients";
+    finding.detail =
+        std::to_string(n) + " rows cannot identify " + std::to_string(p) + " coefficients";
     return finding;
   }
   std::vector<int> constant;
@@ -100,9 +100,8 @@ RankFinding checkRank(const Eigen::MatrixXd& X, const Eigen::MatrixXd& informati
   std::set<int> involved;
   for (Eigen::Index k = rank; k < p; ++k) {
     // Column order[k] = sum_i c_i * column order[i] over the independent pivots.
-    const Eigen::VectorXd c = r.topLeftCorner(rank, rank)
-                                  .triangularView<Eigen::Upper>()
-                                  .solve(r.col(k).head(rank));
+    const Eigen::VectorXd c =
+        r.topLeftCorner(rank, rank).triangularView<Eigen::Upper>().solve(r.col(k).head(rank));
     involved.insert(order[k]);
     const double largest = std::max(1.0, c.cwiseAbs().maxCoeff());
     for (Eigen::Index i = 0; i < rank; ++i) {
@@ -111,9 +110,8 @@ RankFinding checkRank(const Eigen::MatrixXd& X, const Eigen::MatrixXd& informati
   }
   finding.deficient = true;
   finding.columns.assign(involved.begin(), involved.end());
-  finding.detail = "columns " + columnList(finding.columns) +
-                   " are linearly dependent (rank " + std::to_string(rank) + " of " +
-                   std::to_string(p) + ")";
+  finding.detail = "columns " + columnList(finding.columns) + " are linearly dependent (rank " +
+                   std::to_string(rank) + " of " + std::to_string(p) + ")";
   return finding;
 }
 
@@ -135,6 +133,22 @@ SeparationFinding checkSeparation(const Eigen::MatrixXd& X, const Eigen::VectorX
   if ((signedMove.array() < -tolerance).any()) return finding;
   finding.separated = true;
   finding.complete = (signedMove.array() > tolerance).all();
+  // Name the columns that separate the outcome on their own (max over non-events <= min over
+  // events, or the reverse): that is what a user can act on. Only when no single column does is
+  // the separating direction itself reported.
+  const int intercept = interceptColumn(X);
+  for (Eigen::Index j = 0; j < X.cols(); ++j) {
+    if (j == intercept) continue;
+    const double inf = std::numeric_limits<double>::infinity();
+    double lo[2] = {inf, inf}, hi[2] = {-inf, -inf};
+    for (Eigen::Index i = 0; i < X.rows(); ++i) {
+      const int k = y[i] > 0.5 ? 1 : 0;
+      lo[k] = std::min(lo[k], X(i, j));
+      hi[k] = std::max(hi[k], X(i, j));
+    }
+    if (hi[0] <= lo[1] || hi[1] <= lo[0]) finding.columns.push_back(static_cast<int>(j));
+  }
+  if (!finding.columns.empty()) return finding;
   Eigen::VectorXd share(X.cols());
   for (Eigen::Index j = 0; j < X.cols(); ++j) {
     share[j] = std::abs(direction[j]) * X.col(j).cwiseAbs().maxCoeff();

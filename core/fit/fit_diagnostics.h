@@ -13,10 +13,9 @@
 // the change of beta over the last iterations and verify the sign condition on every row, so a
 // reported separation is certified by the data, not guessed from large coefficients.
 
+#include <Eigen/Dense>
 #include <string>
 #include <vector>
-
-#include <Eigen/Dense>
 
 namespace calivera::detail {
 
@@ -31,8 +30,10 @@ RankFinding checkRank(const Eigen::MatrixXd& X, const Eigen::MatrixXd& informati
 
 struct SeparationFinding {
   bool separated = false;
-  bool complete = false;      // every row strictly on its side
-  std::vector<int> columns;   // columns with a material share of the separating direction
+  bool complete = false;  // every row strictly on its side
+  // Columns that separate the outcome on their own; when none does alone, the columns with a
+  // material share of the separating direction.
+  std::vector<int> columns;
 };
 
 // `direction` = beta_final - beta_earlier. `eta` is the final linear predictor.

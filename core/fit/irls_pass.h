@@ -6,9 +6,8 @@
 // grouped into fixed blocks of rows; threads take whole blocks and the block sums are added in
 // block order, so the result is the same for any number of threads.
 
-#include <cstddef>
-
 #include <Eigen/Dense>
+#include <cstddef>
 
 namespace calivera::detail {
 

@@ -1,11 +1,10 @@
 #include "core/fit/logistic_fit.h"
 
+#include <Eigen/Cholesky>
 #include <algorithm>
 #include <cmath>
 #include <limits>
 #include <stdexcept>
-
-#include <Eigen/Cholesky>
 
 #include "core/fit/fit_diagnostics.h"
 #include "core/fit/irls_pass.h"
@@ -135,7 +134,6 @@ FitResult fitLogistic(const Eigen::MatrixXd& X, const Eigen::VectorXd& y,
   result.se = Eigen::VectorXd::Constant(p, nan);
   result.covariance = Eigen::MatrixXd::Constant(p, p, nan);
   const int intercept = detail::interceptColumn(X);
-  result.nullDeviance = nullDeviance(y, offset, intercept >= 0);
   if (n == 0) {
     result.problem = FitProblem::RankDeficient;
     result.warnings.push_back("no rows to fit");
@@ -161,6 +159,7 @@ FitResult fitLogistic(const Eigen::MatrixXd& X, const Eigen::VectorXd& y,
     result.problemColumns = rank.columns;
     result.warnings.push_back(rank.detail);
     result.deviance = current.pass.deviance;
+    result.nullDeviance = nullDeviance(y, offset, intercept >= 0);
     return result;
   }
   if (options.firth) current = evaluateAt(pass, start, true);
@@ -189,8 +188,8 @@ FitResult fitLogistic(const Eigen::MatrixXd& X, const Eigen::VectorXd& y,
       // No step decreases the objective: at the optimum to machine precision if the predicted
       // decrease (the Newton decrement) is already negligible.
       const double decrement = step.dot(current.score);
-      result.converged = decrement < options.relativeDevianceTolerance *
-                                         (std::abs(current.objective) + 0.1);
+      result.converged =
+          decrement < options.relativeDevianceTolerance * (std::abs(current.objective) + 0.1);
       if (!result.converged) {
         result.warnings.push_back("step-halving could not reduce the deviance at iteration " +
                                   std::to_string(iteration));
@@ -215,6 +214,9 @@ FitResult fitLogistic(const Eigen::MatrixXd& X, const Eigen::VectorXd& y,
   result.deviance = current.pass.deviance;
   result.penalizedLogLikelihood = -0.5 * current.objective;
   result.aic = result.deviance + 2.0 * static_cast<double>(p);
+  // Intercept + offset as the whole model (calibration-in-the-large) is its own null model.
+  const bool isNullModel = offset && p == 1 && intercept == 0 && !options.firth && result.converged;
+  result.nullDeviance = isNullModel ? result.deviance : nullDeviance(y, offset, intercept >= 0);
   // Standard errors from the information at the final estimate (the pass at current.beta).
   if (p > 0) {
     const Eigen::MatrixXd identity = Eigen::MatrixXd::Identity(p, p);

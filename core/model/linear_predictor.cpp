@@ -53,8 +53,7 @@ double splineBasis(double x, const std::vector<double>& t, int j, bool scaled) {
 // One term bound to its cohort column, evaluated row by row.
 class BoundTerm {
  public:
-  BoundTerm(const Model& model, const Term& term, const Table& table)
-      : term_(term), table_(table) {
+  BoundTerm(const Model& model, const Term& term, const Table& table) : term_(term), table_(table) {
     if (term.kind == TransformKind::Product) {
       for (const Term& factor : term.factors) factors_.emplace_back(model, factor, table);
       return;
@@ -66,7 +65,8 @@ class BoundTerm {
       for (const Column& column : table.columns) {
         available += (available.empty() ? "" : ", ") + column.name;
       }
-      const std::string mapped = name == term.variable ? "" : " (mapped from '" + term.variable + "')";
+      const std::string mapped =
+          name == term.variable ? "" : " (mapped from '" + term.variable + "')";
       throw InputError(table.sourceName + ": model '" + model.name + "', term '" + label() +
                        "' needs column '" + name + "'" + mapped +
                        ", which the cohort lacks (columns: " + available + ")");
@@ -83,7 +83,8 @@ class BoundTerm {
   }
 
   double value(std::size_t row) const {
-    if (term_.kind == TransformKind::Product) return factors_[0].value(row) * factors_[1].value(row);
+    if (term_.kind == TransformKind::Product)
+      return factors_[0].value(row) * factors_[1].value(row);
     if (column_->isMissing(row)) fail(row, "is missing");
     if (term_.kind == TransformKind::Indicator) {
       if (column_->kind == ColumnKind::Text) return column_->codes[row] == levelCode_ ? 1.0 : 0.0;
@@ -91,7 +92,8 @@ class BoundTerm {
     }
     const double x = column_->numbers[row];
     switch (term_.kind) {
-      case TransformKind::Linear: return (x - term_.center) / term_.scale;
+      case TransformKind::Linear:
+        return (x - term_.center) / term_.scale;
       case TransformKind::Log:
         if (!(x > 0)) fail(row, "is " + formatNumber(x) + "; the natural log needs a value > 0");
         return std::log(x);
@@ -103,7 +105,8 @@ class BoundTerm {
       case TransformKind::Spline:
         return splineBasis(x, term_.knots, term_.basisIndex, term_.splineScaled);
       case TransformKind::Indicator:
-      case TransformKind::Product: break;
+      case TransformKind::Product:
+        break;
     }
     return 0.0;
   }

@@ -3,10 +3,9 @@
 #include <cmath>
 #include <fstream>
 #include <initializer_list>
+#include <nlohmann/json.hpp>
 #include <set>
 #include <sstream>
-
-#include <nlohmann/json.hpp>
 
 #include "core/util/atomic_file.h"
 #include "core/util/errors.h"
@@ -112,12 +111,18 @@ TransformKind parseKind(const std::string& text, const Context& context) {
 
 const char* kindName(TransformKind kind) {
   switch (kind) {
-    case TransformKind::Linear: return "linear";
-    case TransformKind::Log: return "log";
-    case TransformKind::Power: return "power";
-    case TransformKind::Indicator: return "indicator";
-    case TransformKind::Spline: return "spline";
-    case TransformKind::Product: return "product";
+    case TransformKind::Linear:
+      return "linear";
+    case TransformKind::Log:
+      return "log";
+    case TransformKind::Power:
+      return "power";
+    case TransformKind::Indicator:
+      return "indicator";
+    case TransformKind::Spline:
+      return "spline";
+    case TransformKind::Product:
+      return "product";
   }
   return "linear";
 }
@@ -142,12 +147,23 @@ Term readTransformed(const Json& object, const Context& context, bool isFactor) 
   std::initializer_list<const char*> common = {"name", "transform", "unit", "variable", "estimate"};
   std::vector<const char*> known(common);
   switch (term.kind) {
-    case TransformKind::Linear: known.insert(known.end(), {"center", "scale"}); break;
-    case TransformKind::Power: known.push_back("power"); break;
-    case TransformKind::Indicator: known.push_back("level"); break;
-    case TransformKind::Spline: known.insert(known.end(), {"knots", "basis", "scaling"}); break;
-    case TransformKind::Product: known.push_back("factors"); break;
-    case TransformKind::Log: break;
+    case TransformKind::Linear:
+      known.insert(known.end(), {"center", "scale"});
+      break;
+    case TransformKind::Power:
+      known.push_back("power");
+      break;
+    case TransformKind::Indicator:
+      known.push_back("level");
+      break;
+    case TransformKind::Spline:
+      known.insert(known.end(), {"knots", "basis", "scaling"});
+      break;
+    case TransformKind::Product:
+      known.push_back("factors");
+      break;
+    case TransformKind::Log:
+      break;
   }
   const std::set<std::string> allowed(known.begin(), known.end());
   for (const auto& item : object.items()) {
@@ -250,8 +266,8 @@ DevelopmentRecord readDevelopment(const Json& object, const Context& file) {
   record.dataSha256 = optionalString(object, "data_sha256", context);
   if (record.dataSha256) {
     const std::string& hex = *record.dataSha256;
-    const bool valid = hex.size() == 64 && hex.find_first_not_of("0123456789abcdef") ==
-                                               std::string::npos;
+    const bool valid =
+        hex.size() == 64 && hex.find_first_not_of("0123456789abcdef") == std::string::npos;
     if (!valid) context.fail("field 'data_sha256' must be 64 lowercase hex digits");
   }
   record.software = optionalString(object, "software", context);
@@ -282,8 +298,12 @@ Json transformedJson(const Term& term, bool isFactor) {
       out["center"] = term.center;
       out["scale"] = term.scale;
       break;
-    case TransformKind::Power: out["power"] = term.power; break;
-    case TransformKind::Indicator: out["level"] = term.level; break;
+    case TransformKind::Power:
+      out["power"] = term.power;
+      break;
+    case TransformKind::Indicator:
+      out["level"] = term.level;
+      break;
     case TransformKind::Spline:
       out["knots"] = term.knots;
       out["basis"] = term.basisIndex;
@@ -291,9 +311,11 @@ Json transformedJson(const Term& term, bool isFactor) {
       break;
     case TransformKind::Product:
       out["factors"] = Json::array();
-      for (const Term& factor : term.factors) out["factors"].push_back(transformedJson(factor, true));
+      for (const Term& factor : term.factors)
+        out["factors"].push_back(transformedJson(factor, true));
       break;
-    case TransformKind::Log: break;
+    case TransformKind::Log:
+      break;
   }
   if (!isFactor) out["estimate"] = estimateJson(term.estimate);
   return out;
@@ -308,6 +330,9 @@ Model parseModelJson(const std::string& text, const std::string& sourceName) {
     root = Json::parse(text, nullptr, true, /*ignore_comments=*/true);
   } catch (const Json::parse_error& error) {
     file.fail("malformed JSON at byte " + std::to_string(error.byte) + " (" + error.what() + ")");
+  } catch (const Json::out_of_range& error) {
+    // A number beyond the double range (1e999): the only way JSON can spell a non-finite value.
+    file.fail(std::string("a number is not finite (") + error.what() + ")");
   }
   if (!root.is_object()) file.fail("the model file must hold one JSON object");
   rejectUnknownFields(root,

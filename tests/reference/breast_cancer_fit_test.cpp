@@ -43,8 +43,7 @@ TEST(BreastCancerReference, FourPredictorsMatchStatsmodels) {
   }
   EXPECT_LT(relativeDifference(fit.deviance, reference.at({"", "deviance"}).value), 1e-10);
   // statsmodels fits its null model iteratively at its default tolerance; ours is closed form.
-  EXPECT_LT(relativeDifference(fit.nullDeviance, reference.at({"", "null_deviance"}).value),
-            1e-9);
+  EXPECT_LT(relativeDifference(fit.nullDeviance, reference.at({"", "null_deviance"}).value), 1e-9);
 }
 
 }  // namespace
