@@ -19,9 +19,9 @@ CsvOptions csvOptionsFrom(const Arguments& arguments) {
       throw InputError("--delimiter: '" + *d + "' is not one of ',' ';' 'tab'");
     }
   }
-  if (const auto m = arguments.value("--missing")) {
-    options.missingTokens = splitList(*m, "--missing");
-    options.missingTokens.push_back("");
+  // As for fit: each --missing adds a token; the empty field and NA always stay missing.
+  for (const std::string& token : arguments.values("--missing")) {
+    options.missingTokens.push_back(token);
   }
   return options;
 }

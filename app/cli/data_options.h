@@ -1,8 +1,8 @@
 #pragma once
 // Cohort-file options shared by the commands that read a cohort:
 //   --delimiter C     ',' ';' or 'tab' (also '\t' or a literal tab); default: detected
-//   --missing LIST    comma-separated tokens that mean "missing" (default: empty field and NA;
-//                     an empty field always counts as missing)
+//   --missing TOKEN   one more field value that means missing (repeatable; the empty field and
+//                     NA always do), as for `calivera fit`
 //   --event-value V   the outcome value that means event (default: the column holds 0/1)
 
 #include <optional>
@@ -19,7 +19,7 @@ std::optional<std::string> eventValueFrom(const Arguments& arguments);
 
 inline constexpr const char* kDataOptionsHelp =
     "  --delimiter C        field delimiter: ',' ';' or 'tab' (default: detected from the header)\n"
-    "  --missing LIST       comma-separated tokens meaning missing (default: empty and NA)\n"
+    "  --missing TOKEN      one more value meaning missing (repeatable; empty and NA always)\n"
     "  --event-value V      outcome value meaning event (default: outcome column holds 0/1)\n";
 
 }  // namespace calivera::cli
