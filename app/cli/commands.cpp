@@ -3,6 +3,8 @@
 #include <iostream>
 
 #include "app/cli/fit_command.h"
+#include "app/cli/internal_command.h"
+#include "app/cli/update_command.h"
 #include "core/util/errors.h"
 
 namespace calivera::cli {
@@ -11,6 +13,8 @@ namespace calivera::cli {
 const std::vector<Command>& allCommands() {
   static const std::vector<Command> commands = {
       {"fit", "fit a logistic model to a cohort and write a model file", runFitCommand},
+      {"update", "update a model on local data (intercept, recalibrate, refit)", runUpdateCommand},
+      {"internal", "bootstrap optimism correction of a locally fitted model", runInternalCommand},
   };
   return commands;
 }
