@@ -5,6 +5,7 @@
 #include "app/cli/fit_command.h"
 #include "app/cli/internal_command.h"
 #include "app/cli/update_command.h"
+#include "app/cli/validate_command.h"
 #include "core/util/errors.h"
 
 namespace calivera::cli {
@@ -13,6 +14,7 @@ namespace calivera::cli {
 const std::vector<Command>& allCommands() {
   static const std::vector<Command> commands = {
       {"fit", "fit a logistic model to a cohort and write a model file", runFitCommand},
+      {"validate", "performance of a model or risk column on a cohort", runValidateCommand},
       {"update", "update a model on local data (intercept, recalibrate, refit)", runUpdateCommand},
       {"internal", "bootstrap optimism correction of a locally fitted model", runInternalCommand},
   };

@@ -8,6 +8,7 @@
 #include <nlohmann/json.hpp>
 
 #include "app/cli/arguments.h"
+#include "app/cli/data_options.h"
 #include "app/cli/local_cohort.h"
 #include "core/model/linear_predictor.h"
 #include "core/model/model_io.h"
@@ -25,7 +26,7 @@ void printHelp() {
       << "usage: calivera internal --data FILE --outcome COLUMN --model FITTED.json\n"
          "                         [--bootstrap B] [--seed S] [--threads N] [--firth]\n"
          "                         [--shrunk-out FILE] [--json FILE] [--no-ici]\n"
-         "                         [--event-value V] [--missing TOKEN]\n\n"
+         "                         [--event-value V] [--missing TOKEN] [--delimiter C]\n\n"
          "Bootstrap optimism correction of AUC, calibration slope and intercept, Brier and ICI\n"
          "for a model fitted on FILE (e.g. by 'calivera fit'). B resamples (default 200) with\n"
          "seed S (default 1) on N threads (default all); same seed, same result for any N.\n"
@@ -36,9 +37,11 @@ void printHelp() {
 }  // namespace
 
 int runInternalCommand(const std::vector<std::string>& words) {
-  const Arguments args(words, {{"--data", "--outcome", "--event-value", "--missing", "--model",
-                                "--bootstrap", "--seed", "--threads", "--shrunk-out", "--json"},
-                               {"--firth", "--no-ici", "--help"}});
+  OptionSpec spec{{"--data", "--outcome", "--model", "--bootstrap", "--seed", "--threads",
+                   "--shrunk-out", "--json"},
+                  {"--firth", "--no-ici", "--help"}};
+  addDataOptions(spec);
+  const Arguments args(words, spec);
   if (args.has("--help")) {
     printHelp();
     return 0;

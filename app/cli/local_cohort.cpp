@@ -2,6 +2,7 @@
 
 #include <algorithm>
 
+#include "app/cli/data_options.h"
 #include "core/data/csv_reader.h"
 #include "core/model/linear_predictor.h"
 #include "core/util/errors.h"
@@ -12,11 +13,9 @@ namespace calivera::cli {
 LocalCohort loadLocalCohort(const Arguments& args, const Model& model) {
   LocalCohort cohort;
   cohort.path = args.required("--data");
-  CsvOptions csv;  // delimiter detected from the header
-  for (const std::string& token : args.values("--missing")) csv.missingTokens.push_back(token);
-  cohort.table = readCsvFile(cohort.path, csv).table;
+  cohort.table = readCsvFile(cohort.path, csvOptionsFrom(args)).table;
   cohort.sha256 = sha256OfFile(cohort.path);
-  OutcomeSpec outcome{args.required("--outcome"), args.value("--event-value")};
+  OutcomeSpec outcome{args.required("--outcome"), eventValueFrom(args)};
   std::vector<std::string> columns = requiredColumns(model);
   if (std::find(columns.begin(), columns.end(), outcome.column) == columns.end()) {
     columns.push_back(outcome.column);

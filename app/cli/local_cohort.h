@@ -25,8 +25,8 @@ struct LocalCohort {
   std::size_t events = 0;
 };
 
-// Options --data, --outcome, --event-value, --missing (repeatable). Throws InputError naming the
-// file, column and value for bad input.
+// Options --data, --outcome and those of data_options.h (--delimiter, --missing, --event-value).
+// Throws InputError naming the file, column and value for bad input.
 LocalCohort loadLocalCohort(const Arguments& args, const Model& model);
 
 // "n rows read, k excluded (column: m missing, ...), n analysed, e events".

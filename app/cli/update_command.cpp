@@ -7,6 +7,7 @@
 #include <nlohmann/json.hpp>
 
 #include "app/cli/arguments.h"
+#include "app/cli/data_options.h"
 #include "app/cli/local_cohort.h"
 #include "core/model/model_io.h"
 #include "core/uncertainty/model_update.h"
@@ -21,7 +22,8 @@ void printHelp() {
   std::cout
       << "usage: calivera update --data FILE --outcome COLUMN --model MODEL.json\n"
          "                       --method intercept|recalibrate|refit --out NEW.json\n"
-         "                       [--event-value V] [--missing TOKEN] [--firth] [--alpha A]\n"
+         "                       [--event-value V] [--missing TOKEN] [--delimiter C] [--firth] "
+         "[--alpha A]\n"
          "                       [--json FILE]\n\n"
          "  intercept     re-estimate the intercept only (linear predictor as offset)\n"
          "  recalibrate   logit p = a + b * LP; intercept a + b * intercept, coefficients * b\n"
@@ -33,9 +35,10 @@ void printHelp() {
 }  // namespace
 
 int runUpdateCommand(const std::vector<std::string>& words) {
-  const Arguments args(words, {{"--data", "--outcome", "--event-value", "--missing", "--model",
-                                "--method", "--out", "--alpha", "--json"},
-                               {"--firth", "--help"}});
+  OptionSpec spec{{"--data", "--outcome", "--model", "--method", "--out", "--alpha", "--json"},
+                  {"--firth", "--help"}};
+  addDataOptions(spec);
+  const Arguments args(words, spec);
   if (args.has("--help")) {
     printHelp();
     return 0;

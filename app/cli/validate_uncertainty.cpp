@@ -2,6 +2,8 @@
 
 #include <cmath>
 
+#include "core/report/validation_json.h"
+#include "core/uncertainty/uncertainty_json.h"
 #include "core/util/errors.h"
 
 namespace calivera::cli {
@@ -62,7 +64,18 @@ UncertaintyRequest uncertaintyRequest(const Arguments& args) {
   return request;
 }
 
-void printUncertaintySummary(std::ostream& out, const UncertaintyResults& r) {
+std::optional<std::string> primaryModelPath(const Arguments& args) {
+  const std::vector<std::string> models = args.values("--model");
+  return models.empty() ? std::nullopt : std::optional(models.front());
+}
+
+std::string validationJsonText(const ValidationRun& run, const UncertaintyResults& results) {
+  nlohmann::json json = validationToJson(run);
+  addUncertaintyJson(json, results);
+  return json.dump(2) + "\n";
+}
+
+void printSampleSizeSummary(std::ostream& out, const UncertaintyResults& r) {
   const SampleSizeAssessment& s = r.sampleSize;
   out << "sample size: " << s.verdict << '\n';
   for (const auto& rule : s.rules) {
@@ -75,6 +88,10 @@ void printUncertaintySummary(std::ostream& out, const UncertaintyResults& r) {
     if (c.achievedCiWidth) out << "; achieved width " << *c.achievedCiWidth;
     out << '\n';
   }
+  out << '\n';
+}
+
+void printUncertaintySummary(std::ostream& out, const UncertaintyResults& r) {
   if (r.bootstrap) {
     const ValidationBootstrap& b = *r.bootstrap;
     out << "bootstrap: " << b.run.replicates << " resamples, seed " << b.run.seed << ", "

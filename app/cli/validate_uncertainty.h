@@ -9,7 +9,9 @@
 //   --subgroup COLUMN      every measure per level of COLUMN (repeatable)
 //   --size-thresholds T,.. thresholds for the net-benefit sample-size criterion
 
+#include <optional>
 #include <ostream>
+#include <string>
 
 #include "app/cli/arguments.h"
 #include "core/uncertainty/uncertainty_run.h"
@@ -22,8 +24,16 @@ void addUncertaintyOptions(OptionSpec& spec);
 // comparison model.
 UncertaintyRequest uncertaintyRequest(const Arguments& args);
 
-// A few lines for the text summary: adequacy first, then intervals, comparison, subgroups.
+// The first --model (the validated one); std::nullopt without --model.
+std::optional<std::string> primaryModelPath(const Arguments& args);
+
+// Text summary: the sample-size verdict (printed before the results), then intervals,
+// comparison and subgroups.
+void printSampleSizeSummary(std::ostream& out, const UncertaintyResults& results);
 void printUncertaintySummary(std::ostream& out, const UncertaintyResults& results);
+
+// The validation JSON with the uncertainty keys added (indented, trailing newline).
+std::string validationJsonText(const ValidationRun& run, const UncertaintyResults& results);
 
 // Help lines for the options above.
 const char* uncertaintyOptionsHelp();

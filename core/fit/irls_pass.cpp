@@ -153,9 +153,7 @@ Eigen::VectorXd LogisticPass::firthAdjustment(const Eigen::MatrixXd& lower) {
       // Rows of W^(1/2) X L^(-T): their squared norms are the hat diagonal.
       auto z = scaled.topRows(m);
       upper.triangularView<Eigen::Upper>().solveInPlace<Eigen::OnTheRight>(z);
-      for (Eigen::Index i = 0; i < m; ++i) {
-        weight[i] = z.row(i).squaredNorm() * (0.5 - mu[i]);
-      }
+      weight.head(m) = z.cwiseAbs2().rowwise().sum().cwiseProduct((0.5 - mu.array()).matrix());
       out.noalias() += rows.transpose() * weight.head(m);
     }
   });

@@ -12,7 +12,7 @@ json number(double value) {
 }
 
 json interval(const Interval& ci) {
-  return {{"lo", number(ci.lo)}, {"hi", number(ci.hi)}};
+  return json::array({number(ci.lo), number(ci.hi)});
 }
 
 json estimate(const BootstrapEstimate& e) {

@@ -1,7 +1,7 @@
 #pragma once
 // JSON form of the uncertainty results, the keys the validate, update and internal commands
-// write and the README documents. snake_case keys; intervals as {"lo", "hi"}; NaN and infinities
-// as null (JSON has no NaN).
+// write and the README documents. snake_case keys; intervals as [lo, hi] (as in
+// core/report/validation_json.h); NaN and infinities as null (JSON has no NaN).
 
 #include <nlohmann/json.hpp>
 
