@@ -36,7 +36,7 @@ double netBenefit(const SortedCohort& sorted, double threshold) {
 
 }  // namespace
 
-std::vector<std::vector<double>> delongCovariance(const std::vector<DelongComponents>& components) {
+std::vector<std::vector<double>> delongCovariance(const std::vector<DelongPlacements>& components) {
   const std::size_t k = components.size();
   std::vector<double> meanNonEvent(k);
   for (std::size_t r = 0; r < k; ++r) {
@@ -57,7 +57,7 @@ std::vector<std::vector<double>> delongCovariance(const std::vector<DelongCompon
   return covariance;
 }
 
-PairedAucTest pairedDelongTest(const std::vector<DelongComponents>& components,
+PairedAucTest pairedDelongTest(const std::vector<DelongPlacements>& components,
                                const std::vector<std::vector<double>>& covariance,
                                std::size_t first, std::size_t second) {
   PairedAucTest test;
@@ -99,8 +99,8 @@ ModelComparison compareModels(const std::vector<std::string>& names,
   if (events == 0 || events == static_cast<std::ptrdiff_t>(outcome.size())) {
     throw AnalysisError("a comparison needs both events and non-events");
   }
-  std::vector<DelongComponents> components;
-  for (const auto& r : risks) components.push_back(delongComponents(r, outcome));
+  std::vector<DelongPlacements> components;
+  for (const auto& r : risks) components.push_back(delongPlacements(r, outcome));
   result.aucCovariance = delongCovariance(components);
   for (const auto& c : components) result.aucs.push_back(c.auc);
 

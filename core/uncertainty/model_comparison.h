@@ -27,8 +27,8 @@
 namespace calivera {
 
 // Covariance matrix (row-major, k x k) of the AUCs of k scores on the same patients, from the
-// placement values of core/metrics/auc_delong.h (each from delongComponents on the same rows).
-std::vector<std::vector<double>> delongCovariance(const std::vector<DelongComponents>& components);
+// placement values of core/metrics/auc_delong.h (each from delongPlacements on the same rows).
+std::vector<std::vector<double>> delongCovariance(const std::vector<DelongPlacements>& components);
 
 struct PairedAucTest {
   std::size_t first = 0, second = 0;  // indices of the models compared
@@ -41,7 +41,7 @@ struct PairedAucTest {
   double correlation = 0.0;  // S12 / sqrt(S11 S22)
 };
 
-PairedAucTest pairedDelongTest(const std::vector<DelongComponents>& components,
+PairedAucTest pairedDelongTest(const std::vector<DelongPlacements>& components,
                                const std::vector<std::vector<double>>& covariance,
                                std::size_t first, std::size_t second);
 

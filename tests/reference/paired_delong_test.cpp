@@ -24,9 +24,9 @@ nlohmann::json loadReference() {
 TEST(PairedDelong, MatchesTheHandComputationInROnBirthwt) {
   const auto ref = loadReference();
   const auto y = ref["outcome"].get<std::vector<double>>();
-  const std::vector<DelongComponents> components = {
-      delongComponents(ref["score_a"].get<std::vector<double>>(), y),
-      delongComponents(ref["score_b"].get<std::vector<double>>(), y)};
+  const std::vector<DelongPlacements> components = {
+      delongPlacements(ref["score_a"].get<std::vector<double>>(), y),
+      delongPlacements(ref["score_b"].get<std::vector<double>>(), y)};
   const auto covariance = delongCovariance(components);
   EXPECT_NEAR(components[0].auc, ref["auc_a"].get<double>(), kTolerance);
   EXPECT_NEAR(components[1].auc, ref["auc_b"].get<double>(), kTolerance);
@@ -55,7 +55,7 @@ TEST(PairedDelong, HanleyMcNeilRatingTableDelongSe) {
       y.push_back(1);
     }
   }
-  const std::vector<DelongComponents> c = {delongComponents(score, y)};
+  const std::vector<DelongPlacements> c = {delongPlacements(score, y)};
   EXPECT_NEAR(c[0].auc, 0.8932, 5e-5);
   EXPECT_NEAR(std::sqrt(delongCovariance(c)[0][0]), 0.030724, 5e-7);
 }
@@ -63,7 +63,7 @@ TEST(PairedDelong, HanleyMcNeilRatingTableDelongSe) {
 TEST(PairedDelong, IdenticalScoresGiveNoTest) {
   const std::vector<double> y = {0, 1, 0, 1, 1, 0};
   const std::vector<double> s = {0.1, 0.9, 0.3, 0.4, 0.8, 0.2};
-  const std::vector<DelongComponents> c = {delongComponents(s, y), delongComponents(s, y)};
+  const std::vector<DelongPlacements> c = {delongPlacements(s, y), delongPlacements(s, y)};
   const PairedAucTest test = pairedDelongTest(c, delongCovariance(c), 0, 1);
   EXPECT_DOUBLE_EQ(test.difference, 0.0);
   EXPECT_TRUE(std::isnan(test.pValue));
