@@ -3,6 +3,7 @@
 #include <iostream>
 
 #include "app/cli/fit_command.h"
+#include "app/cli/validate_command.h"
 #include "core/util/errors.h"
 
 namespace calivera::cli {
@@ -11,6 +12,7 @@ namespace calivera::cli {
 const std::vector<Command>& allCommands() {
   static const std::vector<Command> commands = {
       {"fit", "fit a logistic model to a cohort and write a model file", runFitCommand},
+      {"validate", "performance of a model or risk column on a cohort", runValidateCommand},
   };
   return commands;
 }

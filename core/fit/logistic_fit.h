@@ -45,7 +45,9 @@ struct FitResult {
 
 // X holds one column per coefficient, the intercept column (all ones) included by the caller.
 // y is 0/1. offset, when given, is added to the linear predictor with coefficient fixed at 1.
-// Never throws for data problems: they come back in `problem` and `warnings`.
+// Never throws for data problems: they come back in `problem` and `warnings`. Throws
+// std::invalid_argument for caller errors: sizes that differ, y not 0/1, a non-finite entry of X
+// or offset (clamp risks of exactly 0 or 1 before taking their logit).
 FitResult fitLogistic(const Eigen::MatrixXd& X, const Eigen::VectorXd& y,
                       const Eigen::VectorXd* offset, const FitOptions& options);
 

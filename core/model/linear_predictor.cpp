@@ -67,7 +67,9 @@ class BoundTerm {
       }
       const std::string mapped =
           name == term.variable ? "" : " (mapped from '" + term.variable + "')";
-      throw InputError(table.sourceName + ": model '" + model.name + "', term '" + label() +
+      const std::string modelText = model.sourcePath.empty() ? "model '" + model.name + "'"
+                                                             : "model file " + model.sourcePath;
+      throw InputError(table.sourceName + ": " + modelText + ", term '" + label() +
                        "' needs column '" + name + "'" + mapped +
                        ", which the cohort lacks (columns: " + available + ")");
     }

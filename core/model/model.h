@@ -64,6 +64,9 @@ struct Model {
   std::map<std::string, std::string> columnMapping;
   // Free-form provenance of updates (which model it updates, on which data, which method).
   std::optional<std::string> provenance;
+  // The file readModelFile read this model from, for messages; empty when built in memory.
+  // Not part of the file format.
+  std::string sourcePath;
 };
 
 }  // namespace calivera

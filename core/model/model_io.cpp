@@ -378,7 +378,9 @@ Model readModelFile(const std::string& path) {
   std::ostringstream buffer;
   buffer << in.rdbuf();
   if (in.bad()) throw InputError(path + ": read failed");
-  return parseModelJson(buffer.str(), path);
+  Model model = parseModelJson(buffer.str(), path);
+  model.sourcePath = path;
+  return model;
 }
 
 std::string modelToJson(const Model& model) {

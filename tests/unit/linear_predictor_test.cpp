@@ -127,6 +127,9 @@ TEST(LinearPredictor, MissingColumnNamesFileTermAndColumn) {
   EXPECT_NE(message.find("cohort.csv"), std::string::npos) << message;
   EXPECT_NE(message.find("'body mass'"), std::string::npos) << message;
   EXPECT_NE(message.find("'bmi'"), std::string::npos) << message;
+  model.sourcePath = "published.json";
+  const std::string fromFile = messageOf([&] { designMatrix(model, table, allRows(table)); });
+  EXPECT_NE(fromFile.find("model file published.json"), std::string::npos) << fromFile;
 }
 
 TEST(LinearPredictor, NumericTransformOfTextColumnNamesLineAndText) {
