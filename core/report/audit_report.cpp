@@ -392,7 +392,10 @@ std::vector<std::string> reportWarnings(const AuditReportInput& input) {
         "Sample size: fewer than 200 events; intervals are wide for calibration "
         "(200 or more events are preferred).");
   }
-  if (input.exclusions.rowsExcluded > 0) {
+  const bool pipelineNamesExclusions =
+      std::any_of(input.result.warnings.begin(), input.result.warnings.end(),
+                  [](const std::string& w) { return w.find("excluded") != std::string::npos; });
+  if (input.exclusions.rowsExcluded > 0 && !pipelineNamesExclusions) {
     const std::size_t excluded = input.exclusions.rowsExcluded;
     warnings.push_back(
         (below >= 2 && excluded < below ? "Fewer than " + std::to_string(below)
@@ -401,7 +404,9 @@ std::vector<std::string> reportWarnings(const AuditReportInput& input) {
         "related to the outcome, performance on the analysed rows can differ from the whole "
         "cohort.");
   }
-  for (const std::string& warning : input.result.warnings) warnings.push_back(warning);
+  for (const std::string& warning : input.result.warnings) {
+    warnings.push_back(below >= 2 ? suppressSmallNumbersInText(warning, below) : warning);
+  }
   return warnings;
 }
 

@@ -10,6 +10,7 @@
 #include <cstdlib>
 #include <ctime>
 #include <memory>
+#include <utility>
 
 #include "core/util/atomic_file.h"
 #include "core/util/errors.h"
@@ -108,7 +109,7 @@ QByteArray renderAuditPdf(const AuditDocument& doc, PaperSize paper, const Chart
   return bytes;
 }
 
-void writeAuditReportPdf(AuditReportInput input, const std::string& path, PaperSize paper) {
+std::string renderAuditReportPdf(AuditReportInput input, PaperSize paper) {
   const long long timestamp = reportTimestamp();
   if (input.createdAt.empty()) input.createdAt = formatUtcTimestamp(timestamp);
   if (input.softwareVersion.empty()) input.softwareVersion = CALIVERA_VERSION;
@@ -116,8 +117,11 @@ void writeAuditReportPdf(AuditReportInput input, const std::string& path, PaperS
   const ApplicationScope application;
   const ChartPainter charts = replayCharts(recordReportCharts(doc));
   const QByteArray pdf = renderAuditPdf(doc, paper, charts, timestamp);
-  writeFileAtomically(path,
-                      std::string_view(pdf.constData(), static_cast<std::size_t>(pdf.size())));
+  return std::string(pdf.constData(), static_cast<std::size_t>(pdf.size()));
+}
+
+void writeAuditReportPdf(AuditReportInput input, const std::string& path, PaperSize paper) {
+  writeFileAtomically(path, renderAuditReportPdf(std::move(input), paper));
 }
 
 }  // namespace calivera::ui::report

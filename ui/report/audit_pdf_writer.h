@@ -32,7 +32,14 @@ QByteArray renderAuditPdf(const AuditDocument& doc, PaperSize paper, const Chart
 // when the PDF holds no creation date in Qt's format.
 bool setPdfCreationDate(QByteArray& pdf, long long creationTime);
 
-// The whole path for the command line: fills in input.createdAt from reportTimestamp() when
+// The PDF bytes of `input` for the command line, which writes them with its other outputs: fills
+// in input.createdAt from reportTimestamp() when empty, builds the document, records the charts
+// and renders. Creates an offscreen QApplication when the process has none (and no display).
+// Call on the main thread. Throws InputError (SOURCE_DATE_EPOCH, a threshold not computed) or
+// AnalysisError.
+std::string renderAuditReportPdf(AuditReportInput input, PaperSize paper);
+
+// The same, written to `path`: fills in input.createdAt from reportTimestamp() when
 // empty, builds the document, records the charts, renders and writes `path` atomically. Creates
 // an offscreen QApplication when the process has none (and no display). Call on the main thread.
 // Throws InputError (bad path, SOURCE_DATE_EPOCH) or AnalysisError.
