@@ -2,6 +2,7 @@
 
 #include <QApplication>
 #include <QBuffer>
+#include <QHashSeed>
 #include <QPageLayout>
 #include <QPageSize>
 #include <QPdfWriter>
@@ -89,6 +90,10 @@ bool setPdfCreationDate(QByteArray& pdf, long long creationTime) {
 
 QByteArray renderAuditPdf(const AuditDocument& doc, PaperSize paper, const ChartPainter& charts,
                           long long creationTime) {
+  // Qt's PDF engine writes its embedded fonts in QHash order, which follows the per-process random
+  // hash seed: a fixed seed while the writer exists makes the object order, and so the bytes,
+  // repeat. (Qt 6.4 reads the global seed when a hash is created; other hashes are unaffected.)
+  QHashSeed::setDeterministicGlobalSeed();
   QByteArray bytes;
   {
     QBuffer buffer(&bytes);
@@ -102,6 +107,7 @@ QByteArray renderAuditPdf(const AuditDocument& doc, PaperSize paper, const Chart
         QPageLayout(size, QPageLayout::Portrait, QMarginsF(50, 44, 50, 36), QPageLayout::Point));
     paintAuditDocument(doc, writer, charts);
   }
+  QHashSeed::resetRandomGlobalSeed();
   if (bytes.isEmpty()) throw AnalysisError("the PDF engine produced no output");
   if (!setPdfCreationDate(bytes, creationTime)) {
     throw AnalysisError("the PDF engine wrote no creation date in the expected format");
