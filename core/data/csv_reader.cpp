@@ -210,10 +210,15 @@ void parseChunk(std::string_view text, const FieldReader& reader, const std::str
     for (std::size_t c = 0; c < width; ++c) {
       const char* fieldEnd = nullptr;
       double value = 0.0;
-      // Most fields are plain numbers: one from_chars call both parses and finds the field end.
-      const auto [stop, error] = std::from_chars(field, contentEnd, value);
-      if (!tokenCheck && error == std::errc() && (stop == contentEnd || *stop == delimiter) &&
-          std::isfinite(value)) {
+      // Most fields are plain numbers: one parse both reads the value and finds the field end.
+      const char* stop = csv::parsePlainDecimal(field, contentEnd, value);
+      bool parsed = stop != nullptr;
+      if (!parsed) {
+        const auto fromChars = std::from_chars(field, contentEnd, value);
+        stop = fromChars.ptr;
+        parsed = fromChars.ec == std::errc() && std::isfinite(value);
+      }
+      if (!tokenCheck && parsed && (stop == contentEnd || *stop == delimiter)) {
         slots[c][row] = value;
         fieldEnd = stop;
       } else {

@@ -81,9 +81,9 @@ Interval aucLogitInterval(double auc, double se, double z) {
   return {expit(centre - half), expit(centre + half)};
 }
 
-DelongComponents delongComponents(const SortedCohort& sorted) {
+DelongPlacements delongPlacements(const SortedCohort& sorted) {
   const Moments m = momentsOf(sorted);
-  DelongComponents c;
+  DelongPlacements c;
   c.auc = m.auc;
   c.s10 = m.s10;
   c.s01 = m.s01;
@@ -106,9 +106,9 @@ DelongComponents delongComponents(const SortedCohort& sorted) {
   return c;
 }
 
-DelongComponents delongComponents(const std::vector<double>& risk,
+DelongPlacements delongPlacements(const std::vector<double>& risk,
                                   const std::vector<double>& outcome) {
-  return delongComponents(sortCohort(risk, outcome));
+  return delongPlacements(sortCohort(risk, outcome));
 }
 
 AucEstimate aucWithDelong(const SortedCohort& sorted, double z) {

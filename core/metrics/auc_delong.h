@@ -27,9 +27,10 @@
 
 namespace calivera {
 
-// DeLong's structural components per patient, in input order, kept so a paired comparison of two
-// models on the same patients can form the covariance S12 from them.
-struct DelongComponents {
+// DeLong's structural components (placement values) per patient, in input order, so a paired
+// comparison of models on the same patients (core/uncertainty/model_comparison.h) can form the
+// covariance S12 from them without re-deriving the midrank algorithm.
+struct DelongPlacements {
   double auc = 0.0;
   std::vector<double> v10;  // one per event, in the order events occur in the input
   std::vector<double> v01;  // one per non-event, in input order
@@ -47,9 +48,9 @@ struct AucEstimate {
   bool varianceIncomplete = false;
 };
 
-DelongComponents delongComponents(const std::vector<double>& risk,
+DelongPlacements delongPlacements(const std::vector<double>& risk,
                                   const std::vector<double>& outcome);
-DelongComponents delongComponents(const SortedCohort& sorted);
+DelongPlacements delongPlacements(const SortedCohort& sorted);
 
 // AUC, DeLong SE and both 95% intervals without storing per-patient components.
 AucEstimate aucWithDelong(const SortedCohort& sorted, double z = 1.959963984540054);

@@ -10,6 +10,7 @@ std::vector<RocPoint> rocCurve(const SortedCohort& sorted) {
   const double n1 = static_cast<double>(sorted.events);
   const double n0 = static_cast<double>(sorted.nonEvents());
   std::vector<RocPoint> curve;
+  curve.reserve(n + 1);
   curve.push_back({std::numeric_limits<double>::infinity(), 0.0, 0.0});
   // Walk distinct risks from the highest down; at each the flagged set is positions begin..n-1.
   std::size_t end = n;
@@ -28,6 +29,7 @@ std::vector<RocPoint> rocCurve(const SortedCohort& sorted) {
 std::vector<RocPoint> thinRocCurve(const std::vector<RocPoint>& curve, std::size_t maxPoints) {
   if (curve.size() <= 2) return curve;
   std::vector<RocPoint> kept{curve.front()};
+  kept.reserve(curve.size());
   for (std::size_t i = 1; i + 1 < curve.size(); ++i) {
     const RocPoint& a = kept.back();
     const RocPoint& b = curve[i];
@@ -39,8 +41,9 @@ std::vector<RocPoint> thinRocCurve(const std::vector<RocPoint>& curve, std::size
   if (maxPoints < 2 || kept.size() <= maxPoints) return kept;
   std::vector<double> length(kept.size(), 0.0);
   for (std::size_t i = 1; i < kept.size(); ++i) {
-    length[i] =
-        length[i - 1] + std::hypot(kept[i].fpr - kept[i - 1].fpr, kept[i].tpr - kept[i - 1].tpr);
+    const double dx = kept[i].fpr - kept[i - 1].fpr;
+    const double dy = kept[i].tpr - kept[i - 1].tpr;
+    length[i] = length[i - 1] + std::sqrt(dx * dx + dy * dy);
   }
   const double step = length.back() / static_cast<double>(maxPoints - 1);
   std::vector<RocPoint> thinned{kept.front()};

@@ -109,5 +109,26 @@ TEST(BirthwtReference, OffsetModelsMatchRGlm) {
   }
 }
 
+TEST(BirthwtReference, FirthMatchesDirectMaximisationWithScipy) {
+  // tests/reference/scripts/birthwt_firth.py maximises log L + 1/2 log det I with scipy's
+  // general-purpose optimisers (no modified score); its precision (about 2e-7 relative) limits the tolerance.
+  const Birthwt d = loadBirthwt();
+  Eigen::MatrixXd X(d.low.size(), 6);
+  X << Eigen::VectorXd::Ones(d.low.size()), d.age, d.lwt, d.black, d.other, d.ftv;
+  FitOptions options;
+  options.firth = true;
+  const FitResult fit = fitLogistic(X, d.low, nullptr, options);
+  ASSERT_TRUE(fit.converged);
+  const auto reference = readReference(referencePath("birthwt_firth.csv"));
+  const char* terms[] = {"(Intercept)", "age", "lwt", "raceblack", "raceother", "ftv"};
+  for (int j = 0; j < 6; ++j) {
+    const auto& r = reference.at({"", terms[j]});
+    EXPECT_LT(relativeDifference(fit.beta[j], r.value), 1e-6) << terms[j];
+    EXPECT_LT(relativeDifference(fit.se[j], r.se), 1e-6) << terms[j];
+  }
+  // Our maximum is at least as high as the optimiser's.
+  EXPECT_GE(fit.penalizedLogLikelihood, reference.at({"", "penalized_loglik"}).value - 1e-10);
+}
+
 }  // namespace
 }  // namespace calivera

@@ -57,7 +57,7 @@ TEST(PublishedHanleyMcNeil, AucDelongSeAndBothIntervals) {
 
 TEST(PublishedHanleyMcNeil, ComponentsReproduceTheEstimateAndTheRocArea) {
   const SortedCohort cohort = hanleyMcNeilCohort();
-  const DelongComponents c = delongComponents(cohort);
+  const DelongPlacements c = delongPlacements(cohort);
   const AucEstimate e = aucWithDelong(cohort);
   ASSERT_EQ(c.v10.size(), 51u);
   ASSERT_EQ(c.v01.size(), 58u);

@@ -199,3 +199,48 @@ TEST(LoessCalibration, GridInterpolationStaysCloseToTheExactFit) {
 
 }  // namespace
 }  // namespace calivera
+
+namespace calivera {
+namespace {
+
+// The block-moment evaluation of the local sums against the definition summed point by point
+// (tricube over the q nearest, weighted quadratic solved directly), at n large enough that most
+// of each window goes through the block path.
+TEST(LoessCalibration, BlockMomentFitsEqualDirectLocalFits) {
+  const ValidationInput in = calibratedCohort(8, 20000);
+  const SortedCohort sorted = sortCohort(in.risk, in.outcome);
+  const std::vector<double> y(sorted.event.begin(), sorted.event.end());
+  const std::size_t n = sorted.size();
+  const auto q = static_cast<std::size_t>(std::floor(0.75 * n));
+  std::vector<double> at;
+  for (int k = 0; k <= 20; ++k) at.push_back(quantileType7(sorted.risk, k / 20.0));
+  at.push_back(0.5 * (at[3] + at[4]));  // a point between patients
+  std::sort(at.begin(), at.end());
+  bool singular = false;
+  const std::vector<double> fitted = loessFitAt(sorted.risk, y, at, 0.75, &singular);
+  EXPECT_FALSE(singular);
+  for (std::size_t k = 0; k < at.size(); ++k) {
+    std::vector<double> distance(n);
+    for (std::size_t i = 0; i < n; ++i) distance[i] = std::abs(sorted.risk[i] - at[k]);
+    std::vector<double> copy = distance;
+    std::nth_element(copy.begin(), copy.begin() + static_cast<std::ptrdiff_t>(q - 1), copy.end());
+    const double h = copy[q - 1];
+    double m[5] = {}, r[3] = {};
+    for (std::size_t i = 0; i < n; ++i) {
+      if (distance[i] >= h) continue;
+      const double w = std::pow(1.0 - std::pow(distance[i] / h, 3), 3);
+      const double u = sorted.risk[i] - at[k];
+      for (int j = 0; j < 5; ++j) m[j] += w * std::pow(u, j);
+      for (int j = 0; j < 3; ++j) r[j] += w * y[i] * std::pow(u, j);
+    }
+    const double det = m[0] * (m[2] * m[4] - m[3] * m[3]) - m[1] * (m[1] * m[4] - m[3] * m[2]) +
+                       m[2] * (m[1] * m[3] - m[2] * m[2]);
+    const double b0 = (r[0] * (m[2] * m[4] - m[3] * m[3]) - m[1] * (r[1] * m[4] - m[3] * r[2]) +
+                       m[2] * (r[1] * m[3] - m[2] * r[2])) /
+                      det;  // Cramer's rule for the constant term
+    EXPECT_NEAR(fitted[k], b0, 1e-9) << "x0 = " << at[k];
+  }
+}
+
+}  // namespace
+}  // namespace calivera
