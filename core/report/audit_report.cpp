@@ -297,9 +297,11 @@ void addCharts(const AuditDocument& doc, std::vector<ReportBlock>& blocks) {
        "Figure 2. Calibration: smoothed observed proportion and risk "
        "groups (95% CI) against predicted risk; the ideal is the diagonal"},
       {ChartKind::DecisionCurve,
-       "Figure 3. Decision curve: net benefit of the model, of treating "
-       "all and of treating none; the shaded band is the reasonable "
-       "threshold range"},
+       doc.reasonableThresholds
+           ? "Figure 3. Decision curve: net benefit of the model, of treating all and of treating "
+             "none; the shaded band is the reasonable threshold range"
+           : "Figure 3. Decision curve: net benefit of the model, of treating all and of treating "
+             "none (no reasonable threshold range was set)"},
       {ChartKind::RiskDistribution, "Figure 4. Distribution of predicted risk by outcome"},
   };
   for (const auto& [kind, caption] : charts) {
