@@ -7,7 +7,7 @@ packages=(
   qt6-base-dev qt6-charts-dev qt6-svg-dev libgl1-mesa-dev
   libeigen3-dev libboost-math-dev nlohmann-json3-dev libssl-dev
   libgtest-dev libgmock-dev
-  poppler-utils
+  poppler-utils fonts-dejavu-core
 )
 missing=()
 for p in "${packages[@]}"; do
