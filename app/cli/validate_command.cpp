@@ -9,6 +9,7 @@
 
 #include "app/cli/arguments.h"
 #include "app/cli/data_options.h"
+#include "app/cli/validate_uncertainty.h"
 #include "core/metrics/validation_run.h"
 #include "core/report/audit_run.h"
 #include "core/report/validation_json.h"
@@ -80,9 +81,10 @@ int validateBody(const std::vector<std::string>& words) {
                  "--json", "--csv-dir", "--pdf",   "--title", "--suppress-below", "--paper"};
   spec.flags = {"--help"};
   addDataOptions(spec);
+  addUncertaintyOptions(spec);  // uncertainty: --bootstrap, --compare, --subgroup, ...
   const Arguments arguments(words, spec);
   if (arguments.has("--help")) {
-    std::cout << kHelp << kDataOptionsHelp;
+    std::cout << kHelp << kDataOptionsHelp << uncertaintyOptionsHelp();
     return 0;
   }
   if (!arguments.positional().empty()) {
@@ -93,7 +95,7 @@ int validateBody(const std::vector<std::string>& words) {
   request.outcome.column = arguments.required("--outcome");
   request.outcome.eventValue = eventValueFrom(arguments);
   request.csv = csvOptionsFrom(arguments);
-  request.modelPath = arguments.value("--model");
+  request.modelPath = primaryModelPath(arguments);  // uncertainty: later --model are compared
   request.riskColumn = arguments.value("--risk");
   if (request.modelPath.has_value() == request.riskColumn.has_value()) {
     throw InputError("give exactly one of --model and --risk");
@@ -132,10 +134,12 @@ int validateBody(const std::vector<std::string>& words) {
   if (pdfPath) throw InputError("--pdf: this build has no PDF report (built without the UI)");
 #endif
   const ValidationRun run = runValidation(request);
+  // uncertainty: sample size (always), bootstrap intervals, comparison, subgroups.
+  const UncertaintyResults uncertainty = runUncertainty(run, uncertaintyRequest(arguments));
   // Every output is rendered before anything is written; the JSON is written last so a reader
   // that waits for it sees the tables too.
   const auto jsonPath = arguments.value("--json");
-  const std::string jsonText = jsonPath ? validationJsonText(run) : std::string();
+  const std::string jsonText = jsonPath ? validationJsonText(run, uncertainty) : std::string();
 #ifdef CALIVERA_HAVE_UI
   const std::string pdf =
       pdfPath ? ui::report::renderAuditReportPdf(
@@ -150,7 +154,9 @@ int validateBody(const std::vector<std::string>& words) {
   if (jsonPath) {
     writeFileAtomically(*jsonPath, jsonText);
   } else {
+    printSampleSizeSummary(std::cout, uncertainty);  // uncertainty: adequacy before results
     std::cout << validationSummaryText(run);
+    printUncertaintySummary(std::cout, uncertainty);
   }
   return 0;
 }
