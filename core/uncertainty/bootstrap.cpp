@@ -1,0 +1,163 @@
+#include "core/uncertainty/bootstrap.h"
+
+#include <algorithm>
+#include <atomic>
+#include <chrono>
+#include <cmath>
+#include <condition_variable>
+#include <exception>
+#include <limits>
+#include <mutex>
+#include <stdexcept>
+#include <thread>
+
+#include "core/util/errors.h"
+
+namespace calivera {
+namespace {
+
+// SplitMix64 finalizer (Steele, Lea & Flood 2014; constants of Vigna's reference code).
+std::uint64_t splitMix64(std::uint64_t x) {
+  x += 0x9e3779b97f4a7c15ULL;
+  x = (x ^ (x >> 30)) * 0xbf58476d1ce4e5b9ULL;
+  x = (x ^ (x >> 27)) * 0x94d049bb133111ebULL;
+  return x ^ (x >> 31);
+}
+
+}  // namespace
+
+std::uint64_t replicateSeed(std::uint64_t seed, std::uint64_t replicate) {
+  // Hash twice so neighbouring seeds and neighbouring replicates give unrelated streams.
+  return splitMix64(splitMix64(seed) ^ (replicate * 0xd1b54a32d192ed03ULL + 1));
+}
+
+std::uint32_t uniformIndex(std::mt19937_64& generator, std::uint32_t n) {
+  const std::uint64_t range = n;
+  const std::uint64_t limit =
+      std::numeric_limits<std::uint64_t>::max() - std::numeric_limits<std::uint64_t>::max() % range;
+  std::uint64_t draw = generator();
+  while (draw >= limit) draw = generator();
+  return static_cast<std::uint32_t>(draw % range);
+}
+
+std::vector<std::uint32_t> drawResample(std::size_t n, std::uint64_t seed,
+                                        std::uint64_t replicate) {
+  std::mt19937_64 generator(replicateSeed(seed, replicate));
+  std::vector<std::uint32_t> indices(n);
+  const auto size = static_cast<std::uint32_t>(n);
+  for (auto& index : indices) index = uniformIndex(generator, size);
+  return indices;
+}
+
+unsigned resolveThreadCount(unsigned requested) {
+  if (requested > 0) return requested;
+  const unsigned hardware = std::thread::hardware_concurrency();
+  return hardware > 0 ? hardware : 1;
+}
+
+BootstrapRun runBootstrap(std::size_t n, std::size_t statisticCount,
+                          const ReplicateStatistic& statistic, const BootstrapOptions& options) {
+  if (options.replicates < 1) throw std::invalid_argument("bootstrap needs at least 1 replicate");
+  if (n == 0 || n > std::numeric_limits<std::uint32_t>::max()) {
+    throw std::invalid_argument("bootstrap needs 1 to 2^32-1 patients");
+  }
+  const auto replicates = static_cast<std::size_t>(options.replicates);
+  BootstrapRun run;
+  run.values.assign(replicates,
+                    std::vector<double>(statisticCount, std::numeric_limits<double>::quiet_NaN()));
+  std::vector<std::string> failures(replicates);
+  std::vector<char> failedFlag(replicates, 0);
+
+  std::atomic<std::size_t> next{0};
+  std::atomic<std::size_t> done{0};
+  std::atomic<bool> stop{false};
+  std::mutex mutex;
+  std::condition_variable finished;
+  std::exception_ptr error;
+
+  const auto work = [&] {
+    while (!stop.load()) {
+      const std::size_t r = next.fetch_add(1);
+      if (r >= replicates) break;
+      try {
+        std::vector<double> values = statistic(drawResample(n, options.seed, r));
+        if (values.size() != statisticCount) {
+          throw std::logic_error("bootstrap statistic returned the wrong number of values");
+        }
+        run.values[r] = std::move(values);
+      } catch (const AnalysisError& failure) {
+        failedFlag[r] = 1;
+        failures[r] = failure.what();
+      } catch (...) {
+        const std::lock_guard lock(mutex);
+        if (!error) error = std::current_exception();
+        stop.store(true);
+      }
+      done.fetch_add(1);
+      finished.notify_one();
+    }
+  };
+
+  run.threadsUsed =
+      static_cast<unsigned>(std::min<std::size_t>(resolveThreadCount(options.threads), replicates));
+  std::vector<std::jthread> workers;
+  workers.reserve(run.threadsUsed);
+  for (unsigned t = 0; t < run.threadsUsed; ++t) workers.emplace_back(work);
+
+  // The calling thread only reports progress, so a UI callback never runs on a worker.
+  bool cancelled = false;
+  {
+    std::unique_lock lock(mutex);
+    while (done.load() < replicates && !stop.load()) {
+      finished.wait_for(lock, std::chrono::milliseconds(50));
+      lock.unlock();
+      if (options.progress &&
+          !options.progress(static_cast<double>(done.load()) / static_cast<double>(replicates))) {
+        cancelled = true;
+        stop.store(true);
+      }
+      lock.lock();
+    }
+  }
+  for (auto& worker : workers) worker.join();
+  if (error) std::rethrow_exception(error);
+  if (cancelled) throw Cancelled();
+  reportProgress(options.progress, 1.0);
+
+  for (std::size_t r = 0; r < replicates; ++r) {
+    if (!failedFlag[r]) continue;
+    if (run.failed == 0) run.firstFailure = failures[r];
+    ++run.failed;
+  }
+  return run;
+}
+
+BootstrapSummary summarize(const BootstrapRun& run, const BootstrapOptions& options) {
+  return {options.replicates, options.seed, run.threadsUsed, run.failed, run.firstFailure};
+}
+
+double quantileIgnoringNan(std::vector<double> values, double probability) {
+  std::erase_if(values, [](double v) { return std::isnan(v); });
+  if (values.empty()) return std::numeric_limits<double>::quiet_NaN();
+  std::sort(values.begin(), values.end());
+  const double h = (static_cast<double>(values.size()) - 1.0) * probability;
+  const auto lo = static_cast<std::size_t>(std::floor(h));
+  const std::size_t hi = std::min(lo + 1, values.size() - 1);
+  return values[lo] + (h - static_cast<double>(lo)) * (values[hi] - values[lo]);
+}
+
+PercentileInterval percentileInterval(const BootstrapRun& run, std::size_t statistic,
+                                      double level) {
+  std::vector<double> column;
+  column.reserve(run.values.size());
+  for (const auto& row : run.values) column.push_back(row[statistic]);
+  PercentileInterval interval;
+  interval.replicatesUsed = static_cast<std::size_t>(
+      std::count_if(column.begin(), column.end(), [](double v) { return std::isfinite(v); }));
+  const double tail = (1.0 - level) / 2.0;
+  interval.lo = quantileIgnoringNan(column, tail);
+  interval.hi = quantileIgnoringNan(std::move(column), 1.0 - tail);
+  return interval;
+}
+
+}  // namespace calivera

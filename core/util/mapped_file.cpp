@@ -1,0 +1,72 @@
+#include "core/util/mapped_file.h"
+
+#include <fcntl.h>
+#include <sys/mman.h>
+#include <sys/stat.h>
+#include <unistd.h>
+
+#include <algorithm>
+#include <cerrno>
+#include <cstdint>
+#include <cstring>
+
+#include "core/util/errors.h"
+
+namespace calivera {
+namespace {
+
+// Closes the descriptor on every path; the mapping stays valid after close.
+class Descriptor {
+ public:
+  explicit Descriptor(int fd) : fd_(fd) {}
+  ~Descriptor() {
+    if (fd_ >= 0) ::close(fd_);
+  }
+  Descriptor(const Descriptor&) = delete;
+  Descriptor& operator=(const Descriptor&) = delete;
+  int get() const { return fd_; }
+
+ private:
+  int fd_;
+};
+
+}  // namespace
+
+MappedFile::MappedFile(const std::string& path) {
+  const Descriptor fd(::open(path.c_str(), O_RDONLY | O_CLOEXEC));
+  if (fd.get() < 0) throw InputError(path + ": cannot open (" + std::strerror(errno) + ")");
+  struct stat info {};
+  if (::fstat(fd.get(), &info) != 0) {
+    throw InputError(path + ": cannot read (" + std::strerror(errno) + ")");
+  }
+  if (!S_ISREG(info.st_mode)) throw InputError(path + ": not a regular file");
+  size_ = static_cast<std::size_t>(info.st_size);
+  if (size_ == 0) return;  // mmap refuses empty files; an empty view is what we want
+  void* mapped = ::mmap(nullptr, size_, PROT_READ, MAP_PRIVATE, fd.get(), 0);
+  if (mapped == MAP_FAILED) {
+    throw InputError(path + ": cannot read (" + std::strerror(errno) + ")");
+  }
+  data_ = static_cast<const char*>(mapped);
+  ::madvise(mapped, size_, MADV_SEQUENTIAL);
+}
+
+MappedFile::~MappedFile() {
+  if (data_ != nullptr) ::munmap(const_cast<char*>(data_), size_);
+}
+
+void MappedFile::release(std::string_view range) const {
+  if (data_ == nullptr || range.empty()) return;
+  const auto page = static_cast<std::uintptr_t>(::sysconf(_SC_PAGESIZE));
+  const auto begin = reinterpret_cast<std::uintptr_t>(range.data());
+  const auto end = begin + range.size();
+  // Rounding the start down may hand back a page a neighbouring range still reads; that costs
+  // one re-read from the page cache, never wrong data.
+  const std::uintptr_t first =
+      std::max(begin / page * page, reinterpret_cast<std::uintptr_t>(data_));
+  const std::uintptr_t last = end / page * page;
+  if (last <= first) return;
+  // Advice only: on failure the pages simply stay resident.
+  ::madvise(reinterpret_cast<void*>(first), last - first, MADV_DONTNEED);
+}
+
+}  // namespace calivera

@@ -1,0 +1,34 @@
+#pragma once
+// Read-only memory map of a whole input file, so a large cohort is parsed in place instead of
+// being copied into a buffer first. Pages already parsed can be handed back (release) so the
+// file and the parsed columns are not both resident at their full size.
+//
+// The file must not be truncated by another program while it is mapped (the read would fault).
+
+#include <cstddef>
+#include <string>
+#include <string_view>
+
+namespace calivera {
+
+class MappedFile {
+ public:
+  // Throws InputError naming the path when the file cannot be opened or mapped.
+  explicit MappedFile(const std::string& path);
+  ~MappedFile();
+  MappedFile(const MappedFile&) = delete;
+  MappedFile& operator=(const MappedFile&) = delete;
+
+  std::string_view bytes() const { return {data_, size_}; }
+
+  // The pages from the one holding the start of `range` (a part of bytes()) to the last one that
+  // ends inside it leave this process's resident memory; touching them again reads them back
+  // from the page cache, so this is only ever a cost, never a change of contents.
+  void release(std::string_view range) const;
+
+ private:
+  const char* data_ = nullptr;
+  std::size_t size_ = 0;
+};
+
+}  // namespace calivera
