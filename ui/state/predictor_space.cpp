@@ -106,6 +106,11 @@ std::vector<double> risks(const Model& model, const Table& t) {
   return lp;
 }
 
+double logit(double p) {
+  const double q = std::clamp(p, 1e-15, 1.0 - 1e-15);
+  return std::log(q / (1.0 - q));
+}
+
 Column& columnNamed(Table& t, const std::string& name) {
   for (Column& c : t.columns) {
     if (c.name == name) return c;
@@ -243,7 +248,10 @@ std::vector<Polyline> contourAt(const BoundaryData& s, double level) {
     const bool horizontal = edge % 2 == 0;
     const double a = value(i, j);
     const double b = horizontal ? value(i + 1, j) : value(i, j + 1);
-    const double f = a == b ? 0.5 : std::clamp((level - a) / (b - a), 0.0, 1.0);
+    // Interpolate on the logit scale: the linear predictor is linear along an edge for terms
+    // linear in the plotted predictors, so the traced boundary is then exact.
+    const double la = logit(a), lb = logit(b), ll = logit(level);
+    const double f = la == lb ? 0.5 : std::clamp((ll - la) / (lb - la), 0.0, 1.0);
     return horizontal ? std::pair{s.xs[i] + f * (s.xs[i + 1] - s.xs[i]), s.ys[j]}
                       : std::pair{s.xs[i], s.ys[j] + f * (s.ys[j + 1] - s.ys[j])};
   };

@@ -72,8 +72,8 @@ BoundaryData riskSurface(const Model& model, const std::map<std::string, std::st
 
 using Polyline = std::vector<std::pair<double, double>>;
 
-// Marching squares over the grid at `level`, linear interpolation along cell edges, segments
-// chained into polylines.
+// Marching squares over the grid at `level`, interpolated along cell edges on the logit scale,
+// segments chained into polylines.
 std::vector<Polyline> contourAt(const BoundaryData& surface, double level);
 
 // x values where the curve crosses `level` (linear interpolation between grid points).
