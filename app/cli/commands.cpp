@@ -2,6 +2,8 @@
 
 #include <iostream>
 
+#include "app/cli/fit_command.h"
+#include "app/cli/validate_command.h"
 #include "core/util/errors.h"
 
 namespace calivera::cli {
@@ -9,6 +11,8 @@ namespace calivera::cli {
 // Each command's file defines its entry point; register it here, one line each.
 const std::vector<Command>& allCommands() {
   static const std::vector<Command> commands = {
+      {"fit", "fit a logistic model to a cohort and write a model file", runFitCommand},
+      {"validate", "performance of a model or risk column on a cohort", runValidateCommand},
   };
   return commands;
 }

@@ -19,7 +19,7 @@ struct ColumnExclusion {
 
 struct ExclusionReport {
   std::size_t rowsRead = 0;
-  std::size_t rowsExcluded = 0;   // rows with a missing value in at least one used column
+  std::size_t rowsExcluded = 0;  // rows with a missing value in at least one used column
   std::size_t rowsAnalysed = 0;
   std::vector<ColumnExclusion> byColumn;  // in the order the columns were requested
 };

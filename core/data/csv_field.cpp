@@ -24,6 +24,10 @@ bool parseNumber(std::string_view text, double& value) {
   }
   if (first == last) return false;
   double parsed = 0.0;
+  if (parsePlainDecimal(first, last, parsed) == last) {
+    value = parsed;
+    return true;
+  }
   const auto [end, error] = std::from_chars(first, last, parsed);
   // from_chars also accepts "inf" and "nan"; those must not silently become numbers.
   if (error != std::errc() || end != last || !std::isfinite(parsed)) return false;

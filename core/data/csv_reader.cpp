@@ -29,26 +29,6 @@ constexpr double kMissing = std::numeric_limits<double>::quiet_NaN();
 // Below this many bytes per thread, starting threads costs more than it saves.
 constexpr std::size_t kMinBytesPerThread = std::size_t{1} << 16;
 
-// Hands parsed stretches of a mapped file back to the kernel as a parse moves on, so the file
-// text and the finished columns are never both fully resident.
-class ReleaseBehind {
- public:
-  static constexpr std::ptrdiff_t kStep = std::ptrdiff_t{4} << 20;
-  ReleaseBehind(const MappedFile* file, const char* start) : file_(file), from_(start) {}
-  void passed(const char* position) {
-    if (file_ != nullptr && position - from_ >= kStep) finish(position);
-  }
-  void finish(const char* position) {
-    if (file_ == nullptr || position <= from_) return;
-    file_->release(std::string_view(from_, static_cast<std::size_t>(position - from_)));
-    from_ = position;
-  }
-
- private:
-  const MappedFile* file_;
-  const char* from_;
-};
-
 std::string at(const std::string& source, std::size_t line) {
   return source + ":" + std::to_string(line) + ": ";
 }
@@ -224,25 +204,25 @@ void parseChunk(std::string_view text, const FieldReader& reader, const std::str
   std::size_t row = 0;
   while (p < end) {
     const std::size_t line = chunk.firstRow + row + 2;
-    const char* lineEnd =
-        static_cast<const char*>(std::memchr(p, '\n', static_cast<std::size_t>(end - p)));
-    if (lineEnd == nullptr) lineEnd = end;
-    const char* contentEnd = lineEnd;
-    if (contentEnd > p && contentEnd[-1] == '\r') --contentEnd;
+    const csv::Line current = csv::lineAt(p, end);
+    const char* const contentEnd = current.contentEnd;
     const char* field = p;
     for (std::size_t c = 0; c < width; ++c) {
       const char* fieldEnd = nullptr;
       double value = 0.0;
-      // Most fields are plain numbers: one from_chars call both parses and finds the field end.
-      const auto [stop, error] = std::from_chars(field, contentEnd, value);
-      if (!tokenCheck && error == std::errc() && (stop == contentEnd || *stop == delimiter) &&
-          std::isfinite(value)) {
+      // Most fields are plain numbers: one parse both reads the value and finds the field end.
+      const char* stop = csv::parsePlainDecimal(field, contentEnd, value);
+      bool parsed = stop != nullptr;
+      if (!parsed) {
+        const auto fromChars = std::from_chars(field, contentEnd, value);
+        stop = fromChars.ptr;
+        parsed = fromChars.ec == std::errc() && std::isfinite(value);
+      }
+      if (!tokenCheck && parsed && (stop == contentEnd || *stop == delimiter)) {
         slots[c][row] = value;
         fieldEnd = stop;
       } else {
-        fieldEnd = static_cast<const char*>(
-            std::memchr(field, delimiter, static_cast<std::size_t>(contentEnd - field)));
-        if (fieldEnd == nullptr) fieldEnd = contentEnd;
+        fieldEnd = csv::fieldEndAt(field, contentEnd, delimiter);
         reader.store(std::string_view(field, static_cast<std::size_t>(fieldEnd - field)),
                      slots[c][row], chunk.tallies[c], line);
       }
@@ -266,7 +246,7 @@ void parseChunk(std::string_view text, const FieldReader& reader, const std::str
       }
     }
     ++row;
-    p = lineEnd + 1;
+    p = current.next;
     release.passed(p);
   }
   release.finish(end);
@@ -432,8 +412,10 @@ CsvReadResult parseText(std::string_view text, const std::string& sourceName,
       options.threads != 0 ? options.threads : std::max(1U, std::thread::hardware_concurrency());
   // A header holding a quote means quoting is in use; otherwise the chunk planner looks for one.
   const bool quotedHeader = text.substr(0, dataBegin).find('"') != std::string_view::npos;
-  if (quotedHeader || !parseParallel(text, dataBegin, threads, reader, sourceName, table, tallies,
-                                     file, result.threadsUsed)) {
+  const bool quoteFree =
+      !quotedHeader && parseParallel(text, dataBegin, threads, reader, sourceName, table, tallies,
+                                     file, result.threadsUsed);
+  if (!quoteFree) {
     parseSequential(text, dataBegin, header.line(), reader, sourceName, table, tallies, file);
     result.threadsUsed = 1;
   }
@@ -446,7 +428,8 @@ CsvReadResult parseText(std::string_view text, const std::string& sourceName,
       column.firstNonNumeric = std::move(tallies[c].firstText);
     }
   }
-  csv::fillTextColumns(text, dataBegin, header.line(), result.delimiter, missing, table);
+  csv::fillTextColumns(text, dataBegin, header.line(), result.delimiter, missing, quoteFree, file,
+                       table);
   return result;
 }
 

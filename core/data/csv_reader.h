@@ -14,7 +14,8 @@
 // - Numbers (core/data/csv_field.h): what std::from_chars accepts in full plus an optional
 //   leading '+', finite only. '1e3', '+5', ' 5 ', '.5' are numbers; 'inf', 'nan', '1e999',
 //   '0x1A', decimal commas ('1,5') and units ('5 mg') are not, so their column becomes text and
-//   Table::requireNumeric names the first such field.
+//   Table::requireNumeric names the first such field (its text trimmed, as in the levels). In a
+//   text column every non-missing field is a level as written, so '1' and '1.0' differ.
 // - Missing: a field equal (after trimming) to a missing token; by default '' and 'NA'. A
 //   token that is a number (e.g. '-99') is honoured before number parsing.
 // - A record with fewer or more fields than the header is an InputError naming the line where

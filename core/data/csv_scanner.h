@@ -7,11 +7,36 @@
 // LF or CRLF or the end of the text.
 
 #include <cstddef>
+#include <cstring>
 #include <string>
 #include <string_view>
 #include <vector>
 
 namespace calivera::csv {
+
+// One line of quote-free text (where records are lines): [begin, contentEnd) without the LF or
+// CR LF; the next line starts at `next`.
+struct Line {
+  const char* begin;
+  const char* contentEnd;
+  const char* next;
+};
+
+inline Line lineAt(const char* begin, const char* end) {
+  const char* lineEnd =
+      static_cast<const char*>(std::memchr(begin, '\n', static_cast<std::size_t>(end - begin)));
+  if (lineEnd == nullptr) lineEnd = end;
+  const char* contentEnd = lineEnd;
+  if (contentEnd > begin && contentEnd[-1] == '\r') --contentEnd;
+  return Line{begin, contentEnd, lineEnd + 1};
+}
+
+// Where the field starting at `field` ends: at the next delimiter or at `contentEnd`.
+inline const char* fieldEndAt(const char* field, const char* contentEnd, char delimiter) {
+  const char* end = static_cast<const char*>(
+      std::memchr(field, delimiter, static_cast<std::size_t>(contentEnd - field)));
+  return end == nullptr ? contentEnd : end;
+}
 
 class RecordScanner {
  public:

@@ -8,12 +8,16 @@
 
 #include "core/data/csv_field.h"
 #include "core/data/table.h"
+#include "core/util/mapped_file.h"
 
 namespace calivera::csv {
 
 // `text` and `dataBegin`/`firstLine` are those the first pass read the records from; the records
-// are known to be well formed. Fills codes and levels of every Text column and frees its numbers.
+// are known to be well formed. `quoteFree`: the text holds no '"', so records are lines. Fills
+// codes and levels of every Text column and frees its numbers. `file` (may be null) is the mapped
+// file `text` lies in, whose parsed pages are handed back as the pass moves on.
 void fillTextColumns(std::string_view text, std::size_t dataBegin, std::size_t firstLine,
-                     char delimiter, const MissingTokens& missing, Table& table);
+                     char delimiter, const MissingTokens& missing, bool quoteFree,
+                     const MappedFile* file, Table& table);
 
 }  // namespace calivera::csv

@@ -27,8 +27,8 @@ const Column& Table::requireNumeric(std::string_view name) const {
   if (column.kind == ColumnKind::Text) {
     const std::size_t line = column.firstNonNumeric ? column.firstNonNumeric->line : 0;
     const std::string text = column.firstNonNumeric ? column.firstNonNumeric->text : "";
-    throw InputError(sourceName + ":" + std::to_string(line) + ": column '" + column.name +
-                     "': '" + text + "' is not a number");
+    throw InputError(sourceName + ":" + std::to_string(line) + ": column '" + column.name + "': '" +
+                     text + "' is not a number");
   }
   return column;
 }

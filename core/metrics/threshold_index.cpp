@@ -6,11 +6,13 @@
 
 namespace calivera {
 
-ThresholdIndex::ThresholdIndex(const std::vector<double>& risk, const std::vector<double>& outcome) {
+ThresholdIndex::ThresholdIndex(const std::vector<double>& risk,
+                               const std::vector<double>& outcome) {
   if (risk.size() != outcome.size()) throw std::invalid_argument("risk and outcome sizes differ");
   std::vector<std::size_t> order(risk.size());
   std::iota(order.begin(), order.end(), std::size_t{0});
-  std::sort(order.begin(), order.end(), [&](std::size_t a, std::size_t b) { return risk[a] < risk[b]; });
+  std::sort(order.begin(), order.end(),
+            [&](std::size_t a, std::size_t b) { return risk[a] < risk[b]; });
   sortedRisk_.resize(order.size());
   eventsAtOrAbove_.assign(order.size() + 1, 0);
   for (std::size_t i = 0; i < order.size(); ++i) sortedRisk_[i] = risk[order[i]];

@@ -33,10 +33,10 @@ struct ValidationInput {
 };
 
 struct ValidationOptions {
-  int groups = 10;                  // Hosmer-Lemeshow and grouped calibration table
-  std::vector<double> thresholds;   // decision curve and threshold table; empty: 0.01..0.99
-  bool apparent = false;            // cohort is the development data: HL df = g - 2, else g
-  int histogramBins = 50;           // risk distribution by outcome
+  int groups = 10;                    // Hosmer-Lemeshow and grouped calibration table
+  std::vector<double> thresholds;     // decision curve and threshold table; empty: 0.01..0.99
+  bool apparent = false;              // cohort is the development data: HL df = g - 2, else g
+  int histogramBins = 50;             // risk distribution by outcome
   std::size_t loessExactMaxN = 5000;  // above this: exact fits on a quantile grid + interpolation
   int loessGridPoints = 500;
   std::size_t rocMaxPoints = 2000;  // thinning for plotting; the AUC is always exact
@@ -58,11 +58,11 @@ struct RocPoint {
 
 struct Discrimination {
   double auc = 0.0;
-  double aucSe = 0.0;            // DeLong
-  Interval aucCi;                // logit-transformed 95% CI (never passes 0 or 1)
-  Interval aucCiPlain;           // AUC +/- 1.96 SE
+  double aucSe = 0.0;                // DeLong
+  Interval aucCi;                    // logit-transformed 95% CI (never passes 0 or 1)
+  Interval aucCiPlain;               // AUC +/- 1.96 SE
   double discriminationSlope = 0.0;  // mean risk in events minus mean risk in non-events
-  std::vector<RocPoint> roc;     // from (0,0) to (1,1), thinned
+  std::vector<RocPoint> roc;         // from (0,0) to (1,1), thinned
 };
 
 struct Overall {
@@ -81,16 +81,16 @@ struct CalibrationGroup {
   double expected = 0.0;     // sum of risks
   double meanRisk = 0.0;
   double observedProportion = 0.0;
-  Interval observedCi;       // Wilson 95%
+  Interval observedCi;                // Wilson 95%
   double riskLo = 0.0, riskHi = 0.0;  // range of risks in the group
 };
 
 struct Calibration {
   double intercept = 0.0, interceptSe = 0.0;  // calibration-in-the-large, LP as offset
   Interval interceptCi;
-  double slope = 0.0, slopeSe = 0.0;          // logistic regression of y on LP
+  double slope = 0.0, slopeSe = 0.0;  // logistic regression of y on LP
   Interval slopeCi;
-  double slopeModelIntercept = 0.0;           // the intercept fitted together with the slope
+  double slopeModelIntercept = 0.0;  // the intercept fitted together with the slope
   double oeRatio = 0.0;
   Interval oeCi;
   double spiegelhalterZ = 0.0, spiegelhalterP = 0.0;
@@ -98,7 +98,7 @@ struct Calibration {
   bool curveInterpolated = false;  // large n: exact local fits on a grid, interpolated between
   std::vector<CalibrationCurvePoint> curve;  // sorted by risk, thinned for plotting
   std::vector<CalibrationGroup> groups;      // by quantile groups of risk
-  std::string hierarchyLevel;  // plain reading of the calibration hierarchy reached
+  std::string hierarchyLevel;                // plain reading of the calibration hierarchy reached
 };
 
 struct HosmerLemeshow {
@@ -128,9 +128,9 @@ struct ThresholdRow {
 };
 
 struct RiskHistogram {
-  std::vector<double> binEdges;               // bins + 1 edges over [0, 1]
-  std::vector<std::size_t> eventCounts;       // per bin
-  std::vector<std::size_t> nonEventCounts;    // per bin
+  std::vector<double> binEdges;             // bins + 1 edges over [0, 1]
+  std::vector<std::size_t> eventCounts;     // per bin
+  std::vector<std::size_t> nonEventCounts;  // per bin
 };
 
 struct ValidationResult {

@@ -37,7 +37,10 @@ struct Term {
   std::string level;
   std::vector<double> knots;  // Spline: ascending, at least 3
   int basisIndex = 0;         // Spline: 0 = the linear part x, j = 1..k-2 the j-th cubic part
-  std::vector<Term> factors;  // Product: exactly two; their own estimates are ignored
+  // Spline: divide the cubic parts by (t_k - t_1)^2, Harrell's default that keeps them on the
+  // scale of x; false for models published with the undivided basis.
+  bool splineScaled = true;
+  std::vector<Term> factors;        // Product: exactly two; their own estimates are ignored
   std::optional<std::string> unit;  // unit the model expects the variable in, when stated
   Estimate estimate;
 };
@@ -45,10 +48,10 @@ struct Term {
 struct DevelopmentRecord {
   std::optional<long long> n;
   std::optional<long long> events;
-  std::optional<std::string> dataSha256;  // lowercase hex of the development data file
-  std::optional<std::string> software;    // e.g. "calivera 0.1.0"
-  std::optional<std::string> method;      // e.g. "maximum likelihood", "Firth penalized"
-  std::optional<std::string> description; // free text: source publication, setting
+  std::optional<std::string> dataSha256;   // lowercase hex of the development data file
+  std::optional<std::string> software;     // e.g. "calivera 0.1.0"
+  std::optional<std::string> method;       // e.g. "maximum likelihood", "Firth penalized"
+  std::optional<std::string> description;  // free text: source publication, setting
 };
 
 struct Model {
@@ -61,6 +64,9 @@ struct Model {
   std::map<std::string, std::string> columnMapping;
   // Free-form provenance of updates (which model it updates, on which data, which method).
   std::optional<std::string> provenance;
+  // The file readModelFile read this model from, for messages; empty when built in memory.
+  // Not part of the file format.
+  std::string sourcePath;
 };
 
 }  // namespace calivera

@@ -1,6 +1,9 @@
 #pragma once
 // Reading and writing the Calivera model file (JSON, format id kModelFormatId). Numbers are
-// written with 17 significant digits so a written model reads back bit for bit.
+// written in the shortest decimal form that reads back to the same double (at most 17
+// significant digits), so a written model reads back bit for bit. Files may carry // and /* */
+// comments, so a published model can be annotated where it is kept. Unknown fields are errors,
+// so a misspelt key ("centre") is caught rather than silently ignored.
 
 #include <string>
 

@@ -13,8 +13,12 @@ namespace {
 
 std::filesystem::path temporaryNameFor(const std::filesystem::path& target) {
   std::random_device device;
-  const auto tag = std::to_string(device());
-  return target.parent_path() / ("." + target.filename().string() + ".tmp-" + tag);
+  // Appended piece by piece: GCC 12 gives a false -Wrestrict warning for the chain of operator+.
+  std::string name = ".";
+  name += target.filename().string();
+  name += ".tmp-";
+  name += std::to_string(device());
+  return target.parent_path() / name;
 }
 
 }  // namespace

@@ -31,4 +31,25 @@ class MappedFile {
   std::size_t size_ = 0;
 };
 
+// Hands parsed stretches of a mapped file back to the kernel as a parse moves on, so the file
+// text and the finished columns are never both fully resident.
+class ReleaseBehind {
+ public:
+  static constexpr std::ptrdiff_t kStep = std::ptrdiff_t{4} << 20;  // bytes between releases
+  // `file` may be null (text not from a file): then nothing is released.
+  ReleaseBehind(const MappedFile* file, const char* start) : file_(file), from_(start) {}
+  void passed(const char* position) {
+    if (file_ != nullptr && position - from_ >= kStep) finish(position);
+  }
+  void finish(const char* position) {
+    if (file_ == nullptr || position <= from_) return;
+    file_->release(std::string_view(from_, static_cast<std::size_t>(position - from_)));
+    from_ = position;
+  }
+
+ private:
+  const MappedFile* file_;
+  const char* from_;
+};
+
 }  // namespace calivera

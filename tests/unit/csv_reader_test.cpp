@@ -6,10 +6,13 @@
 
 #include <gtest/gtest.h>
 
+#include <algorithm>
+#include <cctype>
 #include <cmath>
 #include <cstdio>
 #include <filesystem>
 #include <fstream>
+#include <optional>
 #include <random>
 #include <string>
 
@@ -18,8 +21,60 @@
 namespace calivera {
 namespace {
 
+void expectSameTables(const Table& a, const Table& b) {
+  ASSERT_EQ(a.rowCount, b.rowCount);
+  ASSERT_EQ(a.columns.size(), b.columns.size());
+  EXPECT_EQ(a.recordLines, b.recordLines);
+  for (std::size_t c = 0; c < a.columns.size(); ++c) {
+    const Column& x = a.columns[c];
+    const Column& y = b.columns[c];
+    EXPECT_EQ(x.name, y.name);
+    EXPECT_EQ(x.kind, y.kind);
+    EXPECT_EQ(x.missingCount, y.missingCount);
+    EXPECT_EQ(x.levels, y.levels);
+    EXPECT_EQ(x.firstNonNumeric.has_value(), y.firstNonNumeric.has_value());
+    if (x.firstNonNumeric && y.firstNonNumeric) {
+      EXPECT_EQ(x.firstNonNumeric->line, y.firstNonNumeric->line);
+      EXPECT_EQ(x.firstNonNumeric->text, y.firstNonNumeric->text);
+    }
+    EXPECT_EQ(x.codes, y.codes);
+    ASSERT_EQ(x.numbers.size(), y.numbers.size());
+    for (std::size_t r = 0; r < x.numbers.size(); ++r) {
+      if (std::isnan(x.numbers[r])) {
+        EXPECT_TRUE(std::isnan(y.numbers[r]));
+      } else {
+        EXPECT_EQ(x.numbers[r], y.numbers[r]);
+      }
+    }
+  }
+}
+
+// The same text with the first header name in quotes: quoting anywhere sends a file through the
+// sequential RFC 4180 path instead of the parallel quote-free one, and both must agree.
+// Only for a plain first name (letters, digits, '_') ended by the delimiter or a line end.
+std::optional<std::string> withQuotedFirstName(std::string_view text, char delimiter = 0) {
+  const std::string_view bom = "\xEF\xBB\xBF";
+  const std::size_t start = text.substr(0, 3) == bom ? 3 : 0;
+  const std::string ends =
+      delimiter == 0 ? std::string(",;\t\r\n") : std::string{delimiter, '\r', '\n'};
+  const std::size_t end = text.find_first_of(ends, start);
+  if (end == std::string_view::npos || end == start) return std::nullopt;
+  const std::string_view name = text.substr(start, end - start);
+  const bool plain = std::all_of(name.begin(), name.end(), [](char c) {
+    return std::isalnum(static_cast<unsigned char>(c)) != 0 || c == '_';
+  });
+  if (!plain) return std::nullopt;
+  return std::string(text.substr(0, start)) + '"' + std::string(name) + '"' +
+         std::string(text.substr(end));
+}
+
+// Parses `text`, and checks that the sequential path gives the same table.
 CsvReadResult parse(std::string_view text, CsvOptions options = {}) {
-  return parseCsv(text, "cohort.csv", options);
+  CsvReadResult result = parseCsv(text, "cohort.csv", options);
+  if (const std::optional<std::string> quoted = withQuotedFirstName(text, options.delimiter)) {
+    expectSameTables(result.table, parseCsv(*quoted, "cohort.csv", options).table);
+  }
+  return result;
 }
 
 // The InputError message of `action`, or "" when it succeeds.
@@ -33,8 +88,13 @@ std::string inputErrorOf(Action&& action) {
   return "";
 }
 
+// The error of parsing `text`, checked to be the same on the sequential path.
 std::string errorOf(std::string_view text, CsvOptions options = {}) {
-  return inputErrorOf([&] { parse(text, options); });
+  const std::string error = inputErrorOf([&] { parseCsv(text, "cohort.csv", options); });
+  if (const std::optional<std::string> quoted = withQuotedFirstName(text, options.delimiter)) {
+    EXPECT_EQ(error, inputErrorOf([&] { parseCsv(*quoted, "cohort.csv", options); }));
+  }
+  return error;
 }
 
 TEST(CsvReader, ReadsNumericColumnsWithCommaByDefault) {
@@ -273,28 +333,6 @@ std::string generatedCohort(std::size_t rows) {
   return text;
 }
 
-void expectSameTables(const Table& a, const Table& b) {
-  ASSERT_EQ(a.rowCount, b.rowCount);
-  ASSERT_EQ(a.columns.size(), b.columns.size());
-  for (std::size_t c = 0; c < a.columns.size(); ++c) {
-    const Column& x = a.columns[c];
-    const Column& y = b.columns[c];
-    EXPECT_EQ(x.name, y.name);
-    EXPECT_EQ(x.kind, y.kind);
-    EXPECT_EQ(x.missingCount, y.missingCount);
-    EXPECT_EQ(x.levels, y.levels);
-    EXPECT_EQ(x.codes, y.codes);
-    ASSERT_EQ(x.numbers.size(), y.numbers.size());
-    for (std::size_t r = 0; r < x.numbers.size(); ++r) {
-      if (std::isnan(x.numbers[r])) {
-        EXPECT_TRUE(std::isnan(y.numbers[r]));
-      } else {
-        EXPECT_EQ(x.numbers[r], y.numbers[r]);
-      }
-    }
-  }
-}
-
 TEST(CsvReader, ParallelParseEqualsSingleThreadParse) {
   const std::string text = generatedCohort(60000);
   CsvOptions one;
@@ -314,6 +352,59 @@ TEST(CsvReader, ParallelParseEqualsSingleThreadParse) {
   const CsvReadResult quoted = parse("\"y\"" + text.substr(1), four);
   EXPECT_EQ(quoted.threadsUsed, 1U);
   expectSameTables(single.table, quoted.table);
+}
+
+TEST(CsvReader, TextFoundLateInTheFileIsReportedWithItsLine) {
+  std::string text = generatedCohort(60000);
+  // Row 50000 (line 50002) lies in the last of four chunks; its age becomes text.
+  std::size_t position = 0;
+  for (int line = 1; line < 50002; ++line) position = text.find('\n', position) + 1;
+  const std::size_t ageStart = text.find(',', position) + 1;
+  text.replace(ageStart, text.find(',', ageStart) - ageStart, "unknown");
+  CsvOptions four;
+  four.threads = 4;
+  const CsvReadResult result = parse(text, four);
+  EXPECT_EQ(result.threadsUsed, 4U);
+  EXPECT_EQ(inputErrorOf([&] { result.table.requireNumeric("age"); }),
+            "cohort.csv:50002: column 'age': 'unknown' is not a number");
+  const Column& age = result.table.require("age");
+  EXPECT_EQ(age.codes.size(), 60000U);
+  EXPECT_TRUE(std::is_sorted(age.levels.begin(), age.levels.end()));
+  EXPECT_EQ(age.levels.back(), "unknown");
+}
+
+TEST(CsvReader, MappedFileReadEqualsInMemoryParseOnSeveralMegabytes) {
+  // Large enough that parsed pages of the mapped file are handed back during the parse.
+  const std::string text = generatedCohort(400000);
+  ASSERT_GT(text.size(), std::size_t{8} << 20);
+  const std::filesystem::path path =
+      std::filesystem::temp_directory_path() / "calivera_csv_reader_large_test.csv";
+  for (const std::string& variant : {text, *withQuotedFirstName(text)}) {
+    {
+      std::ofstream out(path, std::ios::binary | std::ios::trunc);
+      out << variant;
+    }
+    const CsvReadResult fromFile = readCsvFile(path.string(), {});
+    const CsvReadResult inMemory = parseCsv(variant, path.string(), {});
+    EXPECT_EQ(fromFile.threadsUsed, inMemory.threadsUsed);
+    expectSameTables(fromFile.table, inMemory.table);
+    EXPECT_EQ(fromFile.table.rowCount, 400000U);
+  }
+  std::filesystem::remove(path);
+}
+
+TEST(CsvReader, SingleColumnFileReadsBlankLinesAsMissing) {
+  const Table table = parse("weight\n70\n\n82\n").table;
+  EXPECT_EQ(table.rowCount, 3U);
+  EXPECT_EQ(table.columns[0].missingCount, 1U);
+  EXPECT_TRUE(table.columns[0].isMissing(1));
+}
+
+TEST(CsvReader, TabDelimitedKeepsTabsAsDelimitersWhileTrimmingSpaces) {
+  const Table table = parse("a\tb\n 1 \t\n").table;
+  EXPECT_EQ(table.columns[0].numbers[0], 1.0);
+  EXPECT_TRUE(table.columns[1].isMissing(0));
+  EXPECT_EQ(errorOf("a\tb\n1\t2\t\n"), "cohort.csv:2: 3 fields, but the header has 2 columns");
 }
 
 TEST(CsvReader, ParallelParseReportsTheEarliestErrorLine) {

@@ -1,0 +1,121 @@
+// calivera validate --data COHORT.csv --outcome COL (--model MODEL.json | --risk COL)
+//                   [--groups G] [--thresholds FROM:TO:STEP | T1,T2,...] [--json REPORT.json]
+//                   [--csv-dir DIR] [--delimiter C] [--missing LIST] [--event-value V]
+// The analysis is core's runValidation(); this file only parses options and writes outputs.
+#include "app/cli/validate_command.h"
+
+#include <iostream>
+
+#include "app/cli/arguments.h"
+#include "app/cli/data_options.h"
+#include "core/metrics/validation_run.h"
+#include "core/report/validation_json.h"
+#include "core/report/validation_summary.h"
+#include "core/report/validation_tables.h"
+#include "core/util/atomic_file.h"
+#include "core/util/errors.h"
+
+namespace calivera::cli {
+namespace {
+
+constexpr const char* kHelp =
+    "usage: calivera validate --data COHORT.csv --outcome COL (--model MODEL.json | --risk COL)\n"
+    "                         [--groups G] [--thresholds FROM:TO:STEP | T1,T2,...]\n"
+    "                         [--json REPORT.json] [--csv-dir DIR]\n\n"
+    "Discrimination, calibration and clinical utility of predicted risks on a cohort.\n\n"
+    "  --data FILE          cohort CSV (header row)\n"
+    "  --outcome COL        outcome column (0/1, or see --event-value)\n"
+    "  --model FILE         model file: risks from its linear predictor\n"
+    "  --risk COL           or: a column of predicted risks in [0, 1]\n"
+    "  --groups G           risk groups for Hosmer-Lemeshow and the calibration table (10)\n"
+    "  --thresholds T       FROM:TO:STEP or a list T1,T2,... strictly inside (0, 1)\n"
+    "                       (0.01:0.99:0.01); a patient is flagged when risk >= threshold\n"
+    "  --json FILE          write the full report as JSON instead of the summary on stdout\n"
+    "  --csv-dir DIR        also write every table as CSV into DIR\n";
+
+std::vector<double> parseThresholds(const std::string& text) {
+  const std::string option = "--thresholds";
+  if (text.find(':') != std::string::npos) {
+    const std::vector<std::string> parts = [&] {
+      std::vector<std::string> p;
+      std::size_t start = 0;
+      while (true) {
+        const std::size_t colon = text.find(':', start);
+        p.push_back(text.substr(start, colon == std::string::npos ? colon : colon - start));
+        if (colon == std::string::npos) break;
+        start = colon + 1;
+      }
+      return p;
+    }();
+    if (parts.size() != 3) throw InputError(option + ": '" + text + "' is not FROM:TO:STEP");
+    try {
+      return thresholdRange(parseNumber(parts[0], option), parseNumber(parts[1], option),
+                            parseNumber(parts[2], option));
+    } catch (const InputError& error) {
+      throw InputError(option + ": " + error.what());
+    }
+  }
+  std::vector<double> values;
+  for (const std::string& item : splitList(text, option))
+    values.push_back(parseNumber(item, option));
+  return values;
+}
+
+int validateBody(const std::vector<std::string>& words) {
+  OptionSpec spec;
+  spec.valued = {"--data",   "--outcome",    "--model", "--risk",
+                 "--groups", "--thresholds", "--json",  "--csv-dir"};
+  spec.flags = {"--help"};
+  addDataOptions(spec);
+  const Arguments arguments(words, spec);
+  if (arguments.has("--help")) {
+    std::cout << kHelp << kDataOptionsHelp;
+    return 0;
+  }
+  if (!arguments.positional().empty()) {
+    throw InputError("unexpected argument '" + arguments.positional().front() + "'");
+  }
+  ValidationRequest request;
+  request.dataPath = arguments.required("--data");
+  request.outcome.column = arguments.required("--outcome");
+  request.outcome.eventValue = eventValueFrom(arguments);
+  request.csv = csvOptionsFrom(arguments);
+  request.modelPath = arguments.value("--model");
+  request.riskColumn = arguments.value("--risk");
+  if (request.modelPath.has_value() == request.riskColumn.has_value()) {
+    throw InputError("give exactly one of --model and --risk");
+  }
+  if (const auto g = arguments.value("--groups")) {
+    const long long groups = parseInteger(*g, "--groups");
+    if (groups < 2 || groups > 1000) throw InputError("--groups: must be between 2 and 1000");
+    request.options.groups = static_cast<int>(groups);
+  }
+  if (const auto t = arguments.value("--thresholds")) {
+    request.options.thresholds = parseThresholds(*t);
+    for (const double v : request.options.thresholds) {
+      if (!(v > 0.0 && v < 1.0)) {
+        throw InputError("--thresholds: " + std::to_string(v) + " is not strictly between 0 and 1");
+      }
+    }
+  }
+  const ValidationRun run = runValidation(request);
+  // Every output is rendered before anything is written; the JSON is written last so a reader
+  // that waits for it sees the tables too.
+  const auto jsonPath = arguments.value("--json");
+  const std::string jsonText = jsonPath ? validationJsonText(run) : std::string();
+  if (const auto dir = arguments.value("--csv-dir")) writeValidationTables(*dir, run);
+  if (jsonPath) {
+    writeFileAtomically(*jsonPath, jsonText);
+  } else {
+    std::cout << validationSummaryText(run);
+  }
+  return 0;
+}
+
+}  // namespace
+
+int runValidateCommand(const std::vector<std::string>& words) {
+  return validateBody(words);
+}
+
+}  // namespace calivera::cli

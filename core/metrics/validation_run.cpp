@@ -1,0 +1,134 @@
+#include "core/metrics/validation_run.h"
+
+#include <cmath>
+#include <sstream>
+#include <utility>
+
+#include "core/model/linear_predictor.h"
+#include "core/model/model_io.h"
+#include "core/util/errors.h"
+#include "core/util/sha256.h"
+
+namespace calivera {
+namespace {
+
+std::string exclusionWarning(const ExclusionReport& report) {
+  std::string text = std::to_string(report.rowsExcluded) + " of " +
+                     std::to_string(report.rowsRead) +
+                     " rows excluded for a missing value (complete-case analysis):";
+  bool first = true;
+  for (const ColumnExclusion& c : report.byColumn) {
+    if (c.rowsMissing == 0) continue;
+    text +=
+        std::string(first ? " " : ", ") + c.column + " missing in " + std::to_string(c.rowsMissing);
+    first = false;
+  }
+  return text;
+}
+
+std::vector<double> riskFromColumn(const Table& table, const std::string& name,
+                                   const std::vector<std::uint32_t>& rows) {
+  const Column& column = table.requireNumeric(name);
+  std::vector<double> risk(rows.size());
+  for (std::size_t i = 0; i < rows.size(); ++i) {
+    const double p = column.numbers[rows[i]];
+    if (!(p >= 0.0 && p <= 1.0)) {
+      std::ostringstream message;
+      message.precision(10);
+      message << table.sourceName << ":" << table.lineOfRow(rows[i]) << ": column " << name
+              << ": risk " << p << " lies outside [0, 1]";
+      throw InputError(message.str());
+    }
+    risk[i] = p;
+  }
+  return risk;
+}
+
+}  // namespace
+
+PreparedCohort prepareCohort(const Table& table, const OutcomeSpec& outcome, const Model* model,
+                             const std::optional<std::string>& riskColumn) {
+  if ((model != nullptr) == riskColumn.has_value()) {
+    throw InputError("give either a model file or a risk column, not both or neither");
+  }
+  std::vector<std::string> columns{outcome.column};
+  if (model) {
+    for (const std::string& c : requiredColumns(*model)) {
+      if (c != outcome.column) columns.push_back(c);
+    }
+  } else {
+    table.requireNumeric(*riskColumn);  // a text risk column is an error naming its line
+    if (*riskColumn != outcome.column) columns.push_back(*riskColumn);
+  }
+  for (const std::string& c : columns) table.require(c);
+  PreparedCohort prepared;
+  AnalysisRows selected = selectCompleteCases(table, columns);
+  prepared.rows = std::move(selected.rows);
+  prepared.exclusions = std::move(selected.exclusions);
+  if (prepared.exclusions.rowsExcluded > 0) {
+    prepared.warnings.push_back(exclusionWarning(prepared.exclusions));
+  }
+  if (prepared.rows.empty()) {
+    throw AnalysisError(table.sourceName + ": no row has all of the needed columns");
+  }
+  prepared.input.outcome = outcomeValues(table, outcome, prepared.rows);
+  if (model) {
+    std::vector<double> lp = linearPredictor(*model, table, prepared.rows);
+    prepared.input.risk.resize(lp.size());
+    for (std::size_t i = 0; i < lp.size(); ++i) prepared.input.risk[i] = logisticRisk(lp[i]);
+    prepared.input.linearPredictor = std::move(lp);
+  } else {
+    prepared.input.risk = riskFromColumn(table, *riskColumn, prepared.rows);
+  }
+  return prepared;
+}
+
+bool isApparent(const Model* model, const std::string& dataSha256) {
+  return model && model->development.dataSha256 && *model->development.dataSha256 == dataSha256;
+}
+
+ValidationRun runValidation(const ValidationRequest& request, Table table, std::string dataSha256) {
+  ValidationRun run;
+  run.request = request;
+  run.softwareVersion = CALIVERA_VERSION;
+  run.dataSha256 = std::move(dataSha256);
+  reportProgress(request.options.progress, 0.0);
+  if (request.modelPath) {
+    run.model = readModelFile(*request.modelPath);
+    run.modelSha256 = sha256OfFile(*request.modelPath);
+    run.modelName = run.model->name;
+  } else if (request.riskColumn) {
+    run.modelName = "risk column " + *request.riskColumn;
+  }
+  const Model* model = run.model ? &*run.model : nullptr;
+  run.cohort = prepareCohort(table, request.outcome, model, request.riskColumn);
+  const bool apparent = isApparent(model, run.dataSha256);
+  run.performance = apparent ? kPerformanceApparent : kPerformanceNewData;
+  if (apparent) {
+    run.performanceBasis = "the cohort file is the model's development data (SHA-256 match)";
+  } else if (model && model->development.dataSha256) {
+    run.performanceBasis = "the cohort file differs from the model's development data (SHA-256)";
+  } else if (model) {
+    run.performanceBasis =
+        "the model file records no development data SHA-256; treated as new data";
+  } else {
+    run.performanceBasis = "risks read from a column; no development record, treated as new data";
+  }
+  ValidationOptions options = request.options;
+  options.apparent = apparent;
+  if (options.thresholds.empty()) options.thresholds = thresholdRange(0.01, 0.99, 0.01);
+  run.request.options.thresholds = options.thresholds;
+  run.result = validate(run.cohort.input, options);
+  run.result.warnings.insert(run.result.warnings.begin(), run.cohort.warnings.begin(),
+                             run.cohort.warnings.end());
+  run.table = std::move(table);
+  return run;
+}
+
+ValidationRun runValidation(const ValidationRequest& request) {
+  std::string sha = sha256OfFile(request.dataPath);
+  CsvReadResult read = readCsvFile(request.dataPath, request.csv);
+  return runValidation(request, std::move(read.table), std::move(sha));
+}
+
+}  // namespace calivera

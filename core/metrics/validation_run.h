@@ -1,0 +1,74 @@
+#pragma once
+// The whole validation pipeline as one engine shared by the command line and the workstation:
+// load the cohort -> select complete rows (exclusions counted per column) -> outcome ->
+// predicted risks (from a model file, or from a risk column) -> validate() -> one ValidationRun
+// that every output (JSON, CSV tables, text summary, PDF, GUI) reads.
+//
+// Apparent vs new data: when a model file records the SHA-256 of its development data and it
+// equals the cohort file's SHA-256, performance is "apparent" (the model is judged on the data it
+// was fitted on; Hosmer-Lemeshow df = g - 2); otherwise "new data" (df = g). With a risk column no
+// development record exists and the cohort is treated as new data, which the run says.
+
+#include <cstdint>
+#include <optional>
+#include <string>
+#include <vector>
+
+#include "core/data/cohort.h"
+#include "core/data/csv_reader.h"
+#include "core/data/table.h"
+#include "core/metrics/validation.h"
+#include "core/model/model.h"
+
+namespace calivera {
+
+inline constexpr const char* kPerformanceApparent = "apparent";
+inline constexpr const char* kPerformanceNewData = "new data";
+
+struct ValidationRequest {
+  std::string dataPath;
+  CsvOptions csv;
+  OutcomeSpec outcome;
+  std::optional<std::string> modelPath;  // exactly one of modelPath and riskColumn
+  std::optional<std::string> riskColumn;
+  ValidationOptions options;  // thresholds empty: the default 0.01..0.99 by 0.01
+};
+
+// The analysed cohort before any metric: what validate() receives, plus where it came from.
+struct PreparedCohort {
+  std::vector<std::uint32_t> rows;  // table rows analysed, ascending
+  ExclusionReport exclusions;
+  ValidationInput input;  // outcome, risk and (model route) linear predictor per row
+  std::vector<std::string> warnings;
+};
+
+struct ValidationRun {
+  ValidationRequest request;  // as given, with options.thresholds filled in
+  std::string dataSha256;
+  std::optional<Model> model;    // model route only
+  std::string modelSha256;       // model route only
+  std::string modelName;         // the model's name, or "risk column COL"
+  std::string performance;       // kPerformanceApparent or kPerformanceNewData
+  std::string performanceBasis;  // one sentence: why apparent / new data
+  Table table;                   // the cohort as read (for subgroups, bootstrap, the GUI)
+  PreparedCohort cohort;
+  ValidationResult result;      // result.warnings also holds the pipeline's warnings
+  std::string softwareVersion;  // CALIVERA_VERSION
+};
+
+// Complete-case selection, outcome and risks on an already loaded table. Throws InputError for a
+// missing column, a non-numeric risk column or a risk outside [0, 1] (naming file, line, column).
+PreparedCohort prepareCohort(const Table& table, const OutcomeSpec& outcome, const Model* model,
+                             const std::optional<std::string>& riskColumn);
+
+// "apparent" when the model's development data SHA-256 equals the cohort's, else "new data".
+bool isApparent(const Model* model, const std::string& dataSha256);
+
+// Runs every step. Throws InputError (bad files, columns, values; exit 2 on the command line),
+// AnalysisError (one outcome class, no complete rows; exit 1) or Cancelled.
+ValidationRun runValidation(const ValidationRequest& request);
+
+// The same after the caller loaded the table (the workstation loads it once for its data view).
+ValidationRun runValidation(const ValidationRequest& request, Table table, std::string dataSha256);
+
+}  // namespace calivera

@@ -1,0 +1,189 @@
+#include "core/model/linear_predictor.h"
+
+#include <algorithm>
+#include <charconv>
+#include <cmath>
+#include <sstream>
+
+#include "core/util/errors.h"
+
+namespace calivera {
+namespace {
+
+std::string mappedColumn(const Model& model, const std::string& variable) {
+  const auto found = model.columnMapping.find(variable);
+  return found == model.columnMapping.end() ? variable : found->second;
+}
+
+void collectColumns(const Model& model, const Term& term, std::vector<std::string>& out) {
+  if (term.kind == TransformKind::Product) {
+    for (const Term& factor : term.factors) collectColumns(model, factor, out);
+    return;
+  }
+  const std::string column = mappedColumn(model, term.variable);
+  if (std::find(out.begin(), out.end(), column) == out.end()) out.push_back(column);
+}
+
+std::string formatNumber(double value) {
+  std::ostringstream out;
+  out.precision(15);
+  out << value;
+  return out.str();
+}
+
+// Harrell's restricted cubic spline (Harrell, Regression Modeling Strategies, 2nd ed., sec.
+// 2.4.5): basis 0 is x; basis j (1-based, j <= k-2) is
+//   (x-t_j)+^3 - (x-t_{k-1})+^3 (t_k-t_j)/(t_k-t_{k-1}) + (x-t_k)+^3 (t_{k-1}-t_j)/(t_k-t_{k-1}),
+// optionally divided by (t_k - t_1)^2 (the normalisation Harrell's software applies by default).
+// Each cubic part is linear beyond the outer knots, which is what "restricted" means.
+double splineBasis(double x, const std::vector<double>& t, int j, bool scaled) {
+  if (j == 0) return x;
+  const std::size_t k = t.size();
+  const auto cube = [](double v) { return v > 0 ? v * v * v : 0.0; };
+  const double tj = t[static_cast<std::size_t>(j) - 1];
+  const double tk1 = t[k - 2];
+  const double tk = t[k - 1];
+  const double value = cube(x - tj) - cube(x - tk1) * (tk - tj) / (tk - tk1) +
+                       cube(x - tk) * (tk1 - tj) / (tk - tk1);
+  if (!scaled) return value;
+  const double range = tk - t[0];
+  return value / (range * range);
+}
+
+// One term bound to its cohort column, evaluated row by row.
+class BoundTerm {
+ public:
+  BoundTerm(const Model& model, const Term& term, const Table& table) : term_(term), table_(table) {
+    if (term.kind == TransformKind::Product) {
+      for (const Term& factor : term.factors) factors_.emplace_back(model, factor, table);
+      return;
+    }
+    const std::string name = mappedColumn(model, term.variable);
+    column_ = table.find(name);
+    if (!column_) {
+      std::string available;
+      for (const Column& column : table.columns) {
+        available += (available.empty() ? "" : ", ") + column.name;
+      }
+      const std::string mapped =
+          name == term.variable ? "" : " (mapped from '" + term.variable + "')";
+      const std::string modelText = model.sourcePath.empty() ? "model '" + model.name + "'"
+                                                             : "model file " + model.sourcePath;
+      throw InputError(table.sourceName + ": " + modelText + ", term '" + label() +
+                       "' needs column '" + name + "'" + mapped +
+                       ", which the cohort lacks (columns: " + available + ")");
+    }
+    if (term.kind == TransformKind::Indicator) {
+      bindIndicator();
+    } else if (column_->kind == ColumnKind::Text) {
+      try {
+        table.requireNumeric(name);
+      } catch (const InputError& error) {
+        throw InputError(std::string(error.what()) + " (term '" + label() + "' needs a number)");
+      }
+    }
+  }
+
+  double value(std::size_t row) const {
+    if (term_.kind == TransformKind::Product)
+      return factors_[0].value(row) * factors_[1].value(row);
+    if (column_->isMissing(row)) fail(row, "is missing");
+    if (term_.kind == TransformKind::Indicator) {
+      if (column_->kind == ColumnKind::Text) return column_->codes[row] == levelCode_ ? 1.0 : 0.0;
+      return column_->numbers[row] == levelNumber_ ? 1.0 : 0.0;
+    }
+    const double x = column_->numbers[row];
+    switch (term_.kind) {
+      case TransformKind::Linear:
+        return (x - term_.center) / term_.scale;
+      case TransformKind::Log:
+        if (!(x > 0)) fail(row, "is " + formatNumber(x) + "; the natural log needs a value > 0");
+        return std::log(x);
+      case TransformKind::Power:
+        // Fractional polynomials (Royston & Altman, Appl Stat 1994) are defined for x > 0 only,
+        // power 0 meaning ln x.
+        if (!(x > 0)) fail(row, "is " + formatNumber(x) + "; a power term needs a value > 0");
+        return term_.power == 0.0 ? std::log(x) : std::pow(x, term_.power);
+      case TransformKind::Spline:
+        return splineBasis(x, term_.knots, term_.basisIndex, term_.splineScaled);
+      case TransformKind::Indicator:
+      case TransformKind::Product:
+        break;
+    }
+    return 0.0;
+  }
+
+ private:
+  std::string label() const { return term_.name.empty() ? term_.variable : term_.name; }
+
+  void bindIndicator() {
+    if (column_->kind == ColumnKind::Text) {
+      const auto& levels = column_->levels;
+      const auto found = std::find(levels.begin(), levels.end(), term_.level);
+      // A level absent from this cohort is legitimate (nobody in that category): all zeros.
+      levelCode_ = found == levels.end() ? -2 : static_cast<std::int32_t>(found - levels.begin());
+      return;
+    }
+    const char* begin = term_.level.data();
+    const char* end = begin + term_.level.size();
+    const auto [ptr, ec] = std::from_chars(begin, end, levelNumber_);
+    if (term_.level.empty() || ec != std::errc() || ptr != end) {
+      throw InputError(table_.sourceName + ": term '" + label() + "' matches level '" +
+                       term_.level + "', but column '" + column_->name +
+                       "' is numeric and the level is not a number");
+    }
+  }
+
+  [[noreturn]] void fail(std::size_t row, const std::string& what) const {
+    throw InputError(table_.sourceName + ":" + std::to_string(table_.lineOfRow(row)) +
+                     ": column '" + column_->name + "' " + what + " (term '" + label() + "')");
+  }
+
+  const Term& term_;
+  const Table& table_;
+  const Column* column_ = nullptr;
+  std::vector<BoundTerm> factors_;
+  std::int32_t levelCode_ = -2;
+  double levelNumber_ = 0.0;
+};
+
+}  // namespace
+
+std::vector<std::string> requiredColumns(const Model& model) {
+  std::vector<std::string> columns;
+  for (const Term& term : model.terms) collectColumns(model, term, columns);
+  return columns;
+}
+
+Eigen::MatrixXd designMatrix(const Model& model, const Table& table,
+                             const std::vector<std::uint32_t>& rows) {
+  Eigen::MatrixXd design(static_cast<Eigen::Index>(rows.size()),
+                         static_cast<Eigen::Index>(model.terms.size()));
+  for (std::size_t j = 0; j < model.terms.size(); ++j) {
+    const BoundTerm bound(model, model.terms[j], table);
+    double* out = design.col(static_cast<Eigen::Index>(j)).data();
+    for (std::size_t i = 0; i < rows.size(); ++i) out[i] = bound.value(rows[i]);
+  }
+  return design;
+}
+
+std::vector<double> linearPredictor(const Model& model, const Table& table,
+                                    const std::vector<std::uint32_t>& rows) {
+  const Eigen::MatrixXd design = designMatrix(model, table, rows);
+  Eigen::VectorXd beta(static_cast<Eigen::Index>(model.terms.size()));
+  for (std::size_t j = 0; j < model.terms.size(); ++j) {
+    beta[static_cast<Eigen::Index>(j)] = model.terms[j].estimate.coefficient;
+  }
+  Eigen::VectorXd lp = design * beta;
+  lp.array() += model.intercept.coefficient;
+  return std::vector<double>(lp.data(), lp.data() + lp.size());
+}
+
+double logisticRisk(double linearPredictor) {
+  // Never exponentiates a large positive number, so no overflow and no 0/0.
+  if (linearPredictor >= 0) return 1.0 / (1.0 + std::exp(-linearPredictor));
+  const double e = std::exp(linearPredictor);
+  return e / (1.0 + e);
+}
+
+}  // namespace calivera

@@ -1,0 +1,22 @@
+#pragma once
+// Number formatting shared by the audit report's tables: fixed decimals, 95% intervals and
+// thresholds, locale-independent (the report must read the same on every machine).
+
+#include <string>
+
+#include "core/metrics/validation.h"
+
+namespace calivera {
+
+// Fixed `decimals`; "-" for NaN, "inf"/"-inf" for infinities; never "-0.000".
+std::string formatFixed(double value, int decimals);
+// "0.812 (0.751 to 0.861)"
+std::string formatWithCi(double value, const Interval& ci, int decimals);
+// "0.812 to 0.861"
+std::string formatInterval(const Interval& ci, int decimals);
+// Thresholds as risk: "0.1" -> "0.10", "0.075" -> "0.075" (two decimals at least, up to four).
+std::string formatThreshold(double threshold);
+// 0.0123 -> "1.2%"
+std::string formatPercent(double proportion, int decimals);
+
+}  // namespace calivera

@@ -1,0 +1,507 @@
+#include "core/report/audit_report.h"
+
+#include <algorithm>
+#include <charconv>
+#include <cmath>
+#include <cstdlib>
+#include <ctime>
+#include <string_view>
+
+#include "core/report/audit_disclosure.h"
+#include "core/report/audit_format.h"
+#include "core/report/audit_methods.h"
+#include "core/util/errors.h"
+
+namespace calivera {
+
+const std::string& auditCautionText() {
+  static const std::string text =
+      "Results describe model performance on this cohort; they do not replace clinical "
+      "judgment. Any use in care is a decision for local clinical governance and licensed "
+      "practice under local regulations.";
+  return text;
+}
+
+std::string formatUtcTimestamp(long long secondsSinceEpoch) {
+  const std::time_t time = static_cast<std::time_t>(secondsSinceEpoch);
+  std::tm utc{};
+  gmtime_r(&time, &utc);
+  char buffer[40];
+  std::strftime(buffer, sizeof buffer, "%Y-%m-%d %H:%M:%S UTC", &utc);
+  return buffer;
+}
+
+long long reportTimestamp() {
+  const char* epoch = std::getenv("SOURCE_DATE_EPOCH");
+  if (epoch == nullptr || *epoch == '\0') return static_cast<long long>(std::time(nullptr));
+  const std::string_view text(epoch);
+  long long value = 0;
+  const auto [end, error] = std::from_chars(text.data(), text.data() + text.size(), value);
+  if (error != std::errc() || end != text.data() + text.size() || value < 0) {
+    throw InputError("environment variable SOURCE_DATE_EPOCH: '" + std::string(text) +
+                     "' is not a non-negative integer number of seconds");
+  }
+  return value;
+}
+
+namespace {
+
+using Kind = ReportBlock::Kind;
+
+ReportBlock heading(std::string text, int level = 1) {
+  ReportBlock block;
+  block.kind = Kind::Heading;
+  block.level = level;
+  block.text = std::move(text);
+  return block;
+}
+
+ReportBlock paragraph(std::string text) {
+  ReportBlock block;
+  block.kind = Kind::Paragraph;
+  block.text = std::move(text);
+  return block;
+}
+
+ReportBlock tableBlock(ReportTable table) {
+  ReportBlock block;
+  block.kind = Kind::Table;
+  block.table = std::move(table);
+  return block;
+}
+
+ReportTable keyValueTable(std::string caption) {
+  ReportTable table;
+  table.caption = std::move(caption);
+  table.header = {"Item", "Value"};
+  table.widths = {0.36, 0.64};
+  table.align = {CellAlign::Left, CellAlign::Left};
+  return table;
+}
+
+std::string orDash(const std::optional<std::string>& text) {
+  return text ? *text : "not stated";
+}
+
+std::string orDash(const std::optional<long long>& value) {
+  return value ? std::to_string(*value) : "not stated";
+}
+
+std::string thresholdList(const std::vector<double>& thresholds) {
+  if (thresholds.empty()) return "none";
+  std::string text;
+  for (std::size_t i = 0; i < thresholds.size(); ++i) {
+    text += (i ? ", " : "") + formatThreshold(thresholds[i]);
+  }
+  return text;
+}
+
+// The rows of result.thresholds the report tabulates, in the order the user selected them.
+std::vector<ThresholdRow> selectTableRows(const AuditReportInput& input) {
+  const auto& all = input.result.thresholds;
+  std::vector<double> wanted = input.settings.tableThresholds;
+  if (wanted.empty()) {
+    // Nothing selected: a short table of the computed thresholds, never the full 99-row grid.
+    if (all.size() <= 12) {
+      for (const ThresholdRow& row : all) wanted.push_back(row.threshold);
+    } else {
+      for (const double t : {0.05, 0.1, 0.2, 0.3, 0.5}) {
+        const bool present = std::any_of(all.begin(), all.end(), [&](const ThresholdRow& r) {
+          return std::abs(r.threshold - t) < 1e-9;
+        });
+        if (present) wanted.push_back(t);
+      }
+    }
+  }
+  std::vector<ThresholdRow> rows;
+  for (const double t : wanted) {
+    const auto row = std::find_if(all.begin(), all.end(), [&](const ThresholdRow& r) {
+      return std::abs(r.threshold - t) < 1e-9;
+    });
+    if (row == all.end()) {
+      throw InputError("report threshold " + formatThreshold(t) +
+                       " is not among the thresholds of the validation run");
+    }
+    rows.push_back(*row);
+  }
+  return rows;
+}
+
+std::string fileNameOnly(const std::string& path) {
+  const auto slash = path.find_last_of("/\\");
+  return slash == std::string::npos ? path : path.substr(slash + 1);
+}
+
+void addIdentification(const AuditReportInput& input, const DisclosurePlan& plan,
+                       const std::vector<ThresholdRow>& tableRows,
+                       std::vector<ReportBlock>& blocks) {
+  blocks.push_back(heading("1  What was validated"));
+  ReportTable cohort = keyValueTable("Table 1. Cohort file");
+  cohort.rows.push_back({"File name", fileNameOnly(input.cohortFile.name)});
+  cohort.rows.push_back({"SHA-256", input.cohortFile.sha256});
+  cohort.rows.push_back({"Rows read", plan.rowsRead()});
+  cohort.rows.push_back({"Rows excluded", plan.rowsExcluded()});
+  for (std::size_t k = 0; k < input.exclusions.byColumn.size(); ++k) {
+    cohort.rows.push_back({"  missing value in '" + input.exclusions.byColumn[k].column + "'",
+                           plan.excludedByColumn(k)});
+  }
+  cohort.rows.push_back({"Rows analysed (n)", plan.rowsAnalysed()});
+  cohort.rows.push_back({"Events", plan.events()});
+  cohort.rows.push_back({"Non-events", plan.nonEvents()});
+  cohort.rows.push_back({"Prevalence", plan.eventsHidden()
+                                           ? std::string(kComplementaryMark)
+                                           : formatPercent(input.result.cohort.prevalence, 1)});
+  if (!input.exclusions.byColumn.empty()) {
+    cohort.note =
+        "A row missing a value in any column the model or the outcome uses is excluded "
+        "(complete-case analysis); a row can be missing in several columns.";
+  }
+  blocks.push_back(tableBlock(cohort));
+
+  const Model& model = input.model;
+  ReportTable modelTable = keyValueTable("Table 2. Model file and development record");
+  modelTable.rows.push_back({"File name", fileNameOnly(input.modelFile.name)});
+  modelTable.rows.push_back({"SHA-256", input.modelFile.sha256});
+  modelTable.rows.push_back({"Model name", model.name.empty() ? "not stated" : model.name});
+  modelTable.rows.push_back(
+      {"Outcome predicted", model.outcome.empty() ? "not stated" : model.outcome});
+  std::string terms;
+  for (const Term& term : model.terms) terms += (terms.empty() ? "" : ", ") + term.name;
+  modelTable.rows.push_back(
+      {"Terms (" + std::to_string(model.terms.size()) + ")", terms.empty() ? "none" : terms});
+  const DevelopmentRecord& dev = model.development;
+  modelTable.rows.push_back({"Development: patients", orDash(dev.n)});
+  modelTable.rows.push_back({"Development: events", orDash(dev.events)});
+  modelTable.rows.push_back({"Development data SHA-256", orDash(dev.dataSha256)});
+  modelTable.rows.push_back({"Development: software", orDash(dev.software)});
+  modelTable.rows.push_back({"Development: method", orDash(dev.method)});
+  modelTable.rows.push_back({"Development: description", orDash(dev.description)});
+  if (model.provenance) modelTable.rows.push_back({"Updates (provenance)", *model.provenance});
+  blocks.push_back(tableBlock(modelTable));
+
+  const AuditSettings& s = input.settings;
+  ReportTable settings = keyValueTable("Table 3. Settings of this validation");
+  settings.rows.push_back(
+      {"Outcome column", s.outcomeColumn.empty() ? "not stated" : s.outcomeColumn});
+  settings.rows.push_back(
+      {"Event value", s.eventValue ? *s.eventValue : "1 (outcome column holds 0 and 1)"});
+  settings.rows.push_back(
+      {"Type of validation", s.apparent ? "apparent (the cohort is the development data)"
+                                        : "external (fixed model applied to this cohort)"});
+  settings.rows.push_back({"Risk groups (Hosmer-Lemeshow)", std::to_string(s.groups)});
+  std::vector<double> tabulated;
+  for (const ThresholdRow& row : tableRows) tabulated.push_back(row.threshold);
+  settings.rows.push_back({"Thresholds tabulated", thresholdList(tabulated)});
+  settings.rows.push_back(
+      {"Reasonable threshold range", s.reasonableThresholds
+                                         ? formatThreshold(s.reasonableThresholds->lo) + " to " +
+                                               formatThreshold(s.reasonableThresholds->hi)
+                                         : "not set"});
+  settings.rows.push_back({"Small-cell suppression",
+                           s.suppressBelow >= 2
+                               ? "counts from 1 to " + std::to_string(s.suppressBelow - 1) +
+                                     " hidden (shown as <" + std::to_string(s.suppressBelow) + ")"
+                               : "off"});
+  for (const auto& [name, value] : s.other) settings.rows.push_back({name, value});
+  blocks.push_back(tableBlock(settings));
+}
+
+std::string aucReading(const Discrimination& d) {
+  const long pairs = std::lround(d.auc * 100.0);
+  return "In about " + std::to_string(pairs) +
+         " of 100 pairs of one patient with and one without the event, the patient with the "
+         "event had the higher predicted risk (0.5 is chance, 1 is perfect).";
+}
+
+std::string interceptReading(const Calibration& c) {
+  if (c.interceptCi.lo <= 0.0 && c.interceptCi.hi >= 0.0) {
+    return "Target 0. The interval includes 0: no clear overall over- or under-prediction.";
+  }
+  return c.intercept > 0.0
+             ? "Target 0. Above 0: events were more frequent than predicted (under-prediction)."
+             : "Target 0. Below 0: events were less frequent than predicted (over-prediction).";
+}
+
+std::string slopeReading(const Calibration& c) {
+  if (c.slopeCi.lo <= 1.0 && c.slopeCi.hi >= 1.0) {
+    return "Target 1. The interval includes 1: no clear sign that predicted risks are too "
+           "extreme or too moderate.";
+  }
+  return c.slope < 1.0 ? "Target 1. Below 1: predicted risks are too extreme (high risks too "
+                         "high, low risks too low)."
+                       : "Target 1. Above 1: predicted risks are too moderate (spread too "
+                         "little).";
+}
+
+void addSummary(const AuditReportInput& input, const DisclosurePlan& plan,
+                std::vector<ReportBlock>& blocks) {
+  const ValidationResult& r = input.result;
+  const Calibration& c = r.calibration;
+  ReportTable table;
+  table.caption = "Table 4. Performance summary (95% confidence intervals)";
+  table.header = {"Measure", "Estimate (95% CI)", "Reading"};
+  table.widths = {0.24, 0.28, 0.48};
+  table.align = {CellAlign::Left, CellAlign::Left, CellAlign::Left};
+  table.rows.push_back({"AUC (c-statistic)",
+                        formatWithCi(r.discrimination.auc, r.discrimination.aucCi, 3),
+                        aucReading(r.discrimination)});
+  table.rows.push_back({"Discrimination slope",
+                        formatFixed(r.discrimination.discriminationSlope, 3),
+                        "Mean predicted risk of patients with the event minus that of patients "
+                        "without it."});
+  table.rows.push_back(
+      {"Calibration intercept", formatWithCi(c.intercept, c.interceptCi, 3), interceptReading(c)});
+  table.rows.push_back({"Calibration slope", formatWithCi(c.slope, c.slopeCi, 3), slopeReading(c)});
+  table.rows.push_back(
+      {"Observed / expected",
+       plan.eventsHidden() ? std::string(kComplementaryMark) : formatWithCi(c.oeRatio, c.oeCi, 3),
+       "Observed events per predicted event (target 1)."});
+  table.rows.push_back(
+      {"Spiegelhalter z",
+       formatFixed(c.spiegelhalterZ, 2) + " (p = " + formatFixed(c.spiegelhalterP, 3) + ")",
+       "Tests whether squared errors exceed what the predicted risks imply."});
+  table.rows.push_back({"ICI / E50 / E90 / Emax",
+                        formatFixed(c.ici, 3) + " / " + formatFixed(c.e50, 3) + " / " +
+                            formatFixed(c.e90, 3) + " / " + formatFixed(c.emax, 3),
+                        "On average predicted risk differs from the smoothed observed risk by " +
+                            formatFixed(c.ici * 100.0, 1) + " percentage points."});
+  table.rows.push_back({"Brier score (scaled)",
+                        formatFixed(r.overall.brier, 3) + " (" +
+                            (plan.eventsHidden() ? std::string(kComplementaryMark)
+                                                 : formatFixed(r.overall.brierScaled, 3)) +
+                            ")",
+                        "Mean squared error of the risks (0 is perfect); scaled: share of the "
+                        "error of a prevalence-only model removed."});
+  const HosmerLemeshow& hl = r.hosmerLemeshow;
+  table.rows.push_back({"Hosmer-Lemeshow",
+                        "chi-square " + formatFixed(hl.statistic, 2) + ", df " +
+                            std::to_string(hl.df) + ", p = " + formatFixed(hl.pValue, 3),
+                        hl.pValue < 0.05 ? "Grouped observed and expected events differ more than "
+                                           "chance explains; read with the calibration curve."
+                                         : "No clear difference between grouped observed and "
+                                           "expected events; the test has little power in small "
+                                           "cohorts."});
+  if (!c.hierarchyLevel.empty()) {
+    table.rows.push_back({"Calibration level", c.hierarchyLevel,
+                          "Level reached on the calibration hierarchy (Van Calster et al. 2016)."});
+  }
+  blocks.push_back(tableBlock(table));
+}
+
+void addCharts(const AuditDocument& doc, std::vector<ReportBlock>& blocks) {
+  const std::vector<std::pair<ChartKind, std::string>> charts = {
+      {ChartKind::Roc,
+       "Figure 1. ROC curve: sensitivity against 1 - specificity over all "
+       "thresholds, with the chance diagonal"},
+      {ChartKind::Calibration,
+       "Figure 2. Calibration: smoothed observed proportion and risk "
+       "groups (95% CI) against predicted risk; the ideal is the diagonal"},
+      {ChartKind::DecisionCurve,
+       "Figure 3. Decision curve: net benefit of the model, of treating "
+       "all and of treating none; the shaded band is the reasonable "
+       "threshold range"},
+      {ChartKind::RiskDistribution, "Figure 4. Distribution of predicted risk by outcome"},
+  };
+  for (const auto& [kind, caption] : charts) {
+    ReportBlock block;
+    block.kind = Kind::ChartPair;
+    block.charts = {kind};
+    block.captions = {caption};
+    if (doc.suppressionApplied && kind != ChartKind::Roc) {
+      block.captions[0] += kind == ChartKind::RiskDistribution
+                               ? " (bins with hidden counts drawn empty)"
+                               : " (drawn from the suppressed values)";
+    }
+    blocks.push_back(block);
+  }
+}
+
+void addHosmerLemeshow(const AuditReportInput& input, const DisclosurePlan& plan,
+                       std::vector<ReportBlock>& blocks) {
+  const auto& groups = input.result.hosmerLemeshow.groups;
+  if (groups.empty()) return;
+  ReportTable table;
+  table.caption = "Table 5. Risk groups (Hosmer-Lemeshow)";
+  table.header = {"Group",      "Risk range",      "n",         "Events",
+                  "Non-events", "Expected events", "Mean risk", "Observed proportion (95% CI)"};
+  table.widths = {0.07, 0.17, 0.08, 0.09, 0.11, 0.12, 0.10, 0.26};
+  table.align = {CellAlign::Right, CellAlign::Left,  CellAlign::Right, CellAlign::Right,
+                 CellAlign::Right, CellAlign::Right, CellAlign::Right, CellAlign::Left};
+  for (std::size_t g = 0; g < groups.size(); ++g) {
+    const CalibrationGroup& group = groups[g];
+    table.rows.push_back(
+        {std::to_string(g + 1),
+         formatFixed(group.riskLo, 3) + " to " + formatFixed(group.riskHi, 3), plan.groupN(g),
+         plan.groupEvents(g), plan.groupNonEvents(g),
+         plan.groupSizeHidden(g) ? std::string(kComplementaryMark) : formatFixed(group.expected, 1),
+         formatFixed(group.meanRisk, 3),
+         plan.groupProportionHidden(g)
+             ? std::string(kComplementaryMark)
+             : formatWithCi(group.observedProportion, group.observedCi, 3)});
+  }
+  blocks.push_back(tableBlock(table));
+}
+
+void addThresholdTable(const std::vector<ThresholdRow>& rows, const DisclosurePlan& plan,
+                       std::vector<ReportBlock>& blocks) {
+  if (rows.empty()) return;
+  ReportTable table;
+  table.caption = "Table 6. At the selected thresholds (flagged: predicted risk at or above)";
+  table.header = {"Threshold",   "TP",          "FP",  "FN",  "TN",
+                  "Sensitivity", "Specificity", "PPV", "NPV", "Flagged per 1000"};
+  table.widths = {0.10, 0.06, 0.06, 0.06, 0.06, 0.14, 0.14, 0.14, 0.14, 0.10};
+  table.align = std::vector<CellAlign>(table.header.size(), CellAlign::Right);
+  const std::string hidden = kComplementaryMark;
+  for (std::size_t i = 0; i < rows.size(); ++i) {
+    const ThresholdRow& row = rows[i];
+    const bool h = plan.rowHidden(i);
+    auto rate = [&](double value, const Interval& ci) {
+      // Estimate over its interval: the narrow rate columns never break inside a number.
+      return h ? hidden
+               : formatFixed(value, 3) + "\n(" + formatFixed(ci.lo, 3) + "\u2013" +
+                     formatFixed(ci.hi, 3) + ")";
+    };
+    table.rows.push_back({formatThreshold(row.threshold), plan.rowTp(i), plan.rowFp(i),
+                          plan.rowFn(i), plan.rowTn(i), rate(row.sensitivity, row.sensitivityCi),
+                          rate(row.specificity, row.specificityCi), rate(row.ppv, row.ppvCi),
+                          rate(row.npv, row.npvCi),
+                          h ? hidden : formatFixed(row.flaggedPer1000, 1)});
+  }
+  table.note =
+      "TP, FP, FN, TN: true and false positives and negatives. Rates with Wilson 95% "
+      "intervals.";
+  blocks.push_back(tableBlock(table));
+}
+
+std::vector<std::string> reportWarnings(const AuditReportInput& input) {
+  std::vector<std::string> warnings;
+  const CohortSummary& cohort = input.result.cohort;
+  const std::size_t nonEvents = cohort.n - cohort.events;
+  const std::size_t below = input.settings.suppressBelow;
+  const bool hideCounts = below >= 2 && (cohort.events < below || nonEvents < below);
+  if (cohort.events < 100 || nonEvents < 100) {
+    warnings.push_back(
+        hideCounts ? "Sample size: fewer than 100 events or non-events; estimates are imprecise "
+                     "(at least 100 of each, preferably 200 events, are recommended)."
+                   : "Sample size: " + std::to_string(cohort.events) + " events and " +
+                         std::to_string(nonEvents) +
+                         " non-events; at least 100 of each (preferably 200 events or more) are "
+                         "recommended for external validation, so estimates are imprecise.");
+  } else if (cohort.events < 200) {
+    warnings.push_back(
+        "Sample size: fewer than 200 events; intervals are wide for calibration "
+        "(200 or more events are preferred).");
+  }
+  if (input.exclusions.rowsExcluded > 0) {
+    const std::size_t excluded = input.exclusions.rowsExcluded;
+    warnings.push_back(
+        (below >= 2 && excluded < below ? "Fewer than " + std::to_string(below)
+                                        : std::to_string(excluded)) +
+        " rows were excluded for missing values (complete-case analysis); if missingness is "
+        "related to the outcome, performance on the analysed rows can differ from the whole "
+        "cohort.");
+  }
+  for (const std::string& warning : input.result.warnings) warnings.push_back(warning);
+  return warnings;
+}
+
+void addMethods(std::vector<ReportBlock>& blocks) {
+  blocks.push_back(heading("3  Methods"));
+  for (const MethodParagraph& method : auditMethodParagraphs()) {
+    blocks.push_back(heading(method.title, 2));
+    blocks.push_back(paragraph(method.text + " Source: " + method.reference));
+  }
+}
+
+void addChecklist(const AuditReportInput& input, std::vector<ReportBlock>& blocks) {
+  blocks.push_back(heading("4  Reporting checklist (oriented on TRIPOD and TRIPOD+AI)"));
+  blocks.push_back(paragraph(
+      "Items of the TRIPOD statement (Collins et al., BMJ 2015;350:g7594) and its update for "
+      "prediction models using regression or machine learning, TRIPOD+AI (Collins et al., BMJ "
+      "2024;385:e078378), as they apply to a validation. Items marked [to add] are not known to "
+      "this software and must be supplied by the user with the report."));
+  ReportTable table;
+  table.caption = "Table 7. Checklist";
+  table.header = {"Status", "Item", "Where covered / what to add"};
+  table.widths = {0.13, 0.45, 0.42};
+  table.align = {CellAlign::Left, CellAlign::Left, CellAlign::Left};
+  for (const ChecklistItem& item : auditChecklist(input.settings.apparent)) {
+    table.rows.push_back({item.status == ChecklistStatus::Covered ? "[covered]" : "[to add]",
+                          item.topic, item.where});
+  }
+  blocks.push_back(tableBlock(table));
+}
+
+void addAbout(const AuditReportInput& input, const AuditDocument& doc, const DisclosurePlan& plan,
+              std::vector<ReportBlock>& blocks) {
+  blocks.push_back(heading("5  About this report"));
+  blocks.push_back(paragraph(
+      "Privacy: the report holds aggregates only (counts, proportions, curves). No value of an "
+      "individual row of the cohort file, identifier or otherwise, is printed."));
+  if (plan.active()) {
+    std::string text =
+        "Small-cell suppression was applied: counts from 1 to " + std::to_string(plan.below() - 1) +
+        " are shown as <" + std::to_string(plan.below()) + ", and further counts marked " +
+        kComplementaryMark +
+        " are hidden so that no hidden count can be recomputed from row or column totals. Rates, "
+        "intervals and expected counts derived from a hidden count are hidden as well; ROC and "
+        "decision-curve points whose confusion counts include a count below " +
+        std::to_string(plan.below()) +
+        " are left out of the charts, and risk-distribution bins "
+        "with hidden counts are drawn empty.";
+    if (!doc.suppressionApplied) text += " No count in this report needed to be hidden.";
+    blocks.push_back(paragraph(text));
+  } else {
+    blocks.push_back(paragraph("Small-cell suppression was off: all counts are shown."));
+  }
+  blocks.push_back(paragraph(
+      "Reproducibility: the same input files (identified by the SHA-256 fingerprints in every "
+      "footer) and the same settings give the same report. Software: Calivera " +
+      input.softwareVersion + "."));
+}
+
+}  // namespace
+
+AuditDocument buildAuditDocument(const AuditReportInput& input) {
+  const std::vector<ThresholdRow> tableRows = selectTableRows(input);
+  const DisclosurePlan plan(input.result, input.exclusions, tableRows,
+                            input.settings.suppressBelow);
+  AuditDocument doc;
+  doc.title = input.title.empty() ? "Model validation audit report" : input.title;
+  doc.subtitle = "Created " + input.createdAt + "  |  Calivera " + input.softwareVersion;
+  doc.caution = auditCautionText();
+  doc.footer = {
+      "Cohort " + fileNameOnly(input.cohortFile.name) + "  SHA-256 " + input.cohortFile.sha256,
+      "Model " + fileNameOnly(input.modelFile.name) + "  SHA-256 " + input.modelFile.sha256};
+  doc.suppressBelow = plan.active() ? plan.below() : 0;
+  doc.suppressionApplied = plan.anyHidden();
+  doc.chartData = plan.chartData(input.result);
+  doc.reasonableThresholds = input.settings.reasonableThresholds;
+  for (std::size_t i = 0; i < tableRows.size() && !doc.markedThreshold; ++i) {
+    if (!plan.rowHidden(i)) doc.markedThreshold = tableRows[i];
+  }
+
+  std::vector<ReportBlock>& blocks = doc.blocks;
+  ReportBlock caution;
+  caution.kind = Kind::Caution;
+  caution.text = doc.caution;
+  blocks.push_back(caution);
+  addIdentification(input, plan, tableRows, blocks);
+
+  blocks.push_back(heading("2  Results"));
+  addSummary(input, plan, blocks);
+  addCharts(doc, blocks);
+  addHosmerLemeshow(input, plan, blocks);
+  addThresholdTable(tableRows, plan, blocks);
+  blocks.push_back(heading("Warnings", 2));
+  const std::vector<std::string> warnings = reportWarnings(input);
+  if (warnings.empty()) blocks.push_back(paragraph("None."));
+  for (const std::string& warning : warnings) blocks.push_back(paragraph("- " + warning));
+
+  addMethods(blocks);
+  addChecklist(input, blocks);
+  addAbout(input, doc, plan, blocks);
+  return doc;
+}
+
+}  // namespace calivera

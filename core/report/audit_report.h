@@ -1,0 +1,105 @@
+#pragma once
+// The audit report as plain content, free of Qt: what was validated (files, fingerprints,
+// exclusions, settings), the results with plain-language readings, methods with their sources,
+// a TRIPOD / TRIPOD+AI oriented checklist and warnings. The PDF renderer in ui/report lays these
+// blocks out; it adds no numbers of its own.
+//
+// Privacy: the document holds aggregates only (counts, rates, curves); no row-level value of the
+// cohort is ever copied into it. With suppression on (AuditSettings::suppressBelow >= 2), every
+// count passes through the disclosure plan (audit_disclosure.h) and the chart data are rebuilt
+// from the suppressed values.
+
+#include <cstddef>
+#include <optional>
+#include <string>
+#include <utility>
+#include <vector>
+
+#include "core/data/cohort.h"
+#include "core/metrics/validation.h"
+#include "core/model/model.h"
+
+namespace calivera {
+
+struct FileFingerprint {
+  std::string name;    // file name as the user gave it (no folders: they can name people)
+  std::string sha256;  // lowercase hex
+};
+
+struct AuditSettings {
+  std::string outcomeColumn;
+  std::optional<std::string> eventValue;
+  int groups = 10;
+  bool apparent = false;
+  std::vector<double> tableThresholds;           // rows of the threshold table, as selected
+  std::optional<Interval> reasonableThresholds;  // clinically reasonable range for net benefit
+  std::size_t suppressBelow = 0;                 // 0: off; N: counts 1..N-1 shown as "<N"
+  // Any further setting of the run, printed as given (name, value).
+  std::vector<std::pair<std::string, std::string>> other;
+};
+
+struct AuditReportInput {
+  std::string title;
+  std::string createdAt;  // as printed, e.g. "2026-12-01 22:40:00 UTC"
+  std::string softwareVersion;
+  FileFingerprint cohortFile;
+  ExclusionReport exclusions;
+  FileFingerprint modelFile;
+  Model model;
+  AuditSettings settings;
+  ValidationResult result;
+};
+
+enum class CellAlign { Left, Right };
+
+struct ReportTable {
+  std::string caption;
+  std::vector<std::string> header;
+  std::vector<std::vector<std::string>> rows;
+  std::vector<double> widths;    // relative column widths, one per header cell
+  std::vector<CellAlign> align;  // one per header cell
+  std::string note;              // printed under the table
+};
+
+enum class ChartKind { Roc, Calibration, DecisionCurve, RiskDistribution };
+
+struct ReportBlock {
+  enum class Kind { Heading, Paragraph, Caution, Table, ChartPair, PageBreak };
+  Kind kind = Kind::Paragraph;
+  int level = 1;                      // Heading: 1 section, 2 subsection
+  std::string text;                   // Heading, Paragraph, Caution
+  ReportTable table;                  // Table
+  std::vector<ChartKind> charts;      // ChartPair: one or two charts side by side
+  std::vector<std::string> captions;  // ChartPair: one per chart
+};
+
+struct AuditDocument {
+  std::string title;
+  std::string subtitle;             // date, software
+  std::string caution;              // also in every page footer
+  std::vector<std::string> footer;  // the two fingerprint lines
+  std::vector<ReportBlock> blocks;
+  // What the charts draw: the validation result with suppressed bins and points removed.
+  ValidationResult chartData;
+  // Where the charts mark a threshold: the first tabulated row whose counts are shown.
+  std::optional<ThresholdRow> markedThreshold;
+  std::optional<Interval> reasonableThresholds;  // shaded on the decision curve
+  std::size_t suppressBelow = 0;
+  bool suppressionApplied = false;  // at least one count was hidden
+};
+
+// The caution statement printed on the first page and in every footer.
+const std::string& auditCautionText();
+
+// Throws InputError when a selected table threshold is not among result.thresholds (the caller
+// validates with the thresholds it wants tabulated).
+AuditDocument buildAuditDocument(const AuditReportInput& input);
+
+// "2026-12-01 22:40:00 UTC" for seconds since the epoch.
+std::string formatUtcTimestamp(long long secondsSinceEpoch);
+
+// SOURCE_DATE_EPOCH (reproducible-builds.org) when set to a valid integer, else the current time.
+// Throws InputError naming the variable when it is set but not a non-negative integer.
+long long reportTimestamp();
+
+}  // namespace calivera

@@ -1,0 +1,106 @@
+#include "core/report/validation_summary.h"
+
+#include <cmath>
+#include <cstdio>
+#include <sstream>
+
+#include "core/report/validation_json.h"
+
+namespace calivera {
+namespace {
+
+std::string fixed(double value, int decimals) {
+  if (!std::isfinite(value)) return "undefined";
+  char buffer[64];
+  std::snprintf(buffer, sizeof buffer, "%.*f", decimals, value);
+  return buffer;
+}
+
+std::string withCi(double value, const Interval& ci, int decimals) {
+  return fixed(value, decimals) + " (95% CI " + fixed(ci.lo, decimals) + " to " +
+         fixed(ci.hi, decimals) + ")";
+}
+
+std::string pValue(double p) {
+  if (!std::isfinite(p)) return "undefined";
+  return p < 0.001 ? "< 0.001" : fixed(p, 3);
+}
+
+// Net benefit rows shown in the summary: the configured thresholds closest to these.
+constexpr double kSummaryThresholds[] = {0.05, 0.10, 0.20, 0.30, 0.50};
+
+}  // namespace
+
+std::string validationSummaryText(const ValidationRun& run) {
+  const ValidationResult& r = run.result;
+  const Calibration& c = r.calibration;
+  std::ostringstream out;
+  out << "Calivera " << run.softwareVersion << " - validation of " << run.modelName << "\n\n";
+  out << "Cohort file   " << run.request.dataPath << "\n  SHA-256     " << run.dataSha256 << "\n";
+  if (run.request.modelPath) {
+    out << "Model file    " << *run.request.modelPath << "\n  SHA-256     " << run.modelSha256
+        << "\n";
+  }
+  out << "Performance   " << run.performance << ": " << run.performanceBasis << "\n\n";
+  const ExclusionReport& ex = run.cohort.exclusions;
+  out << "Patients      " << r.cohort.n << " analysed of " << ex.rowsRead << " rows ("
+      << ex.rowsExcluded << " excluded for missing values)\n";
+  for (const ColumnExclusion& col : ex.byColumn) {
+    if (col.rowsMissing > 0) {
+      out << "  missing " << col.column << ": " << col.rowsMissing << "\n";
+    }
+  }
+  out << "Events        " << r.cohort.events << " (prevalence "
+      << fixed(100 * r.cohort.prevalence, 1) << "%)\n\n";
+  out << "Discrimination\n";
+  out << "  AUC (c-statistic)       " << withCi(r.discrimination.auc, r.discrimination.aucCi, 3)
+      << ", DeLong SE " << fixed(r.discrimination.aucSe, 4) << "\n";
+  out << "  Discrimination slope    " << fixed(r.discrimination.discriminationSlope, 3) << "\n";
+  out << "Overall\n";
+  out << "  Brier score             " << fixed(r.overall.brier, 4) << " (scaled "
+      << fixed(r.overall.brierScaled, 3) << ")\n";
+  out << "Calibration\n";
+  out << "  Calibration intercept   " << withCi(c.intercept, c.interceptCi, 3) << "  target 0\n";
+  out << "  Calibration slope       " << withCi(c.slope, c.slopeCi, 3) << "  target 1\n";
+  out << "  Observed / expected     " << withCi(c.oeRatio, c.oeCi, 3) << "  target 1\n";
+  out << "  ICI / E50 / E90 / Emax  " << fixed(c.ici, 4) << " / " << fixed(c.e50, 4) << " / "
+      << fixed(c.e90, 4) << " / " << fixed(c.emax, 4)
+      << (c.curveInterpolated ? "  (loess on a quantile grid)" : "") << "\n";
+  out << "  Spiegelhalter z         " << fixed(c.spiegelhalterZ, 2) << ", p "
+      << pValue(c.spiegelhalterP) << "\n";
+  const HosmerLemeshow& hl = r.hosmerLemeshow;
+  out << "  Hosmer-Lemeshow         " << fixed(hl.statistic, 2) << " on " << hl.df << " df, p "
+      << pValue(hl.pValue) << " (" << hl.groups.size() << " groups)\n";
+  out << "  Reading: " << c.hierarchyLevel << "\n\n";
+  out << "Risk groups     n   observed  expected  observed % (95% CI)\n";
+  for (std::size_t k = 0; k < c.groups.size(); ++k) {
+    const CalibrationGroup& g = c.groups[k];
+    char line[160];
+    std::snprintf(line, sizeof line, "  %2zu  %10zu  %9zu  %8.1f  %5.1f (%.1f to %.1f)\n", k + 1,
+                  g.n, g.observed, g.expected, 100 * g.observedProportion, 100 * g.observedCi.lo,
+                  100 * g.observedCi.hi);
+    out << line;
+  }
+  out << "\nThreshold  net benefit  treat all  avoided/100  sensitivity  specificity  "
+         "flagged/1000\n";
+  for (const double wanted : kSummaryThresholds) {
+    for (std::size_t i = 0; i < r.decisionCurve.size(); ++i) {
+      if (std::abs(r.decisionCurve[i].threshold - wanted) > 1e-9) continue;
+      const DecisionCurvePoint& d = r.decisionCurve[i];
+      const ThresholdRow& t = r.thresholds[i];
+      char line[200];
+      std::snprintf(line, sizeof line, "  %6.2f  %11.4f  %9.4f  %11.1f  %11.3f  %11.3f  %12.1f\n",
+                    d.threshold, d.netBenefit, d.netBenefitTreatAll, d.interventionsAvoidedPer100,
+                    t.sensitivity, t.specificity, t.flaggedPer1000);
+      out << line;
+    }
+  }
+  if (!r.warnings.empty()) {
+    out << "\nWarnings\n";
+    for (const std::string& w : r.warnings) out << "  - " << w << "\n";
+  }
+  out << "\n" << kCautionText << "\n";
+  return out.str();
+}
+
+}  // namespace calivera

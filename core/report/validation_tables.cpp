@@ -1,0 +1,214 @@
+#include "core/report/validation_tables.h"
+
+#include <cmath>
+#include <filesystem>
+#include <sstream>
+
+#include "core/util/atomic_file.h"
+#include "core/util/errors.h"
+
+namespace calivera {
+namespace {
+
+// One CSV being built: fields separated by commas, text fields quoted when needed.
+class CsvText {
+ public:
+  explicit CsvText(const std::vector<std::string>& header) {
+    out_.precision(10);
+    for (const std::string& h : header) field(h);
+    end();
+  }
+  CsvText& num(double value) {
+    separate();
+    if (std::isfinite(value)) out_ << value;
+    return *this;
+  }
+  CsvText& count(std::size_t value) {
+    separate();
+    out_ << value;
+    return *this;
+  }
+  CsvText& field(const std::string& text) {
+    separate();
+    if (text.find_first_of(",\"\n\r") == std::string::npos) {
+      out_ << text;
+    } else {
+      out_ << '"';
+      for (const char c : text) out_ << (c == '"' ? "\"\"" : std::string(1, c));
+      out_ << '"';
+    }
+    return *this;
+  }
+  CsvText& ci(const Interval& i) { return num(i.lo).num(i.hi); }
+  void end() {
+    out_ << '\n';
+    first_ = true;
+  }
+  std::string str() const { return out_.str(); }
+
+ private:
+  void separate() {
+    if (!first_) out_ << ',';
+    first_ = false;
+  }
+  std::ostringstream out_;
+  bool first_ = true;
+};
+
+std::string thresholdsCsv(const std::vector<ThresholdRow>& rows) {
+  CsvText csv({"threshold",
+               "tp",
+               "fp",
+               "tn",
+               "fn",
+               "sensitivity",
+               "sensitivity_lo",
+               "sensitivity_hi",
+               "specificity",
+               "specificity_lo",
+               "specificity_hi",
+               "ppv",
+               "ppv_lo",
+               "ppv_hi",
+               "npv",
+               "npv_lo",
+               "npv_hi",
+               "flagged_per_1000",
+               "events_caught_per_1000",
+               "events_missed_per_1000",
+               "flagged_without_event_per_1000"});
+  for (const ThresholdRow& r : rows) {
+    csv.num(r.threshold).count(r.tp).count(r.fp).count(r.tn).count(r.fn);
+    csv.num(r.sensitivity).ci(r.sensitivityCi).num(r.specificity).ci(r.specificityCi);
+    csv.num(r.ppv).ci(r.ppvCi).num(r.npv).ci(r.npvCi);
+    csv.num(r.flaggedPer1000).num(r.eventsCaughtPer1000).num(r.eventsMissedPer1000);
+    csv.num(r.flaggedWithoutEventPer1000).end();
+  }
+  return csv.str();
+}
+
+std::string decisionCurveCsv(const std::vector<DecisionCurvePoint>& points) {
+  CsvText csv({"threshold", "net_benefit", "net_benefit_treat_all", "net_benefit_treat_none",
+               "standardized_net_benefit", "interventions_avoided_per_100"});
+  for (const DecisionCurvePoint& p : points) {
+    csv.num(p.threshold).num(p.netBenefit).num(p.netBenefitTreatAll).num(0.0);
+    csv.num(p.standardizedNetBenefit).num(p.interventionsAvoidedPer100).end();
+  }
+  return csv.str();
+}
+
+std::string groupsCsv(const std::vector<CalibrationGroup>& groups) {
+  CsvText csv({"group", "n", "observed", "expected", "mean_risk", "observed_proportion",
+               "observed_lo", "observed_hi", "risk_min", "risk_max"});
+  std::size_t k = 0;
+  for (const CalibrationGroup& g : groups) {
+    csv.count(++k).count(g.n).count(g.observed).num(g.expected).num(g.meanRisk);
+    csv.num(g.observedProportion).ci(g.observedCi).num(g.riskLo).num(g.riskHi).end();
+  }
+  return csv.str();
+}
+
+std::string curveCsv(const std::vector<CalibrationCurvePoint>& curve) {
+  CsvText csv({"risk", "observed_smoothed"});
+  for (const CalibrationCurvePoint& p : curve) csv.num(p.risk).num(p.observed).end();
+  return csv.str();
+}
+
+std::string rocCsv(const std::vector<RocPoint>& roc) {
+  CsvText csv({"threshold", "false_positive_rate", "true_positive_rate"});
+  for (const RocPoint& p : roc) csv.num(p.threshold).num(p.fpr).num(p.tpr).end();
+  return csv.str();
+}
+
+std::string histogramCsv(const RiskHistogram& h) {
+  CsvText csv({"bin_from", "bin_to", "events", "non_events"});
+  for (std::size_t k = 0; k < h.eventCounts.size(); ++k) {
+    csv.num(h.binEdges[k]).num(h.binEdges[k + 1]).count(h.eventCounts[k]);
+    csv.count(h.nonEventCounts[k]).end();
+  }
+  return csv.str();
+}
+
+std::string summaryCsv(const ValidationRun& run) {
+  const ValidationResult& r = run.result;
+  const Calibration& c = r.calibration;
+  CsvText csv({"statistic", "estimate", "ci_lo", "ci_hi", "se"});
+  const auto row = [&csv](const std::string& name, double estimate, const Interval* ci, double se) {
+    csv.field(name).num(estimate);
+    if (ci) {
+      csv.ci(*ci);
+    } else {
+      csv.field("").field("");
+    }
+    if (std::isfinite(se)) {
+      csv.num(se);
+    } else {
+      csv.field("");
+    }
+    csv.end();
+  };
+  const double none = std::nan("");
+  row("n", static_cast<double>(r.cohort.n), nullptr, none);
+  row("events", static_cast<double>(r.cohort.events), nullptr, none);
+  row("prevalence", r.cohort.prevalence, nullptr, none);
+  row("excluded", static_cast<double>(run.cohort.exclusions.rowsExcluded), nullptr, none);
+  row("auc", r.discrimination.auc, &r.discrimination.aucCi, r.discrimination.aucSe);
+  row("discrimination_slope", r.discrimination.discriminationSlope, nullptr, none);
+  row("brier", r.overall.brier, nullptr, none);
+  row("brier_scaled", r.overall.brierScaled, nullptr, none);
+  row("calibration_intercept", c.intercept, &c.interceptCi, c.interceptSe);
+  row("calibration_slope", c.slope, &c.slopeCi, c.slopeSe);
+  row("oe_ratio", c.oeRatio, &c.oeCi, none);
+  row("spiegelhalter_z", c.spiegelhalterZ, nullptr, none);
+  row("spiegelhalter_p", c.spiegelhalterP, nullptr, none);
+  row("ici", c.ici, nullptr, none);
+  row("e50", c.e50, nullptr, none);
+  row("e90", c.e90, nullptr, none);
+  row("emax", c.emax, nullptr, none);
+  row("hosmer_lemeshow_statistic", r.hosmerLemeshow.statistic, nullptr, none);
+  row("hosmer_lemeshow_df", r.hosmerLemeshow.df, nullptr, none);
+  row("hosmer_lemeshow_p", r.hosmerLemeshow.pValue, nullptr, none);
+  return csv.str();
+}
+
+std::string warningsCsv(const ValidationRun& run) {
+  CsvText csv({"warning"});
+  csv.field("performance: " + run.performance + " (" + run.performanceBasis + ")").end();
+  for (const std::string& w : run.result.warnings) csv.field(w).end();
+  return csv.str();
+}
+
+}  // namespace
+
+std::vector<std::pair<std::string, std::string>> validationTables(const ValidationRun& run) {
+  const ValidationResult& r = run.result;
+  return {{"thresholds.csv", thresholdsCsv(r.thresholds)},
+          {"decision_curve.csv", decisionCurveCsv(r.decisionCurve)},
+          {"hosmer_lemeshow_groups.csv", groupsCsv(r.hosmerLemeshow.groups)},
+          {"calibration_curve.csv", curveCsv(r.calibration.curve)},
+          {"roc.csv", rocCsv(r.discrimination.roc)},
+          {"risk_distribution.csv", histogramCsv(r.distribution)},
+          {"summary.csv", summaryCsv(run)},
+          {"warnings.csv", warningsCsv(run)}};
+}
+
+void writeValidationTables(const std::string& directory, const ValidationRun& run) {
+  namespace fs = std::filesystem;
+  std::error_code error;
+  fs::create_directories(directory, error);
+  if (error) throw InputError(directory + ": cannot create folder (" + error.message() + ")");
+  const auto tables = validationTables(run);
+  std::vector<fs::path> written;
+  try {
+    for (const auto& [name, text] : tables) {
+      const fs::path path = fs::path(directory) / name;
+      writeFileAtomically(path.string(), text);
+      written.push_back(path);
+    }
+  } catch (...) {
+    for (const fs::path& path : written) fs::remove(path, error);
+    throw;
+  }
+}
+
+}  // namespace calivera

@@ -1,0 +1,23 @@
+#pragma once
+// The validation tables as CSV (comma, header row, '.' decimals, 10 significant digits, empty
+// field for an undefined value), for `calivera validate --csv-dir DIR` and for export from the
+// workstation. Each table is one file in DIR:
+//   thresholds.csv, decision_curve.csv, hosmer_lemeshow_groups.csv, calibration_curve.csv,
+//   roc.csv, risk_distribution.csv, summary.csv (one row per scalar statistic), warnings.csv.
+
+#include <string>
+#include <utility>
+#include <vector>
+
+#include "core/metrics/validation_run.h"
+
+namespace calivera {
+
+// (file name, CSV text) for every table, in the order above.
+std::vector<std::pair<std::string, std::string>> validationTables(const ValidationRun& run);
+
+// Creates DIR if needed and writes every table atomically. If any write fails, the tables this
+// call already wrote are removed again and the error propagates (InputError naming the path).
+void writeValidationTables(const std::string& directory, const ValidationRun& run);
+
+}  // namespace calivera

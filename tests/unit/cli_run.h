@@ -1,0 +1,84 @@
+#pragma once
+// Runs the real calivera executable (CALIVERA_BINARY) in a shell and captures its exit status,
+// standard output and standard error, for command-line tests.
+
+#include <sys/wait.h>
+#include <unistd.h>
+
+#include <array>
+#include <cstdio>
+#include <filesystem>
+#include <fstream>
+#include <sstream>
+#include <string>
+#include <vector>
+
+namespace calivera::testing {
+
+struct CliRun {
+  int status = -1;
+  std::string out;
+  std::string err;
+};
+
+inline std::string shellQuote(const std::string& word) {
+  std::string quoted = "'";
+  for (const char c : word) quoted += c == '\'' ? std::string("'\\''") : std::string(1, c);
+  return quoted + "'";
+}
+
+inline std::string readWhole(const std::filesystem::path& path) {
+  std::ifstream in(path, std::ios::binary);
+  std::ostringstream buffer;
+  buffer << in.rdbuf();
+  return buffer.str();
+}
+
+inline CliRun runCalivera(const std::vector<std::string>& words) {
+  static int counter = 0;
+  const auto dir = std::filesystem::temp_directory_path();
+  const auto errPath =
+      dir / ("calivera_cli_err_" + std::to_string(::getpid()) + "_" + std::to_string(counter++));
+  std::string command = shellQuote(CALIVERA_BINARY);
+  for (const std::string& word : words) command += " " + shellQuote(word);
+  command += " 2>" + shellQuote(errPath.string());
+  CliRun run;
+  FILE* pipe = ::popen(command.c_str(), "r");
+  if (!pipe) return run;
+  std::array<char, 4096> buffer{};
+  std::size_t got = 0;
+  while ((got = std::fread(buffer.data(), 1, buffer.size(), pipe)) > 0)
+    run.out.append(buffer.data(), got);
+  const int raw = ::pclose(pipe);
+  run.status = WIFEXITED(raw) ? WEXITSTATUS(raw) : -1;
+  run.err = readWhole(errPath);
+  std::filesystem::remove(errPath);
+  return run;
+}
+
+// A fresh empty folder under the temporary directory, removed with the object.
+class TempDir {
+ public:
+  explicit TempDir(const std::string& tag)
+      : path_(std::filesystem::temp_directory_path() /
+              ("calivera_" + tag + "_" + std::to_string(::getpid()))) {
+    std::filesystem::remove_all(path_);
+    std::filesystem::create_directories(path_);
+  }
+  ~TempDir() {
+    std::error_code ignored;
+    std::filesystem::remove_all(path_, ignored);
+  }
+  TempDir(const TempDir&) = delete;
+  TempDir& operator=(const TempDir&) = delete;
+  std::string file(const std::string& name) const { return (path_ / name).string(); }
+  std::string write(const std::string& name, const std::string& text) const {
+    std::ofstream(path_ / name, std::ios::binary) << text;
+    return file(name);
+  }
+
+ private:
+  std::filesystem::path path_;
+};
+
+}  // namespace calivera::testing

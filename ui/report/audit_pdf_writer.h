@@ -1,0 +1,41 @@
+#pragma once
+// Writing the audit report as PDF with Qt's own PDF engine (QPdfWriter + QPainter), from the
+// Qt-free document of core/report/audit_report.h.
+//
+// Reproducibility: Qt writes no random document id; its only varying field is the Info
+// dictionary's /CreationDate, taken from the clock. The PDF is rendered into memory and that
+// date is rewritten, with the same byte length so the cross-reference offsets stay valid, to the
+// report's own timestamp: SOURCE_DATE_EPOCH when set (reproducible-builds.org convention), else
+// the current time. The same inputs, settings and timestamp give byte-identical files.
+//
+// Integrity: the bytes go to a temporary file in the target folder that is renamed into place
+// (writeFileAtomically), so a failure leaves no partial PDF.
+
+#include <QByteArray>
+#include <string>
+
+#include "core/report/audit_report.h"
+#include "ui/report/report_layout.h"
+
+namespace calivera::ui::report {
+
+enum class PaperSize { A4, Letter };
+
+// "a4" or "letter" (case-insensitive); anything else is an InputError naming `option`.
+PaperSize parsePaperSize(const std::string& text, const std::string& option);
+
+// Renders every page in memory. Any thread; `charts` must be safe to call on it.
+QByteArray renderAuditPdf(const AuditDocument& doc, PaperSize paper, const ChartPainter& charts,
+                          long long creationTime);
+
+// Sets /CreationDate to `creationTime` (UTC) in place, keeping the byte length. Returns false
+// when the PDF holds no creation date in Qt's format.
+bool setPdfCreationDate(QByteArray& pdf, long long creationTime);
+
+// The whole path for the command line: fills in input.createdAt from reportTimestamp() when
+// empty, builds the document, records the charts, renders and writes `path` atomically. Creates
+// an offscreen QApplication when the process has none (and no display). Call on the main thread.
+// Throws InputError (bad path, SOURCE_DATE_EPOCH) or AnalysisError.
+void writeAuditReportPdf(AuditReportInput input, const std::string& path, PaperSize paper);
+
+}  // namespace calivera::ui::report
