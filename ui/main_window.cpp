@@ -11,6 +11,7 @@
 #include <QMenuBar>
 #include <QProgressBar>
 #include <QPushButton>
+#include <QScrollArea>
 #include <QShortcut>
 #include <QSortFilterProxyModel>
 #include <QSpinBox>
@@ -113,9 +114,8 @@ MainWindow::MainWindow(QWidget* parent) : QMainWindow(parent) {
   });
   connect(job_, &BackgroundJob::failed, this,
           [this](const QString& message) { showMessage(message, true); });
-  connect(job_, &BackgroundJob::cancelled, this, [this]() {
-    showMessage(tr("Cancelled. The previous results are unchanged."), false);
-  });
+  connect(job_, &BackgroundJob::cancelled, this,
+          [this]() { showMessage(tr("Cancelled. The previous results are unchanged."), false); });
 
   thresholdBar_->setThreshold(study_.analysis.threshold);
   thresholdBar_->setReasonableRange(study_.analysis.reasonableLo, study_.analysis.reasonableHi);
@@ -151,8 +151,8 @@ void MainWindow::buildMenus() {
     connect(a, &QAction::triggered, this, slot);
     return a;
   };
-  actionOpen_ = add(file, QStringLiteral("actionOpenStudy"), tr("&Open study…"),
-                    QKeySequence::Open, &MainWindow::onOpenStudy);
+  actionOpen_ = add(file, QStringLiteral("actionOpenStudy"), tr("&Open study…"), QKeySequence::Open,
+                    &MainWindow::onOpenStudy);
   recentMenu_ = file->addMenu(tr("Recent &studies"));
   recentMenu_->setObjectName(QStringLiteral("menuRecentStudies"));
   actionSave_ = file->addAction(tr("&Save study"));
@@ -167,13 +167,12 @@ void MainWindow::buildMenus() {
   actionImport_ = add(file, QStringLiteral("actionImportCohort"), tr("&Import cohort CSV…"),
                       QKeySequence(Qt::CTRL | Qt::Key_I), &MainWindow::onImportCohort);
   file->addSeparator();
-  actionExportCharts_ = add(file, QStringLiteral("actionExportCharts"),
-                            tr("&Export all charts (PNG and SVG)…"),
-                            QKeySequence(Qt::CTRL | Qt::Key_E), &MainWindow::onExportCharts);
-  actionExportTable_ = add(file, QStringLiteral("actionExportTable"),
-                           tr("Export current &table as CSV…"),
-                           QKeySequence(Qt::CTRL | Qt::SHIFT | Qt::Key_E),
-                           &MainWindow::onExportTable);
+  actionExportCharts_ =
+      add(file, QStringLiteral("actionExportCharts"), tr("&Export all charts (PNG and SVG)…"),
+          QKeySequence(Qt::CTRL | Qt::Key_E), &MainWindow::onExportCharts);
+  actionExportTable_ =
+      add(file, QStringLiteral("actionExportTable"), tr("Export current &table as CSV…"),
+          QKeySequence(Qt::CTRL | Qt::SHIFT | Qt::Key_E), &MainWindow::onExportTable);
   actionExportReport_ = add(file, QStringLiteral("actionExportReport"), tr("Export &report…"),
                             QKeySequence(Qt::CTRL | Qt::Key_P), &MainWindow::onExportReport);
   file->addSeparator();
@@ -243,15 +242,14 @@ void MainWindow::buildToolBar() {
   groups_->setRange(2, 50);
   groups_->setValue(study_.analysis.groups);
   groups_->setToolTip(tr("Number of risk groups for the calibration table and Hosmer-Lemeshow"));
-  connect(groups_, &QSpinBox::valueChanged, this,
-          [this](int g) { study_.analysis.groups = g; });
+  connect(groups_, &QSpinBox::valueChanged, this, [this](int g) { study_.analysis.groups = g; });
   apparent_ = new QCheckBox(tr("Cohort is the development data"));
   apparent_->setObjectName(QStringLiteral("apparentCheck"));
-  apparent_->setToolTip(tr("Tick when the model was developed on this very cohort: the results "
-                           "are then apparent (optimistic) performance, and Hosmer-Lemeshow uses "
-                           "g − 2 degrees of freedom"));
-  connect(apparent_, &QCheckBox::toggled, this,
-          [this](bool on) { study_.analysis.apparent = on; });
+  apparent_->setToolTip(
+      tr("Tick when the model was developed on this very cohort: the results "
+         "are then apparent (optimistic) performance, and Hosmer-Lemeshow uses "
+         "g − 2 degrees of freedom"));
+  connect(apparent_, &QCheckBox::toggled, this, [this](bool on) { study_.analysis.apparent = on; });
   bar->addWidget(groupsLabel);
   bar->addWidget(groups_);
   bar->addWidget(apparent_);
@@ -292,10 +290,15 @@ QWidget* MainWindow::buildLinkedViewsTab() {
     });
   }
   confusion_ = new ConfusionPanel;
-  confusion_->setMinimumWidth(300);
-  confusion_->setMaximumWidth(380);
+  // A scroll area gives the word-wrapped labels their full height for the panel's width.
+  auto* side = new QScrollArea;
+  side->setObjectName(QStringLiteral("confusionScroll"));
+  side->setWidget(confusion_);
+  side->setWidgetResizable(true);
+  side->setHorizontalScrollBarPolicy(Qt::ScrollBarAlwaysOff);
+  side->setFixedWidth(340);
   page->addWidget(grid);
-  page->addWidget(confusion_);
+  page->addWidget(side);
   page->setStretchFactor(0, 1);
   page->setStretchFactor(1, 0);
   return page;
@@ -328,8 +331,8 @@ QWidget* MainWindow::buildTablesTab() {
   thresholdModel_->setObjectName(QStringLiteral("thresholdTableModel"));
   hlModel_ = new RecordTableModel(this);
   hlModel_->setObjectName(QStringLiteral("hosmerLemeshowModel"));
-  thresholdTable_ = makeTableView(QStringLiteral("thresholdTable"), thresholdModel_,
-                                  &thresholdProxy_);
+  thresholdTable_ =
+      makeTableView(QStringLiteral("thresholdTable"), thresholdModel_, &thresholdProxy_);
   hlTable_ = makeTableView(QStringLiteral("hosmerLemeshowTable"), hlModel_, nullptr);
   tabs->addTab(thresholdTable_, tr("Threshold trade-offs"));
   tabs->addTab(hlTable_, tr("Calibration groups (Hosmer-Lemeshow)"));

@@ -48,7 +48,9 @@ namespace {
 constexpr int kMaxRecent = 8;
 const char* const kRecentKey = "recentStudies";
 
-QString toQ(const std::string& s) { return QString::fromStdString(s); }
+QString toQ(const std::string& s) {
+  return QString::fromStdString(s);
+}
 
 }  // namespace
 
@@ -129,13 +131,13 @@ void MainWindow::rebuildViews() {
     if (!study_.model->outcome.empty()) {
       info += tr(" — predicts %1").arg(toQ(study_.model->outcome).toHtmlEscaped());
     }
-    info += study_.modelSource == ModelSource::Fitted
-                ? tr("<br>Fitted here by %1.")
-                      .arg(study_.fit.firth ? tr("Firth's penalized likelihood")
-                                            : tr("maximum likelihood"))
-                : tr("<br>Read from %1.")
-                      .arg(study_.modelFile ? toQ(study_.modelFile->path).toHtmlEscaped()
-                                            : QString());
+    info +=
+        study_.modelSource == ModelSource::Fitted
+            ? tr("<br>Fitted here by %1.")
+                  .arg(study_.fit.firth ? tr("Firth's penalized likelihood")
+                                        : tr("maximum likelihood"))
+            : tr("<br>Read from %1.")
+                  .arg(study_.modelFile ? toQ(study_.modelFile->path).toHtmlEscaped() : QString());
     if (study_.model->development.n) {
       info += tr(" Development data: %1 patients").arg(*study_.model->development.n);
       if (study_.model->development.events) {
@@ -151,8 +153,9 @@ void MainWindow::rebuildViews() {
     modelInfo_->setText(info);
   } else {
     coefficientModel_->setTable({}, {}, {});
-    modelInfo_->setText(tr("No model yet: load a model file (Model → Load model file) or fit one "
-                           "on the cohort (Model → Fit a model)."));
+    modelInfo_->setText(
+        tr("No model yet: load a model file (Model → Load model file) or fit one "
+           "on the cohort (Model → Fit a model)."));
   }
   summary_->setHtml(summaryHtml(study_));
   predictorView_->setData(study_.model ? &*study_.model : nullptr, cohort_, study_.columnMapping,
@@ -209,9 +212,9 @@ void MainWindow::updateStatus() {
   }
   if (!studyPath_.isEmpty()) parts << tr("Study: %1").arg(QFileInfo(studyPath_).fileName());
   status_->setText(parts.join(QStringLiteral("  ·  ")));
-  setWindowTitle(studyPath_.isEmpty() ? tr("Calivera workstation")
-                                      : tr("%1 — Calivera workstation")
-                                            .arg(QFileInfo(studyPath_).fileName()));
+  setWindowTitle(studyPath_.isEmpty()
+                     ? tr("Calivera workstation")
+                     : tr("%1 — Calivera workstation").arg(QFileInfo(studyPath_).fileName()));
 }
 
 bool MainWindow::openStudy(const QString& path) {
@@ -231,11 +234,14 @@ bool MainWindow::openStudy(const QString& path) {
   const bool started = startPipeline(request, tr("Opening study"), path);
   if (started && !changed.isEmpty()) {
     // Shown after the run so the pipeline's own notes do not hide it.
-    const QString warning = changed.join('\n') +
-                            tr("\nResults are recomputed from the files as they are now.");
-    connect(job_, &BackgroundJob::finished, this, [this, warning]() {
-      showMessage(warning + (messageText().isEmpty() ? QString() : "\n" + messageText()), true);
-    }, Qt::SingleShotConnection);
+    const QString warning =
+        changed.join('\n') + tr("\nResults are recomputed from the files as they are now.");
+    connect(
+        job_, &BackgroundJob::finished, this,
+        [this, warning]() {
+          showMessage(warning + (messageText().isEmpty() ? QString() : "\n" + messageText()), true);
+        },
+        Qt::SingleShotConnection);
   }
   return started;
 }
@@ -370,8 +376,8 @@ void MainWindow::onMapVariables() {
 }
 
 void MainWindow::onOpenStudy() {
-  const QString path = QFileDialog::getOpenFileName(this, tr("Open study"), QString(),
-                                                    tr("Calivera study (*.cvstudy *.json);;All files (*)"));
+  const QString path = QFileDialog::getOpenFileName(
+      this, tr("Open study"), QString(), tr("Calivera study (*.cvstudy *.json);;All files (*)"));
   if (!path.isEmpty()) openStudy(path);
 }
 
@@ -397,9 +403,9 @@ void MainWindow::onExportCharts() {
 
 void MainWindow::onExportChart(ChartPanel* panel) {
   if (panel->linkedChart() == nullptr) return;
-  const QString path = QFileDialog::getSaveFileName(
-      this, tr("Export chart"), panel->linkedChart()->exportName() + ".png",
-      tr("PNG image (*.png)"));
+  const QString path = QFileDialog::getSaveFileName(this, tr("Export chart"),
+                                                    panel->linkedChart()->exportName() + ".png",
+                                                    tr("PNG image (*.png)"));
   if (path.isEmpty()) return;
   QString stem = path;
   if (stem.endsWith(".png", Qt::CaseInsensitive)) stem.chop(4);
@@ -431,8 +437,7 @@ QTableView* currentTable(QTabWidget* tabs, QTableView* fallback) {
 void MainWindow::onExportTable() {
   QTableView* view = currentTable(tabs_, thresholdTable_);
   const QString path = QFileDialog::getSaveFileName(this, tr("Export table as CSV"),
-                                                    view->objectName() + ".csv",
-                                                    tr("CSV (*.csv)"));
+                                                    view->objectName() + ".csv", tr("CSV (*.csv)"));
   if (path.isEmpty()) return;
   const QString error = writeTableCsv(*view->model(), path);
   if (error.isEmpty()) {

@@ -4,6 +4,8 @@
 //
 // The cohort is simulated here (a property check: the views must agree with core, whatever the
 // numbers); the sample study under resources/ is opened too when the sample data exists.
+#include "ui/main_window.h"
+
 #include <QComboBox>
 #include <QDoubleSpinBox>
 #include <QFile>
@@ -29,7 +31,6 @@
 #include "ui/charts/distribution_chart.h"
 #include "ui/charts/predictor_charts.h"
 #include "ui/charts/roc_chart.h"
-#include "ui/main_window.h"
 #include "ui/models/table_export.h"
 #include "ui/state/study_file.h"
 #include "ui/views/chart_panel.h"
@@ -88,7 +89,9 @@ Model demoModel() {
   return m;
 }
 
-std::string sha256OfFileForTest(const QString& p) { return sha256OfFile(p.toStdString()); }
+std::string sha256OfFileForTest(const QString& p) {
+  return sha256OfFile(p.toStdString());
+}
 
 void waitForJob(MainWindow& w) {
   QTRY_VERIFY_WITH_TIMEOUT(!w.job()->isRunning(), 60000);
@@ -101,7 +104,9 @@ T* child(QObject& root, const char* name) {
   return found;
 }
 
-QString text(QObject& root, const char* name) { return child<QLabel>(root, name)->text(); }
+QString text(QObject& root, const char* name) {
+  return child<QLabel>(root, name)->text();
+}
 
 }  // namespace
 
@@ -166,9 +171,9 @@ class MainWindowTest : public QObject {
     QCOMPARE(w.thresholdState().threshold(), threshold);
 
     // Core's own threshold table row (computed by validate(), not by the UI's index).
-    const auto row = std::find_if(r.thresholds.begin(), r.thresholds.end(), [&](const ThresholdRow& t) {
-      return std::abs(t.threshold - threshold) < 1e-12;
-    });
+    const auto row = std::find_if(
+        r.thresholds.begin(), r.thresholds.end(),
+        [&](const ThresholdRow& t) { return std::abs(t.threshold - threshold) < 1e-12; });
     QVERIFY(row != r.thresholds.end());
     QCOMPARE(text(w, "confusionTp"), QString::number(row->tp));
     QCOMPARE(text(w, "confusionFp"), QString::number(row->fp));
@@ -193,16 +198,19 @@ class MainWindowTest : public QObject {
 
     // Natural frequencies: core's per-1000 figures, rounded as the panel shows them.
     const QString nf = text(w, "naturalFrequencyText");
-    QVERIFY2(nf.contains(QString("%1 are flagged").arg(std::lround(row->flaggedPer1000))), qPrintable(nf));
-    QVERIFY(nf.contains(QString("%1 events are caught").arg(std::lround(row->eventsCaughtPer1000))));
-    QVERIFY(nf.contains(QString("%1 events are missed").arg(std::lround(row->eventsMissedPer1000))));
-    QVERIFY(nf.contains(QString("%1 are flagged without").arg(std::lround(row->flaggedWithoutEventPer1000))));
+    QVERIFY2(nf.contains(QString("%1 are flagged").arg(std::lround(row->flaggedPer1000))),
+             qPrintable(nf));
+    QVERIFY(
+        nf.contains(QString("%1 events are caught").arg(std::lround(row->eventsCaughtPer1000))));
+    QVERIFY(
+        nf.contains(QString("%1 events are missed").arg(std::lround(row->eventsMissedPer1000))));
+    QVERIFY(nf.contains(
+        QString("%1 are flagged without").arg(std::lround(row->flaggedWithoutEventPer1000))));
 
     // Net benefit: core's decision curve at the same threshold.
-    const auto dc = std::find_if(r.decisionCurve.begin(), r.decisionCurve.end(),
-                                 [&](const DecisionCurvePoint& p) {
-                                   return std::abs(p.threshold - threshold) < 1e-12;
-                                 });
+    const auto dc = std::find_if(
+        r.decisionCurve.begin(), r.decisionCurve.end(),
+        [&](const DecisionCurvePoint& p) { return std::abs(p.threshold - threshold) < 1e-12; });
     QVERIFY(dc != r.decisionCurve.end());
     QVERIFY(text(w, "netBenefitText").contains(QString::number(dc->netBenefit, 'f', 4)));
 
@@ -262,8 +270,10 @@ class MainWindowTest : public QObject {
              qPrintable(QString::number(w.thresholdState().threshold())));
     auto* rocPanel = child<ChartPanel>(w, "rocView");
     auto* roc = dynamic_cast<charts::RocChart*>(rocPanel->linkedChart());
-    const RocPoint& p = w.study().result->discrimination.roc[w.study().result->discrimination.roc.size() / 2];
-    const QPoint rocPos = rocPanel->mapFromScene(roc->mapToPosition(QPointF(p.fpr, p.tpr), roc->series().last()));
+    const RocPoint& p =
+        w.study().result->discrimination.roc[w.study().result->discrimination.roc.size() / 2];
+    const QPoint rocPos =
+        rocPanel->mapFromScene(roc->mapToPosition(QPointF(p.fpr, p.tpr), roc->series().last()));
     QTest::mouseClick(rocPanel->viewport(), Qt::LeftButton, {}, rocPos);
     // The nearest ROC point to the click may be a neighbour of p on screen; its threshold is close.
     QVERIFY(std::abs(w.thresholdState().threshold() - std::clamp(p.threshold, 0.0, 1.0)) < 0.05);

@@ -16,12 +16,19 @@ namespace calivera::ui::charts {
 
 namespace {
 
-QString q(const std::string& s) { return QString::fromStdString(s); }
+QString q(const std::string& s) {
+  return QString::fromStdString(s);
+}
 
 // Pads a data range by 3% on both sides so points on the edge stay visible.
 std::pair<double, double> padded(double lo, double hi) {
   const double pad = hi > lo ? (hi - lo) * 0.03 : 1.0;
   return {lo - pad, hi + pad};
+}
+
+QString axisTitle(const std::string& variable, const std::string& unit) {
+  return unit.empty() ? q(variable) + QStringLiteral(" (as in the cohort file)")
+                      : QStringLiteral("%1 (%2)").arg(q(variable), q(unit));
 }
 
 QLineSeries* thresholdLine(const QString& name) {
@@ -38,16 +45,17 @@ RiskCurveChart::RiskCurveChart(RiskCurveData data) : data_(std::move(data)) {
   double top = 0.05;
   for (double r : data_.risk) top = std::max(top, r);
   yMax_ = std::min(1.0, std::ceil(top * 1.1 * 20.0) / 20.0);
-  const auto [xLo, xHi] = data_.x.empty() ? std::pair{0.0, 1.0}
-                                          : padded(data_.x.front(), data_.x.back());
-  auto* x = makeAxis(q(data_.variable) + QStringLiteral(" (cohort units)"), xLo, xHi, "%.3g", 6);
-  auto* y = makeAxis(QStringLiteral("Predicted risk (probability)"), 0, yMax_, "%.2f", 6);
+  const auto [xLo, xHi] =
+      data_.x.empty() ? std::pair{0.0, 1.0} : padded(data_.x.front(), data_.x.back());
+  auto* x = makeAxis(axisTitle(data_.variable, data_.unit), xLo, xHi, "%g", 6);
+  auto* y = makeAxis(QStringLiteral("Predicted risk (0–1)"), 0, yMax_, "%.2f", 6);
+  x->applyNiceNumbers();
   addAxis(x, Qt::AlignBottom);
   addAxis(y, Qt::AlignLeft);
   auto attach = [&](QAbstractSeries* s) { addOnAxes(this, s, x, y); };
 
   auto* rug = new QScatterSeries;
-  rug->setName(QStringLiteral("Cohort values (rug)"));
+  rug->setName(QStringLiteral("Cohort values"));
   QImage tick(3, 14, QImage::Format_ARGB32);
   tick.fill(QColor(0, 0, 0, 110));
   rug->setLightMarker(tick);
@@ -58,7 +66,7 @@ RiskCurveChart::RiskCurveChart(RiskCurveData data) : data_(std::move(data)) {
   attach(rug);
 
   auto* curve = new QLineSeries;
-  curve->setName(QStringLiteral("Model (other predictors held: %1)").arg(q(data_.heldText)));
+  curve->setName(QStringLiteral("Model"));
   curve->setPen(rolePen(SeriesRole::Model));
   QList<QPointF> pts;
   for (std::size_t i = 0; i < data_.x.size(); ++i) pts.append(QPointF(data_.x[i], data_.risk[i]));
@@ -72,7 +80,7 @@ RiskCurveChart::RiskCurveChart(RiskCurveData data) : data_(std::move(data)) {
     QPen pen = rolePen(SeriesRole::Threshold);
     pen.setStyle(Qt::DashLine);
     cut->setPen(pen);
-    cut->setName(QStringLiteral("Cut point (risk = threshold)"));
+    cut->setName(QStringLiteral("Cut point"));
     attach(cut);
     if (k > 0) hideFromLegend(this, cut);
     cutLines_.push_back(cut);
@@ -104,8 +112,9 @@ QString RiskCurveChart::describeAt(QPointF value) const {
   const std::size_t i = std::min<std::size_t>(it - data_.x.begin(), data_.x.size() - 1);
   QString cuts;
   for (double c : cuts_) cuts += (cuts.isEmpty() ? "" : ", ") + QString::number(c, 'g', 5);
-  return QStringLiteral("%1 = %2: predicted risk %3\nCut point(s) at the threshold: %4\n"
-                        "(click to use the risk under the mouse as threshold)")
+  return QStringLiteral(
+             "%1 = %2: predicted risk %3\nCut point(s) at the threshold: %4\n"
+             "(click to use the risk under the mouse as threshold)")
       .arg(q(data_.variable), QString::number(data_.x[i], 'g', 5), fixed(data_.risk[i], 4),
            cuts.isEmpty() ? QStringLiteral("none in range") : cuts);
 }
@@ -113,21 +122,24 @@ QString RiskCurveChart::describeAt(QPointF value) const {
 BoundaryChart::BoundaryChart(BoundaryData data) : data_(std::move(data)) {
   applyChartStyle(this, QStringLiteral("Where predicted risk equals the threshold: %1 and %2")
                             .arg(q(data_.xVariable), q(data_.yVariable)));
-  const auto [xLo, xHi] = data_.xs.empty() ? std::pair{0.0, 1.0}
-                                           : padded(data_.xs.front(), data_.xs.back());
-  const auto [yLo, yHi] = data_.ys.empty() ? std::pair{0.0, 1.0}
-                                           : padded(data_.ys.front(), data_.ys.back());
-  auto* x = makeAxis(q(data_.xVariable) + QStringLiteral(" (cohort units)"), xLo, xHi, "%.3g", 6);
-  auto* y = makeAxis(q(data_.yVariable) + QStringLiteral(" (cohort units)"), yLo, yHi, "%.3g", 6);
+  const auto [xLo, xHi] =
+      data_.xs.empty() ? std::pair{0.0, 1.0} : padded(data_.xs.front(), data_.xs.back());
+  const auto [yLo, yHi] =
+      data_.ys.empty() ? std::pair{0.0, 1.0} : padded(data_.ys.front(), data_.ys.back());
+  auto* x = makeAxis(axisTitle(data_.xVariable, data_.xUnit), xLo, xHi, "%g", 6);
+  auto* y = makeAxis(axisTitle(data_.yVariable, data_.yUnit), yLo, yHi, "%g", 6);
+  x->applyNiceNumbers();
   addAxis(x, Qt::AlignBottom);
+  y->applyNiceNumbers();
   addAxis(y, Qt::AlignLeft);
   auto attach = [&](QAbstractSeries* s) { addOnAxes(this, s, x, y); };
 
-  const QString thinned = data_.patientStride > 1
-                              ? QStringLiteral(", every %1th patient shown").arg(data_.patientStride)
-                              : QString();
+  const QString thinned =
+      data_.patientStride > 1
+          ? QStringLiteral(", every %1th patient shown").arg(data_.patientStride)
+          : QString();
   auto* without = new QScatterSeries;
-  without->setName(QStringLiteral("Without the event (circles%1)").arg(thinned));
+  without->setName(QStringLiteral("No event (circles%1)").arg(thinned));
   without->setMarkerShape(QScatterSeries::MarkerShapeCircle);
   without->setMarkerSize(6);
   QColor blue = roleColor(SeriesRole::NonEvents);
@@ -135,7 +147,7 @@ BoundaryChart::BoundaryChart(BoundaryData data) : data_(std::move(data)) {
   without->setColor(blue);
   without->setBorderColor(blue.darker(140));
   auto* with = new QScatterSeries;
-  with->setName(QStringLiteral("With the event (triangles)"));
+  with->setName(QStringLiteral("Event (triangles)"));
   with->setMarkerShape(QScatterSeries::MarkerShapeTriangle);
   with->setMarkerSize(9);
   with->setColor(roleColor(SeriesRole::Events));
@@ -152,7 +164,7 @@ BoundaryChart::BoundaryChart(BoundaryData data) : data_(std::move(data)) {
     QPen pen = rolePen(SeriesRole::Threshold);
     pen.setWidthF(3.0);
     piece->setPen(pen);
-    piece->setName(QStringLiteral("Risk = threshold (flagged on the higher-risk side)"));
+    piece->setName(QStringLiteral("Risk = threshold"));
     attach(piece);
     if (k > 0) hideFromLegend(this, piece);
     pieces_.push_back(piece);
@@ -191,8 +203,9 @@ std::optional<double> BoundaryChart::thresholdAt(QPointF value) const {
 QString BoundaryChart::describeAt(QPointF value) const {
   const double r = riskAt(value);
   if (std::isnan(r)) return {};
-  return QStringLiteral("%1 = %2, %3 = %4\nPredicted risk %5 (others held: %6)\n"
-                        "(click to make this risk the threshold)")
+  return QStringLiteral(
+             "%1 = %2, %3 = %4\nPredicted risk %5 (others held: %6)\n"
+             "(click to make this risk the threshold)")
       .arg(q(data_.xVariable), QString::number(value.x(), 'g', 5), q(data_.yVariable),
            QString::number(value.y(), 'g', 5), fixed(r, 4), q(data_.heldText));
 }

@@ -26,8 +26,9 @@ FitDialog::FitDialog(std::shared_ptr<const Table> table, ImportSettings import,
   auto* layout = new QHBoxLayout(this);
 
   auto* left = new QVBoxLayout;
-  auto* pick = new QLabel(tr("Predictors (text columns enter as indicators of each level "
-                             "against the first):"));
+  auto* pick =
+      new QLabel(tr("Predictors (text columns enter as indicators of each level "
+                    "against the first):"));
   pick->setObjectName(QStringLiteral("fitPredictorsLabel"));
   pick->setWordWrap(true);
   left->addWidget(pick);

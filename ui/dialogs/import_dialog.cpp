@@ -107,8 +107,8 @@ ImportDialog::ImportDialog(QWidget* parent) : QDialog(parent) {
   connect(buttons_, &QDialogButtonBox::rejected, this, &QDialog::reject);
 
   connect(browse, &QPushButton::clicked, this, [this]() {
-    const QString p = QFileDialog::getOpenFileName(this, tr("Cohort CSV"), path_->text(),
-                                                   tr("CSV files (*.csv *.tsv *.txt);;All files (*)"));
+    const QString p = QFileDialog::getOpenFileName(
+        this, tr("Cohort CSV"), path_->text(), tr("CSV files (*.csv *.tsv *.txt);;All files (*)"));
     if (!p.isEmpty()) setPath(p);
   });
   connect(path_, &QLineEdit::editingFinished, this, &ImportDialog::refresh);
@@ -157,7 +157,9 @@ void ImportDialog::setPath(const QString& path) {
   refresh();
 }
 
-QString ImportDialog::path() const { return path_->text().trimmed(); }
+QString ImportDialog::path() const {
+  return path_->text().trimmed();
+}
 
 ImportSettings ImportDialog::settings() const {
   ImportSettings s;
@@ -172,7 +174,9 @@ ImportSettings ImportDialog::settings() const {
   return s;
 }
 
-QString ImportDialog::summaryText() const { return summary_->text(); }
+QString ImportDialog::summaryText() const {
+  return summary_->text();
+}
 
 void ImportDialog::refresh() {
   refreshPreview();
@@ -203,9 +207,9 @@ void ImportDialog::refreshPreview() {
     preview_->setRowCount(rows);
     QStringList headers;
     for (const Column& c : t.columns) {
-      headers << QStringLiteral("%1\n(%2)").arg(QString::fromStdString(c.name),
-                                               c.kind == ColumnKind::Numeric ? tr("number")
-                                                                             : tr("text"));
+      headers << QStringLiteral("%1\n(%2)")
+                     .arg(QString::fromStdString(c.name),
+                          c.kind == ColumnKind::Numeric ? tr("number") : tr("text"));
     }
     preview_->setHorizontalHeaderLabels(headers);
     for (int row = 0; row < rows; ++row) {
@@ -283,7 +287,8 @@ void ImportDialog::refreshOutcomeChoices() {
 void ImportDialog::refreshSummary() {
   pendingEvent_ = eventValue_->currentIndex() > 0 ? eventValue_->currentText() : QString();
   if (table_ == nullptr) return;
-  QString text = tr("<b>%1 rows, %2 columns read.</b>").arg(table_->rowCount).arg(table_->columns.size());
+  QString text =
+      tr("<b>%1 rows, %2 columns read.</b>").arg(table_->rowCount).arg(table_->columns.size());
   const ImportSettings s = settings();
   const bool ok = !s.outcomeColumn.empty();
   buttons_->button(QDialogButtonBox::Ok)->setEnabled(ok);
@@ -301,7 +306,8 @@ void ImportDialog::refreshSummary() {
                 .arg(QString::fromStdString(s.outcomeColumn))
                 .arg(events)
                 .arg(y.size());
-    text += tr("<br><b>Excluded:</b> %1 rows without a recorded outcome.").arg(rows.exclusions.rowsExcluded);
+    text += tr("<br><b>Excluded:</b> %1 rows without a recorded outcome.")
+                .arg(rows.exclusions.rowsExcluded);
     QStringList missing;
     for (const Column& c : table_->columns) {
       if (c.missingCount > 0 && c.name != s.outcomeColumn) {

@@ -47,8 +47,9 @@ MappingDialog::MappingDialog(const Model& model, const Table& table,
   setObjectName(QStringLiteral("mappingDialog"));
   setWindowTitle(tr("Map model variables to cohort columns"));
   auto* layout = new QVBoxLayout(this);
-  auto* intro = new QLabel(tr("Each variable the model uses needs a cohort column holding the same "
-                              "quantity, in the unit the model expects."));
+  auto* intro =
+      new QLabel(tr("Each variable the model uses needs a cohort column holding the same "
+                    "quantity, in the unit the model expects."));
   intro->setObjectName(QStringLiteral("mappingIntro"));
   intro->setWordWrap(true);
   layout->addWidget(intro);
@@ -60,7 +61,8 @@ MappingDialog::MappingDialog(const Model& model, const Table& table,
   for (int row = 0; row < static_cast<int>(variables_.size()); ++row) {
     const std::string& v = variables_[static_cast<std::size_t>(row)];
     grid_->setItem(row, 0, new QTableWidgetItem(QString::fromStdString(v)));
-    grid_->setItem(row, 1, new QTableWidgetItem(QString::fromStdString(unitOf(model, v).value_or("—"))));
+    grid_->setItem(row, 1,
+                   new QTableWidgetItem(QString::fromStdString(unitOf(model, v).value_or("—"))));
     auto* combo = new QComboBox;
     combo->setObjectName(QStringLiteral("mappingColumn_%1").arg(QString::fromStdString(v)));
     combo->addItem(tr("(choose a column)"));
@@ -114,7 +116,8 @@ void MappingDialog::refreshChecks() {
   if (unpaired > 0) note += tr("%1 variable(s) not paired yet. ").arg(unpaired);
   if (mismatched > 0) {
     note += tr("%1 unit mismatch(es): the validation would be wrong unless the column is "
-               "converted first.").arg(mismatched);
+               "converted first.")
+                .arg(mismatched);
   }
   note_->setText(note.isEmpty() ? tr("All variables paired; no unit conflict found.") : note);
 }

@@ -21,14 +21,18 @@ int RecordTableModel::columnCount(const QModelIndex& parent) const {
 
 QVariant RecordTableModel::data(const QModelIndex& index, int role) const {
   if (!index.isValid() || index.row() >= rowCount() || index.column() >= columnCount()) return {};
-  const TableCell& c = rows_[static_cast<std::size_t>(index.row())][static_cast<std::size_t>(index.column())];
+  const TableCell& c =
+      rows_[static_cast<std::size_t>(index.row())][static_cast<std::size_t>(index.column())];
   switch (role) {
-    case Qt::DisplayRole: return c.text;
-    case kSortRole: return c.sortKey;
+    case Qt::DisplayRole:
+      return c.text;
+    case kSortRole:
+      return c.sortKey;
     case Qt::TextAlignmentRole:
       return index.column() == 0 ? QVariant(Qt::AlignLeft | Qt::AlignVCenter)
                                  : QVariant(Qt::AlignRight | Qt::AlignVCenter);
-    default: return {};
+    default:
+      return {};
   }
 }
 

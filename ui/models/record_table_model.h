@@ -22,7 +22,8 @@ class RecordTableModel : public QAbstractTableModel {
 
   explicit RecordTableModel(QObject* parent = nullptr) : QAbstractTableModel(parent) {}
 
-  void setTable(QStringList headers, QStringList headerTips, std::vector<std::vector<TableCell>> rows);
+  void setTable(QStringList headers, QStringList headerTips,
+                std::vector<std::vector<TableCell>> rows);
 
   int rowCount(const QModelIndex& parent = {}) const override;
   int columnCount(const QModelIndex& parent = {}) const override;

@@ -15,7 +15,9 @@ constexpr double kZ95 = 1.959963984540054;
 TableCell number(double v, int decimals) {
   return {fixed(v, decimals), std::isnan(v) ? -std::numeric_limits<double>::infinity() : v};
 }
-TableCell count(std::size_t v) { return {QString::number(v), static_cast<double>(v)}; }
+TableCell count(std::size_t v) {
+  return {QString::number(v), static_cast<double>(v)};
+}
 TableCell interval(const Interval& ci, int decimals) {
   return {QStringLiteral("%1 to %2").arg(fixed(ci.lo, decimals), fixed(ci.hi, decimals)), ci.lo};
 }
@@ -24,17 +26,25 @@ TableCell interval(const Interval& ci, int decimals) {
 
 void fillThresholdTable(RecordTableModel& model, const std::vector<ThresholdRow>& rows,
                         const std::vector<DecisionCurvePoint>& decisionCurve) {
-  const QStringList headers = {
-      QStringLiteral("Threshold"),    QStringLiteral("Flagged"),
-      QStringLiteral("TP"),           QStringLiteral("FP"),
-      QStringLiteral("TN"),           QStringLiteral("FN"),
-      QStringLiteral("Sensitivity"),  QStringLiteral("Sensitivity 95% CI"),
-      QStringLiteral("Specificity"),  QStringLiteral("Specificity 95% CI"),
-      QStringLiteral("PPV"),          QStringLiteral("PPV 95% CI"),
-      QStringLiteral("NPV"),          QStringLiteral("NPV 95% CI"),
-      QStringLiteral("Net benefit"),  QStringLiteral("Flagged per 1000"),
-      QStringLiteral("Events caught per 1000"), QStringLiteral("Events missed per 1000"),
-      QStringLiteral("Flagged without event per 1000")};
+  const QStringList headers = {QStringLiteral("Threshold"),
+                               QStringLiteral("Flagged"),
+                               QStringLiteral("TP"),
+                               QStringLiteral("FP"),
+                               QStringLiteral("TN"),
+                               QStringLiteral("FN"),
+                               QStringLiteral("Sensitivity"),
+                               QStringLiteral("Sensitivity 95% CI"),
+                               QStringLiteral("Specificity"),
+                               QStringLiteral("Specificity 95% CI"),
+                               QStringLiteral("PPV"),
+                               QStringLiteral("PPV 95% CI"),
+                               QStringLiteral("NPV"),
+                               QStringLiteral("NPV 95% CI"),
+                               QStringLiteral("Net benefit"),
+                               QStringLiteral("Flagged per 1000"),
+                               QStringLiteral("Events caught per 1000"),
+                               QStringLiteral("Events missed per 1000"),
+                               QStringLiteral("Flagged without event per 1000")};
   const QStringList tips = {
       QStringLiteral("Patients with predicted risk at or above this value are flagged"),
       QStringLiteral("Number of patients flagged"),
@@ -51,7 +61,10 @@ void fillThresholdTable(RecordTableModel& model, const std::vector<ThresholdRow>
       QStringLiteral("Negative predictive value: share of unflagged patients without the event"),
       QStringLiteral("Wilson score 95% interval"),
       QStringLiteral("Net benefit (Vickers & Elkin 2006): TP/n − FP/n × t/(1 − t)"),
-      QString(), QString(), QString(), QString()};
+      QString(),
+      QString(),
+      QString(),
+      QString()};
   std::vector<std::vector<TableCell>> cells;
   cells.reserve(rows.size());
   for (std::size_t i = 0; i < rows.size(); ++i) {
@@ -72,16 +85,21 @@ void fillThresholdTable(RecordTableModel& model, const std::vector<ThresholdRow>
 }
 
 void fillHosmerLemeshowTable(RecordTableModel& model, const HosmerLemeshow& hl) {
-  const QStringList headers = {QStringLiteral("Risk group"),        QStringLiteral("Patients"),
-                               QStringLiteral("Lowest risk"),       QStringLiteral("Highest risk"),
-                               QStringLiteral("Mean predicted risk"),
-                               QStringLiteral("Expected events"),   QStringLiteral("Observed events"),
-                               QStringLiteral("Observed proportion"),
-                               QStringLiteral("Observed 95% CI")};
+  const QStringList headers = {
+      QStringLiteral("Risk group"),          QStringLiteral("Patients"),
+      QStringLiteral("Lowest risk"),         QStringLiteral("Highest risk"),
+      QStringLiteral("Mean predicted risk"), QStringLiteral("Expected events"),
+      QStringLiteral("Observed events"),     QStringLiteral("Observed proportion"),
+      QStringLiteral("Observed 95% CI")};
   const QStringList tips = {QStringLiteral("Groups of patients by quantiles of predicted risk"),
-                            QString(), QString(), QString(), QString(),
-                            QStringLiteral("Sum of predicted risks in the group"), QString(),
-                            QString(), QStringLiteral("Wilson score 95% interval")};
+                            QString(),
+                            QString(),
+                            QString(),
+                            QString(),
+                            QStringLiteral("Sum of predicted risks in the group"),
+                            QString(),
+                            QString(),
+                            QStringLiteral("Wilson score 95% interval")};
   std::vector<std::vector<TableCell>> cells;
   for (std::size_t g = 0; g < hl.groups.size(); ++g) {
     const CalibrationGroup& c = hl.groups[g];
@@ -93,16 +111,18 @@ void fillHosmerLemeshowTable(RecordTableModel& model, const HosmerLemeshow& hl) 
 }
 
 void fillCoefficientTable(RecordTableModel& model, const Model& riskModel) {
-  const QStringList headers = {QStringLiteral("Term"),        QStringLiteral("Coefficient"),
-                               QStringLiteral("SE"),          QStringLiteral("95% CI lower"),
+  const QStringList headers = {QStringLiteral("Term"),         QStringLiteral("Coefficient"),
+                               QStringLiteral("SE"),           QStringLiteral("95% CI lower"),
                                QStringLiteral("95% CI upper"), QStringLiteral("Odds ratio"),
                                QStringLiteral("Unit expected")};
   const QStringList tips = {
-      QString(), QStringLiteral("Log odds ratio per unit of the term"),
+      QString(),
+      QStringLiteral("Log odds ratio per unit of the term"),
       QStringLiteral("Standard error, when the model file or the fit provides it"),
       QStringLiteral("Wald interval: coefficient − 1.96 SE"),
       QStringLiteral("Wald interval: coefficient + 1.96 SE"),
-      QStringLiteral("exp(coefficient)"), QStringLiteral("Unit the model expects, when stated")};
+      QStringLiteral("exp(coefficient)"),
+      QStringLiteral("Unit the model expects, when stated")};
   auto row = [](const QString& name, const Estimate& e, const QString& unit) {
     const double se = e.se.value_or(std::numeric_limits<double>::quiet_NaN());
     return std::vector<TableCell>{{name, 0.0},

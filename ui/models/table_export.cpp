@@ -19,7 +19,9 @@ QString csvField(QString text) {
 QString joined(const QAbstractItemModel& model, const std::vector<int>& rows, QChar separator,
                bool quote) {
   QString out;
-  auto field = [&](const QString& s) { return quote ? csvField(s) : QString(s).replace(separator, ' '); };
+  auto field = [&](const QString& s) {
+    return quote ? csvField(s) : QString(s).replace(separator, ' ');
+  };
   const int columns = model.columnCount();
   for (int c = 0; c < columns; ++c) {
     if (c > 0) out += separator;
@@ -43,7 +45,9 @@ QString joined(const QAbstractItemModel& model, const std::vector<int>& rows, QC
 
 }  // namespace
 
-QString tableToCsv(const QAbstractItemModel& model) { return joined(model, {}, ',', true); }
+QString tableToCsv(const QAbstractItemModel& model) {
+  return joined(model, {}, ',', true);
+}
 
 QString tableToTsv(const QAbstractItemModel& model, const std::vector<int>& rows) {
   return joined(model, rows, '\t', false);

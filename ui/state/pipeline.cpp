@@ -44,7 +44,9 @@ PipelineOutput runPipeline(const PipelineRequest& request, const ProgressCallbac
   reportProgress(progress, 0.2);
 
   switch (s.modelSource) {
-    case ModelSource::None: s.model.reset(); break;
+    case ModelSource::None:
+      s.model.reset();
+      break;
     case ModelSource::File: {
       if (!s.modelFile) throw InputError("no model file is chosen");
       s.model = readModelFile(s.modelFile->path);
@@ -82,9 +84,8 @@ PipelineOutput runPipeline(const PipelineRequest& request, const ProgressCallbac
                         list + ". Pair them with cohort columns (Model → Map variables).");
     return out;
   }
-  AnalysisOutput analysis = runAnalysis(out.table, *s.model, s, [&](double f) {
-    return progress ? progress(0.4 + 0.6 * f) : true;
-  });
+  AnalysisOutput analysis = runAnalysis(
+      out.table, *s.model, s, [&](double f) { return progress ? progress(0.4 + 0.6 * f) : true; });
   s.exclusions = analysis.exclusions;
   s.result = analysis.result;
   out.cohort = analysis.cohort;

@@ -16,15 +16,15 @@
 namespace calivera::ui {
 
 struct PipelineRequest {
-  StudyState study;                          // inputs and settings to use
-  std::shared_ptr<const Table> table;        // reuse when it matches study.data; else read
-  bool refit = false;                        // Fitted source: fit again even if study.model is set
+  StudyState study;                    // inputs and settings to use
+  std::shared_ptr<const Table> table;  // reuse when it matches study.data; else read
+  bool refit = false;                  // Fitted source: fit again even if study.model is set
 };
 
 struct PipelineOutput {
   StudyState study;  // as requested, with records, model, exclusions and result filled in
   std::shared_ptr<const Table> table;
-  std::shared_ptr<const CohortData> cohort;  // null when no validation could run yet
+  std::shared_ptr<const CohortData> cohort;    // null when no validation could run yet
   std::vector<std::string> unmappedVariables;  // model variables the cohort lacks
   std::vector<std::string> notes;              // why no validation ran, when it did not
 };

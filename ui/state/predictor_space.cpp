@@ -23,6 +23,14 @@ std::string columnFor(const Model& m, const std::string& variable) {
   return it == m.columnMapping.end() ? variable : it->second;
 }
 
+std::string unitOf(const Term& t, const std::string& variable) {
+  if (t.variable == variable && t.unit) return *t.unit;
+  for (const Term& f : t.factors) {
+    if (std::string u = unitOf(f, variable); !u.empty()) return u;
+  }
+  return {};
+}
+
 void indicatorLevels(const Term& t, const std::string& variable, std::set<std::string>& out) {
   if (t.kind == TransformKind::Indicator && t.variable == variable) out.insert(t.level);
   for (const Term& f : t.factors) indicatorLevels(f, variable, out);
@@ -133,6 +141,9 @@ std::vector<PredictorInfo> describePredictors(const Model& model,
     const Column* c = cohort.table->find(p.column);
     if (c == nullptr) continue;
     p.numeric = c->kind == ColumnKind::Numeric;
+    for (const Term& t : m.terms) {
+      if (p.unit.empty()) p.unit = unitOf(t, variable);
+    }
     if (p.numeric) {
       std::vector<double> values;
       values.reserve(cohort.rows.size());
@@ -177,6 +188,7 @@ RiskCurveData riskCurve(const Model& model, const std::map<std::string, std::str
   const Model m = mappedModel(model, mapping);
   RiskCurveData out;
   out.variable = variable;
+  out.unit = p.unit;
   out.x = gridBetween(p.lo, p.hi, points);
   Table t = syntheticTable(cohort, predictors, held, out.x.size());
   columnNamed(t, p.column).numbers = out.x;
@@ -210,6 +222,8 @@ BoundaryData riskSurface(const Model& model, const std::map<std::string, std::st
   BoundaryData out;
   out.xVariable = xVariable;
   out.yVariable = yVariable;
+  out.xUnit = px.unit;
+  out.yUnit = py.unit;
   out.xs = gridBetween(px.lo, px.hi, gridPoints);
   out.ys = gridBetween(py.lo, py.hi, gridPoints);
   const std::size_t n = out.xs.size() * out.ys.size();
@@ -227,7 +241,8 @@ BoundaryData riskSurface(const Model& model, const std::map<std::string, std::st
 
   const Column& cx = *cohort.table->find(px.column);
   const Column& cy = *cohort.table->find(py.column);
-  out.patientStride = std::max<std::size_t>(1, (cohort.rows.size() + kMaxPatients - 1) / kMaxPatients);
+  out.patientStride =
+      std::max<std::size_t>(1, (cohort.rows.size() + kMaxPatients - 1) / kMaxPatients);
   for (std::size_t k = 0; k < cohort.rows.size(); k += out.patientStride) {
     const std::uint32_t r = cohort.rows[k];
     out.patients.push_back({cx.numbers[r], cy.numbers[r], cohort.outcome[k] > 0.5});
@@ -269,7 +284,8 @@ std::vector<Polyline> contourAt(const BoundaryData& s, double level) {
         segments.emplace_back(cut[0], cut[1]);
       } else if (cut.size() == 4) {
         // Saddle: pair the edges around the corners that are on the same side as the centre.
-        const double centre = (value(i, j) + value(i + 1, j) + value(i + 1, j + 1) + value(i, j + 1)) / 4;
+        const double centre =
+            (value(i, j) + value(i + 1, j) + value(i + 1, j + 1) + value(i, j + 1)) / 4;
         if ((centre >= level) == a) {
           segments.emplace_back(cut[0], cut[1]);
           segments.emplace_back(cut[2], cut[3]);

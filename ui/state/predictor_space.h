@@ -28,6 +28,7 @@ struct PredictorInfo {
   double lo = 0.0, hi = 0.0, median = 0.0;  // numeric: over the analysed rows
   std::vector<std::string> levels;          // text
   std::string defaultValue;                 // as text
+  std::string unit;                         // as the model file states it, else empty
 };
 
 // One entry per model variable; empty when the model or cohort is missing.
@@ -37,6 +38,7 @@ std::vector<PredictorInfo> describePredictors(const Model& model,
 
 struct RiskCurveData {
   std::string variable;
+  std::string unit;
   std::vector<double> x, risk;  // ascending x
   std::vector<double> rug;      // cohort values (at most kMaxRug, evenly spaced quantiles)
   std::string heldText;         // "age = 64, sex = female"
@@ -49,8 +51,9 @@ struct BoundaryPatient {
 
 struct BoundaryData {
   std::string xVariable, yVariable;
-  std::vector<double> xs, ys;   // grid coordinates, ascending
-  std::vector<double> risk;     // risk[j * xs.size() + i] at (xs[i], ys[j])
+  std::string xUnit, yUnit;
+  std::vector<double> xs, ys;             // grid coordinates, ascending
+  std::vector<double> risk;               // risk[j * xs.size() + i] at (xs[i], ys[j])
   std::vector<BoundaryPatient> patients;  // thinned to at most kMaxPatients
   std::size_t patientStride = 1;          // every k-th analysed patient is shown
   std::string heldText;

@@ -12,7 +12,9 @@ std::string format(const char* pattern, double a, double b = 0.0, double c = 0.0
   return buffer;
 }
 
-bool covers(const Interval& ci, double value) { return ci.lo <= value && value <= ci.hi; }
+bool covers(const Interval& ci, double value) {
+  return ci.lo <= value && value <= ci.hi;
+}
 
 }  // namespace
 
@@ -23,14 +25,16 @@ HierarchyReading readCalibrationHierarchy(const Calibration& c) {
   r.level = r.weakMet ? "weak" : (r.meanMet ? "mean" : "none");
   std::string text;
   if (r.meanMet) {
-    text = format("Mean calibration: reached. The calibration intercept %.2f (95%% CI %.2f to "
-                  "%.2f) is compatible with 0, so on average the predicted risks match the "
-                  "observed event rate. ",
-                  c.intercept, c.interceptCi.lo, c.interceptCi.hi);
+    text = format(
+        "Mean calibration: reached. The calibration intercept %.2f (95%% CI %.2f to "
+        "%.2f) is compatible with 0, so on average the predicted risks match the "
+        "observed event rate. ",
+        c.intercept, c.interceptCi.lo, c.interceptCi.hi);
   } else {
-    text = format("Mean calibration: not reached. The calibration intercept is %.2f (95%% CI %.2f "
-                  "to %.2f); ",
-                  c.intercept, c.interceptCi.lo, c.interceptCi.hi) +
+    text = format(
+               "Mean calibration: not reached. The calibration intercept is %.2f (95%% CI %.2f "
+               "to %.2f); ",
+               c.intercept, c.interceptCi.lo, c.interceptCi.hi) +
            (c.intercept < 0 ? "the model predicts too high risks on average in this cohort. "
                             : "the model predicts too low risks on average in this cohort. ");
   }
@@ -39,19 +43,22 @@ HierarchyReading readCalibrationHierarchy(const Calibration& c) {
                    c.slope, c.slopeCi.lo, c.slopeCi.hi) +
             (r.meanMet ? ", so weak calibration is reached. " : ". ");
   } else if (c.slope < 1.0) {
-    text += format("The calibration slope %.2f (95%% CI %.2f to %.2f) is below 1: predictions "
-                   "are too extreme (high risks too high, low risks too low), typical of an "
-                   "overfitted model. ",
-                   c.slope, c.slopeCi.lo, c.slopeCi.hi);
+    text += format(
+        "The calibration slope %.2f (95%% CI %.2f to %.2f) is below 1: predictions "
+        "are too extreme (high risks too high, low risks too low), typical of an "
+        "overfitted model. ",
+        c.slope, c.slopeCi.lo, c.slopeCi.hi);
   } else {
-    text += format("The calibration slope %.2f (95%% CI %.2f to %.2f) is above 1: predictions "
-                   "are too modest (they vary less than the observed risks). ",
-                   c.slope, c.slopeCi.lo, c.slopeCi.hi);
+    text += format(
+        "The calibration slope %.2f (95%% CI %.2f to %.2f) is above 1: predictions "
+        "are too modest (they vary less than the observed risks). ",
+        c.slope, c.slopeCi.lo, c.slopeCi.hi);
   }
-  text += format("Moderate calibration is judged from the smoothed curve: on average it lies "
-                 "%.3f from the ideal line (ICI), at most %.3f for 90%% of patients (E90). "
-                 "Strong calibration (within every combination of predictors) is not assessable.",
-                 c.ici, c.e90);
+  text += format(
+      "Moderate calibration is judged from the smoothed curve: on average it lies "
+      "%.3f from the ideal line (ICI), at most %.3f for 90%% of patients (E90). "
+      "Strong calibration (within every combination of predictors) is not assessable.",
+      c.ici, c.e90);
   r.explanation = text;
   return r;
 }

@@ -30,9 +30,12 @@ json fileRecord(const InputFileRecord& r, const std::string& studyPath) {
 
 std::string delimiterName(char d) {
   switch (d) {
-    case 0: return "auto";
-    case '\t': return "\t";
-    default: return std::string(1, d);
+    case 0:
+      return "auto";
+    case '\t':
+      return "\t";
+    default:
+      return std::string(1, d);
   }
 }
 
@@ -93,9 +96,15 @@ std::string studyToJson(const StudyState& study, const std::string& studyPath) {
   j["import"] = import;
   json model;
   switch (study.modelSource) {
-    case ModelSource::None: model["source"] = "none"; break;
-    case ModelSource::File: model["source"] = "file"; break;
-    case ModelSource::Fitted: model["source"] = "fitted"; break;
+    case ModelSource::None:
+      model["source"] = "none";
+      break;
+    case ModelSource::File:
+      model["source"] = "file";
+      break;
+    case ModelSource::Fitted:
+      model["source"] = "fitted";
+      break;
   }
   if (study.modelFile) model["file"] = fileRecord(*study.modelFile, studyPath);
   model["predictors"] = study.fit.predictors;
@@ -131,7 +140,8 @@ StudyState parseStudyJson(const std::string& text, const std::string& studyPath)
   if (j.contains("data") && !j.at("data").is_null()) s.data = in.file(j.at("data"), "data", folder);
 
   const json& import = in.object(j, "import", "import");
-  const std::string delimiter = in.get<std::string>(import, "delimiter", "import.delimiter", "auto");
+  const std::string delimiter =
+      in.get<std::string>(import, "delimiter", "import.delimiter", "auto");
   if (delimiter == "auto") {
     s.import.delimiter = 0;
   } else if (delimiter.size() == 1 && (delimiter == "," || delimiter == ";" || delimiter == "\t")) {
@@ -139,8 +149,8 @@ StudyState parseStudyJson(const std::string& text, const std::string& studyPath)
   } else {
     in.fail("import.delimiter", "expected \"auto\", \",\", \";\" or a tab");
   }
-  s.import.missingTokens = in.get<std::vector<std::string>>(import, "missingTokens",
-                                                            "import.missingTokens", {"", "NA"});
+  s.import.missingTokens =
+      in.get<std::vector<std::string>>(import, "missingTokens", "import.missingTokens", {"", "NA"});
   s.import.outcomeColumn = in.get<std::string>(import, "outcome", "import.outcome", "");
   if (import.contains("eventValue") && !import.at("eventValue").is_null()) {
     s.import.eventValue = in.get<std::string>(import, "eventValue", "import.eventValue", "");
@@ -166,8 +176,8 @@ StudyState parseStudyJson(const std::string& text, const std::string& studyPath)
   if (model.contains("fitted") && !model.at("fitted").is_null()) {
     s.model = parseModelJson(model.at("fitted").dump(), studyPath + " (model.fitted)");
   }
-  s.columnMapping = in.get<std::map<std::string, std::string>>(j, "columnMapping",
-                                                               "columnMapping", {});
+  s.columnMapping =
+      in.get<std::map<std::string, std::string>>(j, "columnMapping", "columnMapping", {});
   const json& a = in.object(j, "analysis", "analysis");
   s.analysis.threshold = in.get<double>(a, "threshold", "analysis.threshold", 0.1);
   s.analysis.reasonableLo = in.get<double>(a, "reasonableLo", "analysis.reasonableLo", 0.05);
@@ -180,8 +190,8 @@ StudyState parseStudyJson(const std::string& text, const std::string& studyPath)
   if (s.analysis.groups < 2) in.fail("analysis.groups", "must be at least 2");
   if (j.contains("predictorView") && j.at("predictorView").is_object()) {
     const json& pv = j.at("predictorView");
-    s.predictorView = in.get<std::vector<std::string>>(pv, "predictors",
-                                                       "predictorView.predictors", {});
+    s.predictorView =
+        in.get<std::vector<std::string>>(pv, "predictors", "predictorView.predictors", {});
     s.heldValues = in.get<std::map<std::string, std::string>>(pv, "held", "predictorView.held", {});
   }
   return s;

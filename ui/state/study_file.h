@@ -36,7 +36,7 @@ void writeStudyFile(const std::string& path, const StudyState& study);  // atomi
 StudyState readStudyFile(const std::string& path);
 
 struct InputCheck {
-  std::string role;     // "cohort data", "model file"
+  std::string role;  // "cohort data", "model file"
   std::string path;
   std::string problem;  // "missing" or "changed since the study was saved"
 };

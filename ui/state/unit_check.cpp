@@ -35,15 +35,18 @@ std::optional<std::string> unitFromHeader(const std::string& header) {
   return std::nullopt;
 }
 
-bool sameUnit(const std::string& a, const std::string& b) { return normalized(a) == normalized(b); }
+bool sameUnit(const std::string& a, const std::string& b) {
+  return normalized(a) == normalized(b);
+}
 
 UnitCheck checkUnit(const std::optional<std::string>& modelUnit, const std::string& columnHeader) {
   const std::optional<std::string> columnUnit = unitFromHeader(columnHeader);
   if (!modelUnit) return {UnitVerdict::NotStated, "the model file states no unit"};
   if (!columnUnit) {
-    return {UnitVerdict::ColumnSilent,
-            "the model expects " + *modelUnit + "; the column header states no unit: check the "
-            "values are in " + *modelUnit};
+    return {UnitVerdict::ColumnSilent, "the model expects " + *modelUnit +
+                                           "; the column header states no unit: check the "
+                                           "values are in " +
+                                           *modelUnit};
   }
   if (sameUnit(*modelUnit, *columnUnit)) {
     return {UnitVerdict::Matches, "units agree (" + *modelUnit + ")"};

@@ -71,17 +71,29 @@ void ChartPanel::contextMenuEvent(QContextMenuEvent* event) {
 void ChartPanel::keyPressEvent(QKeyEvent* event) {
   switch (event->key()) {
     case Qt::Key_Right:
-    case Qt::Key_Up: emit nudgeRequested(1); break;
+    case Qt::Key_Up:
+      emit nudgeRequested(1);
+      break;
     case Qt::Key_Left:
-    case Qt::Key_Down: emit nudgeRequested(-1); break;
-    case Qt::Key_PageUp: emit nudgeRequested(10); break;
-    case Qt::Key_PageDown: emit nudgeRequested(-10); break;
-    default: QChartView::keyPressEvent(event); return;
+    case Qt::Key_Down:
+      emit nudgeRequested(-1);
+      break;
+    case Qt::Key_PageUp:
+      emit nudgeRequested(10);
+      break;
+    case Qt::Key_PageDown:
+      emit nudgeRequested(-10);
+      break;
+    default:
+      QChartView::keyPressEvent(event);
+      return;
   }
   event->accept();
 }
 
-QSize ChartPanel::exportSize() const { return size().expandedTo(QSize(900, 600)); }
+QSize ChartPanel::exportSize() const {
+  return size().expandedTo(QSize(900, 600));
+}
 
 QString ChartPanel::exportPng(const QString& path) {
   if (linked_ == nullptr) return tr("there is no chart to export yet");

@@ -1,6 +1,7 @@
 #pragma once
 // Shows one LinkedChart: tooltips with exact values under the mouse, a click sets the threshold
-// (where the chart supports it), arrow keys nudge it, and a context menu exports the chart as PNG or SVG.
+// (where the chart supports it), arrow keys nudge it, and a context menu exports the chart as PNG
+// or SVG.
 
 #include <QtCharts/QChartView>
 

@@ -88,13 +88,19 @@ ConfusionPanel::ConfusionPanel(QWidget* parent) : QWidget(parent) {
   netBenefit_->setWordWrap(true);
   layout->addWidget(netBenefit_);
 
-  layout->addWidget(heading(tr("Of 1000 patients like these"),
-                            QStringLiteral("naturalFrequencyHeading")));
+  layout->addWidget(
+      heading(tr("Of 1000 patients like these"), QStringLiteral("naturalFrequencyHeading")));
   naturalFrequency_ = new QLabel;
   naturalFrequency_->setObjectName(QStringLiteral("naturalFrequencyText"));
   naturalFrequency_->setWordWrap(true);
   naturalFrequency_->setTextInteractionFlags(Qt::TextSelectableByMouse);
   layout->addWidget(naturalFrequency_);
+  // Reserve the wrapped height explicitly: word-wrapped labels in a side panel otherwise get one
+  // line's height and overlap their neighbours.
+  const int line = fontMetrics().lineSpacing();
+  rates_->setMinimumHeight(2 * line + 4);
+  netBenefit_->setMinimumHeight(3 * line + 4);
+  naturalFrequency_->setMinimumHeight(6 * line + 4);
   layout->addStretch(1);
   clear();
 }
@@ -120,9 +126,9 @@ void ConfusionPanel::setSnapshot(const ThresholdSnapshot& s) {
   events_->setText(QString::number(s.events));
   nonEvents_->setText(QString::number(s.n - s.events));
   total_->setText(QString::number(s.n));
-  rates_->setText(tr("Sensitivity %1 · Specificity %2\nPPV %3 · NPV %4")
-                      .arg(fixed(s.sensitivity, 3), fixed(s.specificity, 3), fixed(s.ppv, 3),
-                           fixed(s.npv, 3)));
+  rates_->setText(
+      tr("Sensitivity %1 · Specificity %2\nPPV %3 · NPV %4")
+          .arg(fixed(s.sensitivity, 3), fixed(s.specificity, 3), fixed(s.ppv, 3), fixed(s.npv, 3)));
   netBenefit_->setText(tr("Net benefit %1 (treat everyone: %2, treat no one: 0)")
                            .arg(fixed(s.netBenefit, 4), fixed(s.netBenefitTreatAll, 4)));
   naturalFrequency_->setText(naturalFrequencyText(s));

@@ -15,7 +15,9 @@
 namespace calivera::ui {
 
 namespace {
-QString q(const std::string& s) { return QString::fromStdString(s); }
+QString q(const std::string& s) {
+  return QString::fromStdString(s);
+}
 }  // namespace
 
 PredictorView::PredictorView(QWidget* parent) : QWidget(parent) {
@@ -30,8 +32,8 @@ PredictorView::PredictorView(QWidget* parent) : QWidget(parent) {
   first_->setObjectName(QStringLiteral("predictorFirst"));
   second_ = new QComboBox;
   second_->setObjectName(QStringLiteral("predictorSecond"));
-  form->addRow(tr("Predictor on the x axis:"), first_);
-  form->addRow(tr("Second predictor (y axis):"), second_);
+  form->addRow(tr("x axis:"), first_);
+  form->addRow(tr("y axis:"), second_);
   side->addLayout(form);
   auto* heldLabel = new QLabel(tr("Other predictors are held at these values (edit to change):"));
   heldLabel->setObjectName(QStringLiteral("predictorHeldLabel"));
@@ -74,7 +76,9 @@ PredictorView::PredictorView(QWidget* parent) : QWidget(parent) {
   });
 }
 
-std::vector<ChartPanel*> PredictorView::chartPanels() const { return {panel_}; }
+std::vector<ChartPanel*> PredictorView::chartPanels() const {
+  return {panel_};
+}
 
 void PredictorView::setData(const Model* model, std::shared_ptr<const CohortData> cohort,
                             const std::map<std::string, std::string>& mapping,
@@ -89,7 +93,7 @@ void PredictorView::setData(const Model* model, std::shared_ptr<const CohortData
   if (model_ && cohort_) predictors_ = describePredictors(*model_, mapping_, *cohort_);
   first_->clear();
   second_->clear();
-  second_->addItem(tr("(none: show the risk curve)"));
+  second_->addItem(tr("(none: risk curve)"));
   for (const PredictorInfo& p : predictors_) {
     if (!p.numeric) continue;
     first_->addItem(q(p.variable));
@@ -166,8 +170,9 @@ void PredictorView::rebuildChart() {
     } else {
       chart = new charts::BoundaryChart(
           riskSurface(*model_, mapping_, *cohort_, predictors_, x, y, heldValues()));
-      note_->setText(tr("The thick line is where predicted risk equals the threshold, from a "
-                        "60 × 60 grid evaluation of the model."));
+      note_->setText(
+          tr("The thick line is where predicted risk equals the threshold, from a "
+             "60 × 60 grid evaluation of the model."));
     }
     panel_->setLinkedChart(chart);
     if (hasSnapshot_) chart->setThreshold(snapshot_);

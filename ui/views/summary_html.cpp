@@ -9,11 +9,14 @@ namespace calivera::ui {
 
 namespace {
 
-QString esc(const std::string& s) { return QString::fromStdString(s).toHtmlEscaped(); }
+QString esc(const std::string& s) {
+  return QString::fromStdString(s).toHtmlEscaped();
+}
 
 QString row(const QString& name, const QString& value, const QString& reading = {}) {
-  return QStringLiteral("<tr><td><b>%1</b></td><td style='padding-left:12px'>%2</td>"
-                        "<td style='padding-left:12px; color:#333'>%3</td></tr>")
+  return QStringLiteral(
+             "<tr><td><b>%1</b></td><td style='padding-left:12px'>%2</td>"
+             "<td style='padding-left:12px; color:#333'>%3</td></tr>")
       .arg(name, value, reading);
 }
 
@@ -34,9 +37,10 @@ QString decisionCurveReading(const std::vector<DecisionCurvePoint>& curve, doubl
     return QStringLiteral("No threshold of the decision-curve grid lies in your range %1 to %2.")
         .arg(fixed(lo, 3), fixed(hi, 3));
   }
-  return QStringLiteral("Within your range of reasonable thresholds (%1 to %2) the model has a "
-                        "higher net benefit than both treating everyone and treating no one at "
-                        "%3 of %4 thresholds examined.")
+  return QStringLiteral(
+             "Within your range of reasonable thresholds (%1 to %2) the model has a "
+             "higher net benefit than both treating everyone and treating no one at "
+             "%3 of %4 thresholds examined.")
       .arg(fixed(lo, 3), fixed(hi, 3))
       .arg(better)
       .arg(inRange);
@@ -46,9 +50,8 @@ QString summaryHtml(const StudyState& study) {
   QString html = QStringLiteral("<html><body style='font-size:10pt'>");
   html += QStringLiteral("<h3>Cohort</h3><table>");
   if (study.data) {
-    html += row(QStringLiteral("File"), QFileInfo(QString::fromStdString(study.data->path))
-                                            .fileName()
-                                            .toHtmlEscaped(),
+    html += row(QStringLiteral("File"),
+                QFileInfo(QString::fromStdString(study.data->path)).fileName().toHtmlEscaped(),
                 QStringLiteral("SHA-256 %1…").arg(esc(study.data->sha256.substr(0, 16))));
   }
   const ExclusionReport& ex = study.exclusions;
@@ -98,12 +101,14 @@ QString summaryHtml(const StudyState& study) {
   html += QStringLiteral("</table>");
 
   html += QStringLiteral("<h3>Discrimination</h3><table>");
-  html += row(QStringLiteral("AUC (c-statistic)"), ci(r.discrimination.auc, r.discrimination.aucCi, 3),
-              esc(readDiscrimination(r.discrimination)));
+  html +=
+      row(QStringLiteral("AUC (c-statistic)"), ci(r.discrimination.auc, r.discrimination.aucCi, 3),
+          esc(readDiscrimination(r.discrimination)));
   html += row(QStringLiteral("DeLong SE"), fixed(r.discrimination.aucSe, 4),
               QStringLiteral("interval on the logit scale, so it stays within 0 and 1"));
-  html += row(QStringLiteral("Discrimination slope"), fixed(r.discrimination.discriminationSlope, 4),
-              QStringLiteral("mean predicted risk with the event minus without it"));
+  html +=
+      row(QStringLiteral("Discrimination slope"), fixed(r.discrimination.discriminationSlope, 4),
+          QStringLiteral("mean predicted risk with the event minus without it"));
   html += QStringLiteral("</table>");
 
   const Calibration& c = r.calibration;
@@ -120,8 +125,8 @@ QString summaryHtml(const StudyState& study) {
   html += row(QStringLiteral("Observed / expected events"), ci(c.oeRatio, c.oeCi, 3),
               QStringLiteral("target 1"));
   html += row(QStringLiteral("Spiegelhalter z"),
-              QStringLiteral("%1 (p = %2)").arg(fixed(c.spiegelhalterZ, 3),
-                                                QString::number(c.spiegelhalterP, 'g', 3)),
+              QStringLiteral("%1 (p = %2)")
+                  .arg(fixed(c.spiegelhalterZ, 3), QString::number(c.spiegelhalterP, 'g', 3)),
               QStringLiteral("tests whether the risks are calibrated overall"));
   html += row(QStringLiteral("ICI / E50 / E90 / Emax"),
               QStringLiteral("%1 / %2 / %3 / %4")

@@ -45,7 +45,8 @@ ThresholdBar::ThresholdBar(QWidget* parent) : QWidget(parent) {
   rangeLabel->setObjectName(QStringLiteral("reasonableRangeLabel"));
   rangeLo_ = makeProbabilityBox(QStringLiteral("reasonableLoSpin"), 3, 0.01);
   rangeHi_ = makeProbabilityBox(QStringLiteral("reasonableHiSpin"), 3, 0.01);
-  rangeLo_->setToolTip(tr("Lowest threshold a clinician would consider (shaded on the decision curve)"));
+  rangeLo_->setToolTip(
+      tr("Lowest threshold a clinician would consider (shaded on the decision curve)"));
   rangeHi_->setToolTip(tr("Highest threshold a clinician would consider"));
   auto* to = new QLabel(tr("to"));
   to->setObjectName(QStringLiteral("reasonableRangeTo"));
@@ -92,7 +93,9 @@ void ThresholdBar::setThreshold(double threshold) {
   updating_ = false;
 }
 
-double ThresholdBar::threshold() const { return spin_->value(); }
+double ThresholdBar::threshold() const {
+  return spin_->value();
+}
 
 void ThresholdBar::setReasonableRange(double lo, double hi) {
   updating_ = true;
