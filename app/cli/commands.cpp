@@ -3,6 +3,8 @@
 #include <iostream>
 
 #include "app/cli/fit_command.h"
+#include "app/cli/internal_command.h"
+#include "app/cli/update_command.h"
 #include "app/cli/validate_command.h"
 #include "core/util/errors.h"
 
@@ -13,6 +15,8 @@ const std::vector<Command>& allCommands() {
   static const std::vector<Command> commands = {
       {"fit", "fit a logistic model to a cohort and write a model file", runFitCommand},
       {"validate", "performance of a model or risk column on a cohort", runValidateCommand},
+      {"update", "update a model on local data (intercept, recalibrate, refit)", runUpdateCommand},
+      {"internal", "bootstrap optimism correction of a locally fitted model", runInternalCommand},
   };
   return commands;
 }

@@ -1,6 +1,7 @@
 // calivera validate --data COHORT.csv --outcome COL (--model MODEL.json | --risk COL)
 //                   [--groups G] [--thresholds FROM:TO:STEP | T1,T2,...] [--json REPORT.json]
 //                   [--csv-dir DIR] [--delimiter C] [--missing LIST] [--event-value V]
+//                   [--pdf REPORT.pdf [--title TEXT] [--suppress-below N] [--paper a4|letter]]
 // The analysis is core's runValidation(); this file only parses options and writes outputs.
 #include "app/cli/validate_command.h"
 
@@ -8,12 +9,17 @@
 
 #include "app/cli/arguments.h"
 #include "app/cli/data_options.h"
+#include "app/cli/validate_uncertainty.h"
 #include "core/metrics/validation_run.h"
+#include "core/report/audit_run.h"
 #include "core/report/validation_json.h"
 #include "core/report/validation_summary.h"
 #include "core/report/validation_tables.h"
 #include "core/util/atomic_file.h"
 #include "core/util/errors.h"
+#ifdef CALIVERA_HAVE_UI
+#include "ui/report/audit_pdf_writer.h"
+#endif
 
 namespace calivera::cli {
 namespace {
@@ -21,7 +27,9 @@ namespace {
 constexpr const char* kHelp =
     "usage: calivera validate --data COHORT.csv --outcome COL (--model MODEL.json | --risk COL)\n"
     "                         [--groups G] [--thresholds FROM:TO:STEP | T1,T2,...]\n"
-    "                         [--json REPORT.json] [--csv-dir DIR]\n\n"
+    "                         [--json REPORT.json] [--csv-dir DIR]\n"
+    "                         [--pdf REPORT.pdf [--title TEXT] [--suppress-below N]\n"
+    "                          [--paper a4|letter]]\n\n"
     "Discrimination, calibration and clinical utility of predicted risks on a cohort.\n\n"
     "  --data FILE          cohort CSV (header row)\n"
     "  --outcome COL        outcome column (0/1, or see --event-value)\n"
@@ -31,7 +39,13 @@ constexpr const char* kHelp =
     "  --thresholds T       FROM:TO:STEP or a list T1,T2,... strictly inside (0, 1)\n"
     "                       (0.01:0.99:0.01); a patient is flagged when risk >= threshold\n"
     "  --json FILE          write the full report as JSON instead of the summary on stdout\n"
-    "  --csv-dir DIR        also write every table as CSV into DIR\n";
+    "  --csv-dir DIR        also write every table as CSV into DIR\n"
+    "  --pdf FILE           also write the audit report as PDF (aggregates only; with\n"
+    "                       SOURCE_DATE_EPOCH set, byte-identical for the same inputs)\n"
+    "  --title TEXT         the report's title\n"
+    "  --suppress-below N   in the report, show counts from 1 to N-1 as <N and hide the\n"
+    "                       counts that would reveal them (off by default)\n"
+    "  --paper SIZE         a4 (default) or letter\n";
 
 std::vector<double> parseThresholds(const std::string& text) {
   const std::string option = "--thresholds";
@@ -63,13 +77,14 @@ std::vector<double> parseThresholds(const std::string& text) {
 
 int validateBody(const std::vector<std::string>& words) {
   OptionSpec spec;
-  spec.valued = {"--data",   "--outcome",    "--model", "--risk",
-                 "--groups", "--thresholds", "--json",  "--csv-dir"};
+  spec.valued = {"--data", "--outcome", "--model", "--risk",  "--groups",         "--thresholds",
+                 "--json", "--csv-dir", "--pdf",   "--title", "--suppress-below", "--paper"};
   spec.flags = {"--help"};
   addDataOptions(spec);
+  addUncertaintyOptions(spec);  // uncertainty: --bootstrap, --compare, --subgroup, ...
   const Arguments arguments(words, spec);
   if (arguments.has("--help")) {
-    std::cout << kHelp << kDataOptionsHelp;
+    std::cout << kHelp << kDataOptionsHelp << uncertaintyOptionsHelp();
     return 0;
   }
   if (!arguments.positional().empty()) {
@@ -80,7 +95,7 @@ int validateBody(const std::vector<std::string>& words) {
   request.outcome.column = arguments.required("--outcome");
   request.outcome.eventValue = eventValueFrom(arguments);
   request.csv = csvOptionsFrom(arguments);
-  request.modelPath = arguments.value("--model");
+  request.modelPath = primaryModelPath(arguments);  // uncertainty: later --model are compared
   request.riskColumn = arguments.value("--risk");
   if (request.modelPath.has_value() == request.riskColumn.has_value()) {
     throw InputError("give exactly one of --model and --risk");
@@ -98,16 +113,50 @@ int validateBody(const std::vector<std::string>& words) {
       }
     }
   }
+  const auto pdfPath = arguments.value("--pdf");
+  if (!pdfPath &&
+      (arguments.has("--title") || arguments.has("--suppress-below") || arguments.has("--paper"))) {
+    throw InputError("--title, --suppress-below and --paper need --pdf");
+  }
+  std::size_t suppressBelow = 0;
+  if (const auto n = arguments.value("--suppress-below")) {
+    const long long below = parseInteger(*n, "--suppress-below");
+    if (below < 2 || below > 1000) {
+      throw InputError("--suppress-below: must be between 2 and 1000");
+    }
+    suppressBelow = static_cast<std::size_t>(below);
+  }
+#ifdef CALIVERA_HAVE_UI
+  const ui::report::PaperSize paper =
+      ui::report::parsePaperSize(arguments.value("--paper").value_or("a4"), "--paper");
+#else
+  (void)suppressBelow;
+  if (pdfPath) throw InputError("--pdf: this build has no PDF report (built without the UI)");
+#endif
   const ValidationRun run = runValidation(request);
+  // uncertainty: sample size (always), bootstrap intervals, comparison, subgroups.
+  const UncertaintyResults uncertainty = runUncertainty(run, uncertaintyRequest(arguments));
   // Every output is rendered before anything is written; the JSON is written last so a reader
   // that waits for it sees the tables too.
   const auto jsonPath = arguments.value("--json");
-  const std::string jsonText = jsonPath ? validationJsonText(run) : std::string();
+  const std::string jsonText = jsonPath ? validationJsonText(run, uncertainty) : std::string();
+#ifdef CALIVERA_HAVE_UI
+  const std::string pdf =
+      pdfPath ? ui::report::renderAuditReportPdf(
+                    auditInputFromRun(run, arguments.value("--title").value_or(""), suppressBelow),
+                    paper)
+              : std::string();
+#endif
   if (const auto dir = arguments.value("--csv-dir")) writeValidationTables(*dir, run);
+#ifdef CALIVERA_HAVE_UI
+  if (pdfPath) writeFileAtomically(*pdfPath, pdf);
+#endif
   if (jsonPath) {
     writeFileAtomically(*jsonPath, jsonText);
   } else {
+    printSampleSizeSummary(std::cout, uncertainty);  // uncertainty: adequacy before results
     std::cout << validationSummaryText(run);
+    printUncertaintySummary(std::cout, uncertainty);
   }
   return 0;
 }

@@ -297,9 +297,11 @@ void addCharts(const AuditDocument& doc, std::vector<ReportBlock>& blocks) {
        "Figure 2. Calibration: smoothed observed proportion and risk "
        "groups (95% CI) against predicted risk; the ideal is the diagonal"},
       {ChartKind::DecisionCurve,
-       "Figure 3. Decision curve: net benefit of the model, of treating "
-       "all and of treating none; the shaded band is the reasonable "
-       "threshold range"},
+       doc.reasonableThresholds
+           ? "Figure 3. Decision curve: net benefit of the model, of treating all and of treating "
+             "none; the shaded band is the reasonable threshold range"
+           : "Figure 3. Decision curve: net benefit of the model, of treating all and of treating "
+             "none (no reasonable threshold range was set)"},
       {ChartKind::RiskDistribution, "Figure 4. Distribution of predicted risk by outcome"},
   };
   for (const auto& [kind, caption] : charts) {
@@ -392,7 +394,10 @@ std::vector<std::string> reportWarnings(const AuditReportInput& input) {
         "Sample size: fewer than 200 events; intervals are wide for calibration "
         "(200 or more events are preferred).");
   }
-  if (input.exclusions.rowsExcluded > 0) {
+  const bool pipelineNamesExclusions =
+      std::any_of(input.result.warnings.begin(), input.result.warnings.end(),
+                  [](const std::string& w) { return w.find("excluded") != std::string::npos; });
+  if (input.exclusions.rowsExcluded > 0 && !pipelineNamesExclusions) {
     const std::size_t excluded = input.exclusions.rowsExcluded;
     warnings.push_back(
         (below >= 2 && excluded < below ? "Fewer than " + std::to_string(below)
@@ -401,7 +406,9 @@ std::vector<std::string> reportWarnings(const AuditReportInput& input) {
         "related to the outcome, performance on the analysed rows can differ from the whole "
         "cohort.");
   }
-  for (const std::string& warning : input.result.warnings) warnings.push_back(warning);
+  for (const std::string& warning : input.result.warnings) {
+    warnings.push_back(below >= 2 ? suppressSmallNumbersInText(warning, below) : warning);
+  }
   return warnings;
 }
 

@@ -100,4 +100,38 @@ std::string formatSuppressedCount(std::size_t count, CellState state, std::size_
   return std::to_string(count);
 }
 
+std::string suppressSmallNumbersInText(const std::string& text, std::size_t below) {
+  if (below <= 1) return text;
+  auto isDigit = [](char c) { return c >= '0' && c <= '9'; };
+  std::string out;
+  std::size_t i = 0;
+  while (i < text.size()) {
+    if (!isDigit(text[i])) {
+      out += text[i++];
+      continue;
+    }
+    std::size_t j = i;
+    while (j < text.size() && isDigit(text[j])) ++j;
+    // Part of a decimal ("0.05", "1.5") or a grouped number ("12,000")? Keep as written.
+    const bool decimalBefore =
+        i >= 2 && (text[i - 1] == '.' || text[i - 1] == ',') && isDigit(text[i - 2]);
+    const bool decimalAfter =
+        j + 1 < text.size() && (text[j] == '.' || text[j] == ',') && isDigit(text[j + 1]);
+    const std::string number = text.substr(i, j - i);
+    bool small = !decimalBefore && !decimalAfter && number.size() <= 6;
+    if (small) {
+      const std::size_t value = std::stoul(number);
+      small = value >= 1 && value < below;
+    }
+    if (small) {
+      out += '<';
+      out += std::to_string(below);
+    } else {
+      out += number;
+    }
+    i = j;
+  }
+  return out;
+}
+
 }  // namespace calivera

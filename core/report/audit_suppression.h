@@ -57,6 +57,11 @@ class SuppressionProblem {
 // "<N" for a primary cell, "s" for a complementary one, the count otherwise.
 std::string formatSuppressedCount(std::size_t count, CellState state, std::size_t below);
 
+// Free text from the analysis (warnings such as "3 of 200 rows excluded") can carry counts too:
+// every standalone whole number from 1 to below-1 (not part of a decimal or a longer number) is
+// replaced by "<below". Numbers of N and more, decimals and zero are left as written.
+std::string suppressSmallNumbersInText(const std::string& text, std::size_t below);
+
 inline bool isHidden(CellState state) {
   return state != CellState::Shown;
 }

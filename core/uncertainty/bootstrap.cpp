@@ -11,6 +11,7 @@
 #include <stdexcept>
 #include <thread>
 
+#include "core/metrics/sorted_cohort.h"
 #include "core/util/errors.h"
 
 namespace calivera {
@@ -140,10 +141,7 @@ double quantileIgnoringNan(std::vector<double> values, double probability) {
   std::erase_if(values, [](double v) { return std::isnan(v); });
   if (values.empty()) return std::numeric_limits<double>::quiet_NaN();
   std::sort(values.begin(), values.end());
-  const double h = (static_cast<double>(values.size()) - 1.0) * probability;
-  const auto lo = static_cast<std::size_t>(std::floor(h));
-  const std::size_t hi = std::min(lo + 1, values.size() - 1);
-  return values[lo] + (h - static_cast<double>(lo)) * (values[hi] - values[lo]);
+  return quantileType7(values, probability);
 }
 
 PercentileInterval percentileInterval(const BootstrapRun& run, std::size_t statistic,

@@ -20,23 +20,15 @@
 #include <string>
 #include <vector>
 
+#include "core/metrics/auc_delong.h"
 #include "core/metrics/validation.h"
 #include "core/uncertainty/bootstrap.h"
 
 namespace calivera {
 
-struct DelongComponents {
-  double auc = 0.0;
-  std::vector<double> eventPlacements;     // V10, one per event, in input order
-  std::vector<double> nonEventPlacements;  // V01, one per non-event, in input order
-};
-
-// Throws AnalysisError when either outcome class is absent, InputError when sizes differ.
-DelongComponents delongComponents(const std::vector<double>& score,
-                                  const std::vector<double>& outcome);
-
-// Covariance matrix (row-major, k x k) of the AUCs of k scores on the same patients.
-std::vector<std::vector<double>> delongCovariance(const std::vector<DelongComponents>& components);
+// Covariance matrix (row-major, k x k) of the AUCs of k scores on the same patients, from the
+// placement values of core/metrics/auc_delong.h (each from delongPlacements on the same rows).
+std::vector<std::vector<double>> delongCovariance(const std::vector<DelongPlacements>& components);
 
 struct PairedAucTest {
   std::size_t first = 0, second = 0;  // indices of the models compared
@@ -49,7 +41,7 @@ struct PairedAucTest {
   double correlation = 0.0;  // S12 / sqrt(S11 S22)
 };
 
-PairedAucTest pairedDelongTest(const std::vector<DelongComponents>& components,
+PairedAucTest pairedDelongTest(const std::vector<DelongPlacements>& components,
                                const std::vector<std::vector<double>>& covariance,
                                std::size_t first, std::size_t second);
 

@@ -4,6 +4,7 @@
 #include <cmath>
 #include <limits>
 #include <numeric>
+#include <utility>
 
 namespace calivera {
 namespace {
@@ -23,10 +24,14 @@ double expit(double x) {
 }  // namespace
 
 std::vector<std::uint32_t> ascendingOrder(const std::vector<double>& values) {
+  // Sorting (value, index) pairs keeps the comparisons in cache (an index sort chases pointers);
+  // the index breaks ties, so the order is fully determined.
+  std::vector<std::pair<double, std::uint32_t>> keyed(values.size());
+  for (std::size_t i = 0; i < values.size(); ++i)
+    keyed[i] = {values[i], static_cast<std::uint32_t>(i)};
+  std::sort(keyed.begin(), keyed.end());
   std::vector<std::uint32_t> order(values.size());
-  std::iota(order.begin(), order.end(), std::uint32_t{0});
-  std::sort(order.begin(), order.end(),
-            [&](std::uint32_t a, std::uint32_t b) { return values[a] < values[b]; });
+  for (std::size_t i = 0; i < keyed.size(); ++i) order[i] = keyed[i].second;
   return order;
 }
 

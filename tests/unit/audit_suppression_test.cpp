@@ -160,6 +160,15 @@ TEST(AuditSuppression, RelationNamingNoCellIsAProgrammerError) {
   EXPECT_THROW(problem.addAllOrNone({3, 0}), std::out_of_range);
 }
 
+TEST(AuditSuppression, SmallNumbersInWarningTextAreHidden) {
+  EXPECT_EQ(suppressSmallNumbersInText("3 of 200 rows excluded; 12 risks of exactly 0", 5),
+            "<5 of 200 rows excluded; 12 risks of exactly 0");
+  EXPECT_EQ(suppressSmallNumbersInText("slope 0.8 at 1.5, 4 rows, 12,003 rows", 5),
+            "slope 0.8 at 1.5, <5 rows, 12,003 rows");
+  EXPECT_EQ(suppressSmallNumbersInText("line 7", 0), "line 7");
+  EXPECT_EQ(suppressSmallNumbersInText("10 events", 11), "<11 events");
+}
+
 ValidationResult smallResult() {
   ValidationResult result;
   result.cohort.n = 200;

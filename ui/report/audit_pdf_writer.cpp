@@ -2,6 +2,7 @@
 
 #include <QApplication>
 #include <QBuffer>
+#include <QHashSeed>
 #include <QPageLayout>
 #include <QPageSize>
 #include <QPdfWriter>
@@ -10,6 +11,7 @@
 #include <cstdlib>
 #include <ctime>
 #include <memory>
+#include <utility>
 
 #include "core/util/atomic_file.h"
 #include "core/util/errors.h"
@@ -88,6 +90,10 @@ bool setPdfCreationDate(QByteArray& pdf, long long creationTime) {
 
 QByteArray renderAuditPdf(const AuditDocument& doc, PaperSize paper, const ChartPainter& charts,
                           long long creationTime) {
+  // Qt's PDF engine writes its embedded fonts in QHash order, which follows the per-process random
+  // hash seed: a fixed seed while the writer exists makes the object order, and so the bytes,
+  // repeat. (Qt 6.4 reads the global seed when a hash is created; other hashes are unaffected.)
+  QHashSeed::setDeterministicGlobalSeed();
   QByteArray bytes;
   {
     QBuffer buffer(&bytes);
@@ -101,6 +107,7 @@ QByteArray renderAuditPdf(const AuditDocument& doc, PaperSize paper, const Chart
         QPageLayout(size, QPageLayout::Portrait, QMarginsF(50, 44, 50, 36), QPageLayout::Point));
     paintAuditDocument(doc, writer, charts);
   }
+  QHashSeed::resetRandomGlobalSeed();
   if (bytes.isEmpty()) throw AnalysisError("the PDF engine produced no output");
   if (!setPdfCreationDate(bytes, creationTime)) {
     throw AnalysisError("the PDF engine wrote no creation date in the expected format");
@@ -108,7 +115,7 @@ QByteArray renderAuditPdf(const AuditDocument& doc, PaperSize paper, const Chart
   return bytes;
 }
 
-void writeAuditReportPdf(AuditReportInput input, const std::string& path, PaperSize paper) {
+std::string renderAuditReportPdf(AuditReportInput input, PaperSize paper) {
   const long long timestamp = reportTimestamp();
   if (input.createdAt.empty()) input.createdAt = formatUtcTimestamp(timestamp);
   if (input.softwareVersion.empty()) input.softwareVersion = CALIVERA_VERSION;
@@ -116,8 +123,11 @@ void writeAuditReportPdf(AuditReportInput input, const std::string& path, PaperS
   const ApplicationScope application;
   const ChartPainter charts = replayCharts(recordReportCharts(doc));
   const QByteArray pdf = renderAuditPdf(doc, paper, charts, timestamp);
-  writeFileAtomically(path,
-                      std::string_view(pdf.constData(), static_cast<std::size_t>(pdf.size())));
+  return std::string(pdf.constData(), static_cast<std::size_t>(pdf.size()));
+}
+
+void writeAuditReportPdf(AuditReportInput input, const std::string& path, PaperSize paper) {
+  writeFileAtomically(path, renderAuditReportPdf(std::move(input), paper));
 }
 
 }  // namespace calivera::ui::report

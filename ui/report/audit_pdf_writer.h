@@ -2,11 +2,13 @@
 // Writing the audit report as PDF with Qt's own PDF engine (QPdfWriter + QPainter), from the
 // Qt-free document of core/report/audit_report.h.
 //
-// Reproducibility: Qt writes no random document id; its only varying field is the Info
-// dictionary's /CreationDate, taken from the clock. The PDF is rendered into memory and that
-// date is rewritten, with the same byte length so the cross-reference offsets stay valid, to the
-// report's own timestamp: SOURCE_DATE_EPOCH when set (reproducible-builds.org convention), else
-// the current time. The same inputs, settings and timestamp give byte-identical files.
+// Reproducibility: Qt writes no random document id; what varies is the Info dictionary's
+// /CreationDate, taken from the clock, and the order of the embedded fonts, which follows the
+// process's random QHash seed (fixed to Qt's deterministic seed while the PDF is rendered). The PDF
+// is rendered into memory and that date is rewritten, with the same byte length so the
+// cross-reference offsets stay valid, to the report's own timestamp: SOURCE_DATE_EPOCH when set
+// (reproducible-builds.org convention), else the current time. The same inputs, settings and
+// timestamp give byte-identical files.
 //
 // Integrity: the bytes go to a temporary file in the target folder that is renamed into place
 // (writeFileAtomically), so a failure leaves no partial PDF.
@@ -32,7 +34,14 @@ QByteArray renderAuditPdf(const AuditDocument& doc, PaperSize paper, const Chart
 // when the PDF holds no creation date in Qt's format.
 bool setPdfCreationDate(QByteArray& pdf, long long creationTime);
 
-// The whole path for the command line: fills in input.createdAt from reportTimestamp() when
+// The PDF bytes of `input` for the command line, which writes them with its other outputs: fills
+// in input.createdAt from reportTimestamp() when empty, builds the document, records the charts
+// and renders. Creates an offscreen QApplication when the process has none (and no display).
+// Call on the main thread. Throws InputError (SOURCE_DATE_EPOCH, a threshold not computed) or
+// AnalysisError.
+std::string renderAuditReportPdf(AuditReportInput input, PaperSize paper);
+
+// The same, written to `path`: fills in input.createdAt from reportTimestamp() when
 // empty, builds the document, records the charts, renders and writes `path` atomically. Creates
 // an offscreen QApplication when the process has none (and no display). Call on the main thread.
 // Throws InputError (bad path, SOURCE_DATE_EPOCH) or AnalysisError.

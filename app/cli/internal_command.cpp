@@ -1,0 +1,131 @@
+// calivera internal: internal validation of a model fitted on this data by bootstrap optimism
+// correction (Efron 1983; Harrell, Lee & Mark 1996). Every replicate refits the model's terms
+// (with Firth when the model was fitted so, or with --firth) on a resample; the corrected
+// calibration slope is offered as a uniform shrinkage factor (--shrunk-out).
+#include "app/cli/internal_command.h"
+
+#include <iostream>
+#include <nlohmann/json.hpp>
+
+#include "app/cli/arguments.h"
+#include "app/cli/data_options.h"
+#include "app/cli/local_cohort.h"
+#include "core/model/linear_predictor.h"
+#include "core/model/model_io.h"
+#include "core/uncertainty/model_update.h"
+#include "core/uncertainty/optimism.h"
+#include "core/uncertainty/uncertainty_json.h"
+#include "core/util/atomic_file.h"
+#include "core/util/errors.h"
+
+namespace calivera::cli {
+namespace {
+
+void printHelp() {
+  std::cout
+      << "usage: calivera internal --data FILE --outcome COLUMN --model FITTED.json\n"
+         "                         [--bootstrap B] [--seed S] [--threads N] [--firth]\n"
+         "                         [--shrunk-out FILE] [--json FILE] [--no-ici]\n"
+         "                         [--event-value V] [--missing TOKEN] [--delimiter C]\n\n"
+         "Bootstrap optimism correction of AUC, calibration slope and intercept, Brier and ICI\n"
+         "for a model fitted on FILE (e.g. by 'calivera fit'). B resamples (default 200) with\n"
+         "seed S (default 1) on N threads (default all); same seed, same result for any N.\n"
+         "--shrunk-out writes the model with coefficients times the corrected slope and the\n"
+         "intercept re-estimated so that mean predicted risk equals the observed proportion.\n";
+}
+
+}  // namespace
+
+int runInternalCommand(const std::vector<std::string>& words) {
+  OptionSpec spec{{"--data", "--outcome", "--model", "--bootstrap", "--seed", "--threads",
+                   "--shrunk-out", "--json"},
+                  {"--firth", "--no-ici", "--help"}};
+  addDataOptions(spec);
+  const Arguments args(words, spec);
+  if (args.has("--help")) {
+    printHelp();
+    return 0;
+  }
+  OptimismOptions options;
+  if (const auto b = args.value("--bootstrap")) {
+    const long long replicates = parseInteger(*b, "--bootstrap");
+    if (replicates < 1 || replicates > 100000) {
+      throw InputError("--bootstrap: give 1 to 100000 replicates");
+    }
+    options.bootstrap.replicates = static_cast<int>(replicates);
+  }
+  if (const auto s = args.value("--seed")) {
+    const long long seed = parseInteger(*s, "--seed");
+    if (seed < 0) throw InputError("--seed: give a non-negative whole number");
+    options.bootstrap.seed = static_cast<std::uint64_t>(seed);
+  }
+  if (const auto t = args.value("--threads")) {
+    const long long threads = parseInteger(*t, "--threads");
+    if (threads < 1 || threads > 1024) throw InputError("--threads: give 1 to 1024");
+    options.bootstrap.threads = static_cast<unsigned>(threads);
+  }
+  options.includeIci = !args.has("--no-ici");
+
+  const std::string modelPath = args.required("--model");
+  const Model model = readModelFile(modelPath);
+  LocalCohort cohort = loadLocalCohort(args, model);
+  const bool recordedFirth =
+      model.development.method && model.development.method->find("Firth") != std::string::npos;
+  options.fit.firth = args.has("--firth") || recordedFirth;
+
+  std::vector<std::string> warnings;
+  if (model.development.dataSha256 && *model.development.dataSha256 != cohort.sha256) {
+    warnings.push_back("the model file records other development data (sha256 " +
+                       *model.development.dataSha256 +
+                       "); optimism correction is meant for the data a model was fitted on");
+  }
+  const Eigen::MatrixXd design = designMatrix(model, cohort.table, cohort.selection.rows);
+  Eigen::MatrixXd X(design.rows(), design.cols() + 1);
+  X.col(0).setOnes();
+  X.rightCols(design.cols()) = design;
+  const Eigen::VectorXd y = Eigen::Map<const Eigen::VectorXd>(
+      cohort.outcome.data(), static_cast<Eigen::Index>(cohort.outcome.size()));
+  const OptimismResult result = bootstrapOptimism(X, y, options);
+  warnings.insert(warnings.end(), result.warnings.begin(), result.warnings.end());
+
+  printExclusions(std::cout, cohort);
+  std::cout << "model: " << modelPath << (options.fit.firth ? " (refitted with Firth)" : "")
+            << "\nbootstrap: " << result.run.replicates << " replicates, seed " << result.run.seed
+            << ", " << result.run.threads << " threads, " << result.run.failed << " failed\n";
+  std::cout << "  measure                  apparent   optimism  corrected\n";
+  for (const auto& m : result.measures) {
+    std::cout << "  " << m.measure
+              << std::string(24 - std::min<std::size_t>(24, m.measure.size()), ' ') << ' '
+              << m.apparent << "  " << m.meanOptimism << "  " << m.corrected << '\n';
+  }
+  std::cout << "shrinkage factor (corrected calibration slope): " << result.shrinkageFactor << '\n';
+  for (const auto& w : warnings) std::cout << "warning: " << w << '\n';
+
+  nlohmann::json report = toJson(result);
+  report["model"] = modelPath;
+  report["data"] = cohort.path;
+  report["data_sha256"] = cohort.sha256;
+  report["warnings"] = warnings;
+  if (const auto shrunkPath = args.value("--shrunk-out")) {
+    if (!(result.shrinkageFactor > 0.0)) {
+      throw AnalysisError(
+          "no shrunk model written: the corrected calibration slope is not positive");
+    }
+    UpdateData data{&cohort.table, cohort.selection.rows, cohort.outcome, cohort.sha256,
+                    cohort.path};
+    UpdateOptions fitOptions;
+    fitOptions.firth = options.fit.firth;
+    const UpdatedModel fitted = updateModel(model, data, UpdateMethod::Refit, fitOptions);
+    const Model shrunk = shrinkModel(fitted.model, result.shrinkageFactor, cohort.table,
+                                     cohort.selection.rows, cohort.outcome);
+    writeModelFile(*shrunkPath, shrunk);
+    report["shrunk_model"] = *shrunkPath;
+    std::cout << "wrote " << *shrunkPath << '\n';
+  }
+  if (const auto jsonPath = args.value("--json")) {
+    writeFileAtomically(*jsonPath, report.dump(2) + "\n");
+  }
+  return 0;
+}
+
+}  // namespace calivera::cli

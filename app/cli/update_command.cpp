@@ -1,0 +1,110 @@
+// calivera update: updates an existing model on local data (intercept update, logistic
+// recalibration or full refit; Steyerberg et al. 2004), writes the updated model file with its
+// provenance, and reports the closed testing procedure's suggestion (Vergouwe et al. 2017).
+#include "app/cli/update_command.h"
+
+#include <iostream>
+#include <nlohmann/json.hpp>
+
+#include "app/cli/arguments.h"
+#include "app/cli/data_options.h"
+#include "app/cli/local_cohort.h"
+#include "core/model/model_io.h"
+#include "core/uncertainty/model_update.h"
+#include "core/uncertainty/uncertainty_json.h"
+#include "core/util/atomic_file.h"
+#include "core/util/errors.h"
+
+namespace calivera::cli {
+namespace {
+
+void printHelp() {
+  std::cout
+      << "usage: calivera update --data FILE --outcome COLUMN --model MODEL.json\n"
+         "                       --method intercept|recalibrate|refit --out NEW.json\n"
+         "                       [--event-value V] [--missing TOKEN] [--delimiter C] [--firth] "
+         "[--alpha A]\n"
+         "                       [--json FILE]\n\n"
+         "  intercept     re-estimate the intercept only (linear predictor as offset)\n"
+         "  recalibrate   logit p = a + b * LP; intercept a + b * intercept, coefficients * b\n"
+         "  refit         re-estimate every coefficient on the local data (--firth: Firth)\n"
+         "The closed testing procedure (likelihood-ratio tests at level --alpha, default 0.05)\n"
+         "suggests the least update the data support; --json writes the details.\n";
+}
+
+}  // namespace
+
+int runUpdateCommand(const std::vector<std::string>& words) {
+  OptionSpec spec{{"--data", "--outcome", "--model", "--method", "--out", "--alpha", "--json"},
+                  {"--firth", "--help"}};
+  addDataOptions(spec);
+  const Arguments args(words, spec);
+  if (args.has("--help")) {
+    printHelp();
+    return 0;
+  }
+  const std::string methodText = args.required("--method");
+  const auto method = parseUpdateMethod(methodText);
+  if (!method) {
+    throw InputError("--method: '" + methodText + "' is not one of intercept, recalibrate, refit");
+  }
+  const std::string out = args.required("--out");
+  const double alpha =
+      args.value("--alpha") ? parseNumber(*args.value("--alpha"), "--alpha") : 0.05;
+  if (!(alpha > 0.0 && alpha < 1.0)) throw InputError("--alpha: must lie between 0 and 1");
+  const std::string modelPath = args.required("--model");
+  const Model model = readModelFile(modelPath);
+  LocalCohort cohort = loadLocalCohort(args, model);
+
+  UpdateData data;
+  data.table = &cohort.table;
+  data.rows = cohort.selection.rows;
+  data.outcome = cohort.outcome;
+  data.dataSha256 = cohort.sha256;
+  data.dataName = cohort.path;
+  UpdateOptions options;
+  options.firth = args.has("--firth");
+  const ClosedTestResult closed = closedTest(model, data, alpha, options);
+  const UpdatedModel updated = updateModel(model, data, *method, options);
+  writeModelFile(out, updated.model);
+
+  printExclusions(std::cout, cohort);
+  std::cout << "model: " << modelPath << "\nmethod: " << updateMethodName(*method);
+  if (*method != UpdateMethod::Refit) {
+    std::cout << " (a = " << updated.recalibrationIntercept
+              << ", b = " << updated.recalibrationSlope << ")";
+  }
+  std::cout << "\ndeviance on the local data: " << updated.deviance << "\nclosed test (alpha "
+            << alpha << "):\n";
+  for (const auto& step : closed.steps) {
+    std::cout << "  " << step.hypothesis << ": LR " << step.lrStatistic << ", df " << step.df
+              << ", p " << step.pValue << (step.rejected ? " (rejected)" : " (not rejected)")
+              << '\n';
+  }
+  std::cout << "  suggested update: " << updateMethodName(closed.suggested) << '\n';
+  if (closed.suggested != *method) {
+    std::cout << "note: the data support '" << updateMethodName(closed.suggested)
+              << "'; you chose '" << updateMethodName(*method) << "'\n";
+  }
+  for (const auto& w : updated.warnings) std::cout << "warning: " << w << '\n';
+  std::cout << "wrote " << out << '\n';
+
+  if (const auto jsonPath = args.value("--json")) {
+    nlohmann::json report = {{"model", modelPath},
+                             {"data", cohort.path},
+                             {"data_sha256", cohort.sha256},
+                             {"n", cohort.outcome.size()},
+                             {"events", cohort.events},
+                             {"method", updateMethodName(*method)},
+                             {"recalibration_intercept", updated.recalibrationIntercept},
+                             {"recalibration_slope", updated.recalibrationSlope},
+                             {"deviance", updated.deviance},
+                             {"out", out},
+                             {"closed_test", toJson(closed)},
+                             {"warnings", updated.warnings}};
+    writeFileAtomically(*jsonPath, report.dump(2) + "\n");
+  }
+  return 0;
+}
+
+}  // namespace calivera::cli

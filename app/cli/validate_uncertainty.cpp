@@ -1,0 +1,133 @@
+#include "app/cli/validate_uncertainty.h"
+
+#include <cmath>
+
+#include "core/report/validation_json.h"
+#include "core/uncertainty/uncertainty_json.h"
+#include "core/util/errors.h"
+
+namespace calivera::cli {
+namespace {
+
+void printEstimate(std::ostream& out, const char* name, const BootstrapEstimate& e) {
+  out << "  " << name << ": " << e.estimate << " (95% CI " << e.ci.lo << " to " << e.ci.hi << ")\n";
+}
+
+}  // namespace
+
+void addUncertaintyOptions(OptionSpec& spec) {
+  spec.valued.insert(
+      {"--bootstrap", "--seed", "--threads", "--compare", "--subgroup", "--size-thresholds"});
+}
+
+const char* uncertaintyOptionsHelp() {
+  return "  --bootstrap B           percentile bootstrap 95% CIs and bands from B resamples\n"
+         "  --seed S                bootstrap seed (default 1), reproducible for any --threads\n"
+         "  --threads N             bootstrap threads (default: all cores)\n"
+         "  --compare MODEL.json    compare a further model on the same patients (repeatable;\n"
+         "                          a second --model does the same)\n"
+         "  --subgroup COLUMN       every measure per level of COLUMN (repeatable)\n"
+         "  --size-thresholds T,..  thresholds for the net-benefit sample-size criterion\n";
+}
+
+UncertaintyRequest uncertaintyRequest(const Arguments& args) {
+  UncertaintyRequest request;
+  if (const auto b = args.value("--bootstrap")) {
+    const long long replicates = parseInteger(*b, "--bootstrap");
+    if (replicates < 1 || replicates > 100000) {
+      throw InputError("--bootstrap: give 1 to 100000 replicates");
+    }
+    request.bootstrapReplicates = static_cast<int>(replicates);
+  }
+  if (const auto s = args.value("--seed")) {
+    const long long seed = parseInteger(*s, "--seed");
+    if (seed < 0) throw InputError("--seed: give a non-negative whole number");
+    request.seed = static_cast<std::uint64_t>(seed);
+  }
+  if (const auto t = args.value("--threads")) {
+    const long long threads = parseInteger(*t, "--threads");
+    if (threads < 1 || threads > 1024) throw InputError("--threads: give 1 to 1024");
+    request.threads = static_cast<unsigned>(threads);
+  }
+  const std::vector<std::string> models = args.values("--model");
+  for (std::size_t m = 1; m < models.size(); ++m) request.compareModelPaths.push_back(models[m]);
+  for (const auto& path : args.values("--compare")) request.compareModelPaths.push_back(path);
+  request.subgroupColumns = args.values("--subgroup");
+  if (const auto list = args.value("--size-thresholds")) {
+    for (const auto& item : splitList(*list, "--size-thresholds")) {
+      const double t = parseNumber(item, "--size-thresholds");
+      if (!(t > 0.0 && t < 1.0))
+        throw InputError("--size-thresholds: " + item + " is not in (0, 1)");
+      request.sampleSize.netBenefitThresholds.push_back(t);
+    }
+  }
+  return request;
+}
+
+std::optional<std::string> primaryModelPath(const Arguments& args) {
+  const std::vector<std::string> models = args.values("--model");
+  return models.empty() ? std::nullopt : std::optional(models.front());
+}
+
+std::string validationJsonText(const ValidationRun& run, const UncertaintyResults& results) {
+  nlohmann::json json = validationToJson(run);
+  addUncertaintyJson(json, results);
+  return json.dump(2) + "\n";
+}
+
+void printSampleSizeSummary(std::ostream& out, const UncertaintyResults& r) {
+  const SampleSizeAssessment& s = r.sampleSize;
+  out << "sample size: " << s.verdict << '\n';
+  for (const auto& rule : s.rules) {
+    out << "  " << (rule.met ? "met    " : "not met") << "  " << rule.rule << '\n';
+  }
+  for (const auto& c : s.criteria) {
+    out << "  " << (c.met ? "met    " : "not met") << "  " << c.criterion
+        << ": n >= " << c.requiredN << " (" << c.requiredEvents << " events) for a 95% CI width of "
+        << c.targetCiWidth;
+    if (c.achievedCiWidth) out << "; achieved width " << *c.achievedCiWidth;
+    out << '\n';
+  }
+  out << '\n';
+}
+
+void printUncertaintySummary(std::ostream& out, const UncertaintyResults& r) {
+  if (r.bootstrap) {
+    const ValidationBootstrap& b = *r.bootstrap;
+    out << "bootstrap: " << b.run.replicates << " resamples, seed " << b.run.seed << ", "
+        << b.run.threads << " threads, " << b.run.failed << " failed\n";
+    printEstimate(out, "AUC", b.auc);
+    printEstimate(out, "Brier", b.brier);
+    printEstimate(out, "scaled Brier", b.brierScaled);
+    printEstimate(out, "calibration intercept", b.calibrationIntercept);
+    printEstimate(out, "calibration slope", b.calibrationSlope);
+    printEstimate(out, "O/E", b.oeRatio);
+    printEstimate(out, "ICI", b.ici);
+    printEstimate(out, "E90", b.e90);
+    for (const auto& w : b.warnings) out << "  warning: " << w << '\n';
+  }
+  if (r.comparison) {
+    out << "comparison on " << r.comparisonRows << " patients:\n";
+    for (const auto& pair : r.comparison->pairs) {
+      const PairedAucTest& t = pair.auc;
+      out << "  AUC " << r.comparison->models[t.first] << " - " << r.comparison->models[t.second]
+          << " = " << t.difference << " (95% CI " << t.differenceCi.lo << " to "
+          << t.differenceCi.hi << "), paired DeLong z " << t.z << ", p " << t.pValue << '\n';
+    }
+    for (const auto& w : r.comparison->warnings) out << "  warning: " << w << '\n';
+  }
+  for (const auto& analysis : r.subgroups) {
+    out << "subgroups by " << analysis.column << ":\n";
+    for (const auto& level : analysis.levels) {
+      out << "  " << level.level << ": n " << level.n << ", events " << level.events;
+      if (level.metrics) {
+        out << ", AUC " << level.metrics->discrimination.auc << ", slope "
+            << level.metrics->calibration.slope << ", O/E " << level.metrics->calibration.oeRatio;
+      }
+      out << '\n';
+      for (const auto& w : level.warnings) out << "    warning: " << w << '\n';
+    }
+  }
+}
+
+}  // namespace calivera::cli

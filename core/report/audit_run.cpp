@@ -1,0 +1,55 @@
+#include "core/report/audit_run.h"
+
+#include "core/report/audit_format.h"
+
+namespace calivera {
+
+AuditReportInput auditInputFromRun(const ValidationRun& run, const std::string& title,
+                                   std::size_t suppressBelow) {
+  AuditReportInput input;
+  input.title = title;
+  input.softwareVersion = run.softwareVersion.empty() ? CALIVERA_VERSION : run.softwareVersion;
+  input.cohortFile = {run.request.dataPath, run.dataSha256};
+  input.exclusions = run.cohort.exclusions;
+  if (run.model) {
+    input.model = *run.model;
+    input.modelFile = {run.request.modelPath.value_or(""), run.modelSha256};
+  } else {
+    // Risks read from a column: there is no model file to fingerprint.
+    input.model.name = run.modelName;
+    input.modelFile = {"(" + run.modelName + ")", "none (risks read from the cohort file)"};
+  }
+  AuditSettings& settings = input.settings;
+  settings.outcomeColumn = run.request.outcome.column;
+  settings.eventValue = run.request.outcome.eventValue;
+  settings.groups = run.request.options.groups;
+  settings.apparent = run.performance == kPerformanceApparent;
+  if (run.request.options.thresholds.size() <= kMaxTabulatedThresholds) {
+    settings.tableThresholds = run.request.options.thresholds;
+  }
+  settings.suppressBelow = suppressBelow;
+  const ValidationOptions& options = run.request.options;
+  const std::vector<double>& grid = options.thresholds;
+  if (!grid.empty()) {
+    settings.other.emplace_back("Thresholds computed (decision curve)",
+                                std::to_string(grid.size()) + " from " +
+                                    formatThreshold(grid.front()) + " to " +
+                                    formatThreshold(grid.back()));
+  }
+  settings.other.emplace_back("Predicted risks from", run.model ? "model file (linear predictor)"
+                                                                : "risk column of the cohort");
+  settings.other.emplace_back("Performance basis", run.performanceBasis);
+  settings.other.emplace_back("Risk histogram bins", std::to_string(options.histogramBins));
+  std::string missing;
+  for (const std::string& token : run.request.csv.missingTokens) {
+    missing += (missing.empty() ? "" : ", ") + (token.empty() ? std::string("(empty)") : token);
+  }
+  settings.other.emplace_back("Missing-value tokens", missing.empty() ? "none" : missing);
+  for (const auto& [variable, column] : input.model.columnMapping) {
+    settings.other.emplace_back("Column mapping: " + variable, column);
+  }
+  input.result = run.result;
+  return input;
+}
+
+}  // namespace calivera

@@ -1,0 +1,109 @@
+#include "core/uncertainty/subgroups.h"
+
+#include <algorithm>
+#include <charconv>
+#include <map>
+
+#include "core/util/errors.h"
+
+namespace calivera {
+namespace {
+
+std::string shortestNumber(double value) {
+  char buffer[64];
+  const auto [end, ec] = std::to_chars(buffer, buffer + sizeof buffer, value);
+  return ec == std::errc() ? std::string(buffer, end) : std::to_string(value);
+}
+
+}  // namespace
+
+std::vector<std::string> subgroupLabels(const Table& table, const std::string& column,
+                                        const std::vector<std::uint32_t>& rows) {
+  const Column& c = table.require(column);
+  std::vector<std::string> labels;
+  labels.reserve(rows.size());
+  for (const std::uint32_t row : rows) {
+    if (c.isMissing(row)) {
+      labels.emplace_back(kMissingLevel);
+    } else if (c.kind == ColumnKind::Text) {
+      labels.push_back(c.levels[static_cast<std::size_t>(c.codes[row])]);
+    } else {
+      labels.push_back(shortestNumber(c.numbers[row]));
+    }
+  }
+  return labels;
+}
+
+SubgroupAnalysis validateSubgroups(const std::string& column,
+                                   const std::vector<std::string>& labels,
+                                   const ValidationInput& input, const ValidationOptions& options,
+                                   const ValidationBootstrapOptions& bootstrapOptions) {
+  if (labels.size() != input.outcome.size()) {
+    throw InputError("subgroup labels and patients differ in number");
+  }
+  // Level order: numbers ascending when every label is a number, else byte
+  // order; missing last.
+  std::map<std::string, std::vector<std::size_t>> members;
+  for (std::size_t i = 0; i < labels.size(); ++i) members[labels[i]].push_back(i);
+  std::vector<std::string> levels;
+  for (const auto& [level, unused] : members) {
+    if (level != kMissingLevel) levels.push_back(level);
+  }
+  const auto asNumber = [](const std::string& s, double& out) {
+    const auto [ptr, ec] = std::from_chars(s.data(), s.data() + s.size(), out);
+    return ec == std::errc() && ptr == s.data() + s.size();
+  };
+  double unusedNumber = 0.0;
+  if (std::all_of(levels.begin(), levels.end(),
+                  [&](const std::string& s) { return asNumber(s, unusedNumber); })) {
+    std::sort(levels.begin(), levels.end(), [&](const std::string& a, const std::string& b) {
+      double x = 0.0, y = 0.0;
+      asNumber(a, x);
+      asNumber(b, y);
+      return x < y;
+    });
+  }
+  if (members.count(kMissingLevel)) levels.emplace_back(kMissingLevel);
+
+  SubgroupAnalysis analysis;
+  analysis.column = column;
+  ValidationOptions levelOptions = options;
+  levelOptions.progress = nullptr;
+  for (const std::string& level : levels) {
+    const std::vector<std::size_t>& index = members[level];
+    SubgroupResult result;
+    result.level = level;
+    result.n = index.size();
+    ValidationInput subset;
+    std::vector<double> lp;
+    for (const std::size_t i : index) {
+      subset.outcome.push_back(input.outcome[i]);
+      subset.risk.push_back(input.risk[i]);
+      if (input.linearPredictor) lp.push_back((*input.linearPredictor)[i]);
+      result.events += input.outcome[i] > 0.5 ? 1 : 0;
+    }
+    if (input.linearPredictor) subset.linearPredictor = std::move(lp);
+    const std::size_t nonEvents = result.n - result.events;
+    if (result.events < 100 || nonEvents < 100) {
+      result.tooSmall = true;
+      result.warnings.push_back("fewer than 100 events or non-events (" +
+                                std::to_string(result.events) + " / " + std::to_string(nonEvents) +
+                                "): too small to judge this subgroup reliably");
+    } else if (result.events < 200) {
+      result.warnings.push_back("fewer than 200 events: the calibration curve is imprecise");
+    }
+    try {
+      result.metrics = validate(subset, levelOptions);
+      if (bootstrapOptions.bootstrap.replicates > 0) {
+        result.bootstrap =
+            bootstrapValidation(subset, levelOptions, *result.metrics, bootstrapOptions);
+      }
+    } catch (const AnalysisError& error) {
+      result.warnings.push_back(std::string("no metrics: ") + error.what());
+    }
+    analysis.levels.push_back(std::move(result));
+  }
+  return analysis;
+}
+
+}  // namespace calivera

@@ -1,0 +1,113 @@
+// The real `calivera update`, `calivera internal` and `calivera validate --bootstrap ...`
+// commands on birthwt (r-cran-mass, tests/reference/data/birthwt.csv): the files they write, their
+// JSON keys, reproducibility across --threads, and exit status 2 with no output file on bad input.
+#include <gtest/gtest.h>
+
+#include <cstdlib>
+#include <filesystem>
+#include <fstream>
+#include <nlohmann/json.hpp>
+
+#include "core/model/model_io.h"
+
+namespace calivera {
+namespace {
+
+namespace fs = std::filesystem;
+
+const std::string kData = std::string(CALIVERA_SOURCE_DIR) + "/tests/reference/data/birthwt.csv";
+
+class UncertaintyCommands : public ::testing::Test {
+ protected:
+  void SetUp() override {
+    dir_ = fs::temp_directory_path() /
+           ("calivera_uncertainty_" +
+            std::string(::testing::UnitTest::GetInstance()->current_test_info()->name()));
+    fs::remove_all(dir_);
+    fs::create_directories(dir_);
+    ASSERT_EQ(run("fit --data " + kData + " --outcome low --predictors age,lwt,race,smoke,ht,ui " +
+                  "--out " + path("fitted.json")),
+              0);
+  }
+  void TearDown() override { fs::remove_all(dir_); }
+  std::string path(const std::string& name) const { return (dir_ / name).string(); }
+  int run(const std::string& arguments) const {
+    const std::string command = std::string(CALIVERA_BINARY) + " " + arguments + " > " +
+                                path("stdout.txt") + " 2> " + path("stderr.txt");
+    const int status = std::system(command.c_str());
+    return WIFEXITED(status) ? WEXITSTATUS(status) : -1;
+  }
+  nlohmann::json json(const std::string& name) const {
+    std::ifstream in(path(name));
+    return nlohmann::json::parse(in);
+  }
+  fs::path dir_;
+};
+
+TEST_F(UncertaintyCommands, UpdateWritesAPlainModelWithProvenanceAndTheClosedTest) {
+  ASSERT_EQ(
+      run("update --data " + kData + " --outcome low --model " + path("fitted.json") +
+          " --method recalibrate --out " + path("recal.json") + " --json " + path("update.json")),
+      0);
+  const Model updated = readModelFile(path("recal.json"));
+  ASSERT_TRUE(updated.provenance);
+  EXPECT_NE(updated.provenance->find("recalibration"), std::string::npos);
+  const auto report = json("update.json");
+  // The model was fitted on these data: recalibration changes nothing (a = 0, b = 1).
+  EXPECT_NEAR(report["recalibration_slope"].get<double>(), 1.0, 1e-8);
+  EXPECT_EQ(report["closed_test"]["suggested"], "none");
+  EXPECT_EQ(report["closed_test"]["steps"].size(), 1u);
+}
+
+TEST_F(UncertaintyCommands, UpdateRejectsAnUnknownMethodWithoutWritingAFile) {
+  EXPECT_EQ(run("update --data " + kData + " --outcome low --model " + path("fitted.json") +
+                " --method shrink --out " + path("never.json")),
+            2);
+  EXPECT_FALSE(fs::exists(path("never.json")));
+}
+
+TEST_F(UncertaintyCommands, InternalIsReproducibleAcrossThreadsAndWritesAShrunkModel) {
+  const std::string base = "internal --data " + kData + " --outcome low --model " +
+                           path("fitted.json") + " --bootstrap 40 --seed 5 --no-ici";
+  ASSERT_EQ(run(base + " --threads 1 --json " + path("one.json")), 0);
+  ASSERT_EQ(run(base + " --threads 2 --json " + path("two.json") + " --shrunk-out " +
+                path("shrunk.json")),
+            0);
+  const auto one = json("one.json");
+  const auto two = json("two.json");
+  EXPECT_EQ(one["measures"], two["measures"]);
+  const double shrinkage = two["shrinkage_factor"].get<double>();
+  EXPECT_LT(shrinkage, 1.0);
+  const Model fitted = readModelFile(path("fitted.json"));
+  const Model shrunk = readModelFile(path("shrunk.json"));
+  EXPECT_NEAR(shrunk.terms[0].estimate.coefficient,
+              shrinkage * fitted.terms[0].estimate.coefficient, 1e-8);
+}
+
+TEST_F(UncertaintyCommands, ValidateAddsSampleSizeBootstrapComparisonAndSubgroups) {
+  ASSERT_EQ(run("update --data " + kData + " --outcome low --model " + path("fitted.json") +
+                " --method intercept --out " + path("other.json")),
+            0);
+  ASSERT_EQ(
+      run("fit --data " + kData + " --outcome low --predictors lwt --out " + path("small.json")),
+      0);
+  const std::string base = "validate --data " + kData + " --outcome low --model " +
+                           path("fitted.json") + " --compare " + path("small.json") +
+                           " --subgroup smoke --bootstrap 30 --seed 9";
+  ASSERT_EQ(run(base + " --threads 1 --json " + path("v1.json")), 0);
+  ASSERT_EQ(run(base + " --threads 2 --json " + path("v2.json")), 0);
+  const auto v1 = json("v1.json");
+  const auto v2 = json("v2.json");
+  for (const char* key : {"sample_size", "bootstrap", "comparison", "subgroups"}) {
+    ASSERT_TRUE(v1.contains(key)) << key;
+  }
+  EXPECT_EQ(v1["bootstrap"]["auc"], v2["bootstrap"]["auc"]);
+  EXPECT_EQ(v1["bootstrap"]["net_benefit_band"], v2["bootstrap"]["net_benefit_band"]);
+  EXPECT_FALSE(v1["sample_size"]["adequate"].get<bool>());  // 59 events
+  EXPECT_EQ(v1["subgroups"].size(), 2u);
+  EXPECT_EQ(v1["comparison"]["pairs"].size(), 1u);
+  EXPECT_TRUE(v1["comparison"]["pairs"][0]["p_value"].is_number());
+}
+
+}  // namespace
+}  // namespace calivera
