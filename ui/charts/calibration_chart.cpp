@@ -31,8 +31,13 @@ CalibrationChart::CalibrationChart(const Calibration& calibration,
     : groups_(calibration.groups), curve_(calibration.curve), axisMax_(axisLimit(calibration)) {
   applyChartStyle(this, QStringLiteral("Calibration — slope %1, intercept %2")
                             .arg(fixed(calibration.slope, 2), fixed(calibration.intercept, 2)));
-  auto* x = makeAxis(QStringLiteral("Predicted risk (probability)"), 0, axisMax_, "%.2f", 6);
-  auto* y = makeAxis(QStringLiteral("Observed proportion with the event"), 0, axisMax_, "%.2f", 6);
+  // One tick per 0.1 (axisMax_ is a multiple of 0.1), or per 0.05 when zoomed in closely.
+  const bool fine = axisMax_ <= 0.3;
+  const int tickCount = static_cast<int>(std::lround(axisMax_ * (fine ? 20 : 10))) + 1;
+  auto* x = makeAxis(QStringLiteral("Predicted risk (0–1)"), 0, axisMax_, fine ? "%.2f" : "%.1f",
+                     tickCount);
+  auto* y =
+      makeAxis(QStringLiteral("Observed (0–1)"), 0, axisMax_, fine ? "%.2f" : "%.1f", tickCount);
   addAxis(x, Qt::AlignBottom);
   addAxis(y, Qt::AlignLeft);
   auto attach = [&](QAbstractSeries* s, QValueAxis* yAxis) { addOnAxes(this, s, x, yAxis); };
@@ -50,43 +55,37 @@ CalibrationChart::CalibrationChart(const Calibration& calibration,
   addAxis(histogramAxis, Qt::AlignRight);
   if (!totals.empty()) {
     auto* histogram = makeHistogramArea(distribution.binEdges, totals);
-    histogram->setName(QStringLiteral("Distribution of predicted risks (relative height)"));
+    histogram->setName(QStringLiteral("Histogram"));
     histogram->setColor(QColor(200, 200, 200, 150));
     histogram->setBorderColor(palette::kGrey);
     attach(histogram, histogramAxis);
   }
 
   auto* ideal = new QLineSeries;
-  ideal->setName(QStringLiteral("Ideal (observed = predicted)"));
+  ideal->setName(QStringLiteral("Ideal"));
   ideal->setPen(rolePen(SeriesRole::Reference));
   ideal->append(0, 0);
   ideal->append(axisMax_, axisMax_);
   attach(ideal, y);
 
   auto* smooth = new QLineSeries;
-  smooth->setName(QStringLiteral("Smoothed calibration curve (loess)"));
+  smooth->setName(QStringLiteral("Loess curve"));
   smooth->setPen(rolePen(SeriesRole::Model));
   QList<QPointF> pts;
   for (const auto& p : curve_) pts.append(QPointF(p.risk, p.observed));
   smooth->replace(pts);
   attach(smooth, y);
 
-  bool first = true;
   for (const auto& g : groups_) {
     auto* bar = new QLineSeries;
     bar->setPen(rolePen(SeriesRole::Groups));
     bar->append(g.meanRisk, g.observedCi.lo);
     bar->append(g.meanRisk, g.observedCi.hi);
     attach(bar, y);
-    if (first) {
-      bar->setName(QStringLiteral("95% CI of a group (Wilson)"));
-      first = false;
-    } else {
-      hideFromLegend(this, bar);
-    }
+    hideFromLegend(this, bar);  // the group markers' legend entry names the CI bars too
   }
   auto* observed = new QScatterSeries;
-  observed->setName(QStringLiteral("Observed proportion per risk group"));
+  observed->setName(QStringLiteral("Groups, 95% CI"));
   observed->setMarkerShape(QScatterSeries::MarkerShapeRectangle);
   observed->setMarkerSize(9);
   observed->setColor(Qt::white);

@@ -22,10 +22,11 @@ DecisionCurveChart::DecisionCurveChart(const std::vector<DecisionCurvePoint>& cu
   xMax_ =
       curve_.empty() ? 1.0 : std::clamp(std::ceil(curve_.back().threshold * 10.0) / 10.0, 0.1, 1.0);
 
-  auto* x = makeAxis(QStringLiteral("Threshold probability (risk at which one would act)"), 0,
-                     xMax_, "%.1f", 6);
-  auto* y = makeAxis(QStringLiteral("Net benefit (net true positives per patient)"), yMin_, yMax_,
-                     "%.3f", 6);
+  auto* x = makeAxis(QStringLiteral("Threshold probability (0–1)"), 0, xMax_, "%.1f", 6);
+  auto* y = makeAxis(QStringLiteral("Net benefit (per patient)"), yMin_, yMax_, "%.3f", 6);
+  y->applyNiceNumbers();
+  yMin_ = y->min();
+  yMax_ = y->max();
   addAxis(x, Qt::AlignBottom);
   addAxis(y, Qt::AlignLeft);
   auto attach = [&](QAbstractSeries* s) { addOnAxes(this, s, x, y); };
@@ -35,7 +36,7 @@ DecisionCurveChart::DecisionCurveChart(const std::vector<DecisionCurvePoint>& cu
   auto* range = new QAreaSeries(rangeUpper_, rangeLower_);
   rangeUpper_->setParent(range);
   rangeLower_->setParent(range);
-  range->setName(QStringLiteral("Clinically reasonable thresholds (your setting)"));
+  range->setName(QStringLiteral("Reasonable range"));
   QColor fill = roleColor(SeriesRole::Range);
   fill.setAlpha(45);
   range->setColor(fill);
@@ -44,12 +45,12 @@ DecisionCurveChart::DecisionCurveChart(const std::vector<DecisionCurvePoint>& cu
 
   auto clampY = [&](double v) { return std::clamp(v, yMin_, yMax_); };
   auto* none = new QLineSeries;
-  none->setName(QStringLiteral("Treat no one"));
+  none->setName(QStringLiteral("Treat none"));
   none->setPen(rolePen(SeriesRole::TreatNone));
   none->append(0, 0);
   none->append(xMax_, 0);
   auto* all = new QLineSeries;
-  all->setName(QStringLiteral("Treat everyone"));
+  all->setName(QStringLiteral("Treat all"));
   all->setPen(rolePen(SeriesRole::TreatAll));
   auto* model = new QLineSeries;
   model->setName(QStringLiteral("Model"));

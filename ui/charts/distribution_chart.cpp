@@ -26,11 +26,13 @@ std::vector<double> percentages(const std::vector<std::size_t>& counts, std::siz
 }  // namespace
 
 DistributionChart::DistributionChart(const RiskHistogram& distribution) : histogram_(distribution) {
-  applyChartStyle(this, QStringLiteral("Predicted risk by outcome"));
   events_ =
       std::accumulate(histogram_.eventCounts.begin(), histogram_.eventCounts.end(), std::size_t{0});
   nonEvents_ = std::accumulate(histogram_.nonEventCounts.begin(), histogram_.nonEventCounts.end(),
                                std::size_t{0});
+  applyChartStyle(this, QStringLiteral("Risk by outcome: %1 with, %2 without the event")
+                            .arg(events_)
+                            .arg(nonEvents_));
   const auto eventPct = percentages(histogram_.eventCounts, events_);
   const auto nonEventPct = percentages(histogram_.nonEventCounts, nonEvents_);
   double top = 1.0;
@@ -38,8 +40,10 @@ DistributionChart::DistributionChart(const RiskHistogram& distribution) : histog
   for (double v : nonEventPct) top = std::max(top, v);
   yMax_ = std::ceil(top * 1.1);
 
-  auto* x = makeAxis(QStringLiteral("Predicted risk (probability)"), 0, 1, "%.1f", 6);
-  auto* y = makeAxis(QStringLiteral("Patients in their outcome group (%)"), 0, yMax_, "%.0f", 6);
+  auto* x = makeAxis(QStringLiteral("Predicted risk (0–1)"), 0, 1, "%.1f", 6);
+  auto* y = makeAxis(QStringLiteral("% of outcome group"), 0, yMax_, "%.0f", 6);
+  y->applyNiceNumbers();
+  yMax_ = y->max();
   addAxis(x, Qt::AlignBottom);
   addAxis(y, Qt::AlignLeft);
   auto attach = [&](QAbstractSeries* s) { addOnAxes(this, s, x, y); };
@@ -54,13 +58,11 @@ DistributionChart::DistributionChart(const RiskHistogram& distribution) : histog
     area->setPen(rolePen(role));
     attach(area);
   };
-  addGroup(nonEventPct, QStringLiteral("Without the event (n = %1), dashed").arg(nonEvents_),
-           SeriesRole::NonEvents, 70);
-  addGroup(eventPct, QStringLiteral("With the event (n = %1), solid").arg(events_),
-           SeriesRole::Events, 90);
+  addGroup(nonEventPct, QStringLiteral("No event (dashed)"), SeriesRole::NonEvents, 70);
+  addGroup(eventPct, QStringLiteral("Event (solid)"), SeriesRole::Events, 90);
 
   marker_ = new QLineSeries;
-  marker_->setName(QStringLiteral("Threshold (flagged at or above)"));
+  marker_->setName(QStringLiteral("Threshold"));
   marker_->setPen(rolePen(SeriesRole::Threshold));
   marker_->append(0, 0);
   marker_->append(0, yMax_);

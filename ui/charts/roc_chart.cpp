@@ -15,13 +15,13 @@ RocChart::RocChart(const Discrimination& discrimination) : points_(discriminatio
   applyChartStyle(this, QStringLiteral("ROC curve — AUC %1 (95% CI %2 to %3)")
                             .arg(fixed(discrimination.auc, 3), fixed(discrimination.aucCi.lo, 3),
                                  fixed(discrimination.aucCi.hi, 3)));
-  auto* x = makeAxis(QStringLiteral("1 − specificity (false-positive rate)"), 0, 1, "%.1f", 6);
-  auto* y = makeAxis(QStringLiteral("Sensitivity (true-positive rate)"), 0, 1, "%.1f", 6);
+  auto* x = makeAxis(QStringLiteral("1 − specificity"), 0, 1, "%.1f", 6);
+  auto* y = makeAxis(QStringLiteral("Sensitivity"), 0, 1, "%.1f", 6);
   addAxis(x, Qt::AlignBottom);
   addAxis(y, Qt::AlignLeft);
 
   auto* chance = new QLineSeries;
-  chance->setName(QStringLiteral("No discrimination (AUC 0.5)"));
+  chance->setName(QStringLiteral("Chance (AUC 0.5)"));
   chance->setPen(rolePen(SeriesRole::Reference));
   chance->append(0, 0);
   chance->append(1, 1);
@@ -35,7 +35,7 @@ RocChart::RocChart(const Discrimination& discrimination) : points_(discriminatio
   curve->replace(pts);
 
   operatingPoint_ = new QScatterSeries;
-  operatingPoint_->setName(QStringLiteral("Operating point at the threshold"));
+  operatingPoint_->setName(QStringLiteral("At the threshold"));
   operatingPoint_->setMarkerShape(QScatterSeries::MarkerShapeRectangle);
   operatingPoint_->setMarkerSize(13);
   operatingPoint_->setColor(roleColor(SeriesRole::Threshold));

@@ -1,0 +1,220 @@
+// Widget-free UI logic: threshold state, net benefit, table models and CSV export, the study file,
+// unit checks, the boundary tracer and the plain-language readings.
+#include <QSortFilterProxyModel>
+#include <QTemporaryDir>
+#include <QtTest>
+#include <cmath>
+#include <fstream>
+#include <random>
+
+#include "core/util/errors.h"
+#include "ui/models/record_table_model.h"
+#include "ui/models/result_tables.h"
+#include "ui/models/table_export.h"
+#include "ui/state/predictor_space.h"
+#include "ui/state/readings.h"
+#include "ui/state/study_file.h"
+#include "ui/state/threshold_state.h"
+#include "ui/state/unit_check.h"
+
+using namespace calivera;
+using namespace calivera::ui;
+
+class UiLogicTest : public QObject {
+  Q_OBJECT
+
+ private slots:
+  // Property: the O(log n) snapshot equals a direct count at every threshold (simulated data).
+  void snapshotMatchesDirectCount() {
+    std::mt19937 rng(3);
+    std::uniform_real_distribution<double> u(0, 1);
+    std::vector<double> risk(5000), outcome(5000);
+    for (std::size_t i = 0; i < risk.size(); ++i) {
+      risk[i] = std::round(u(rng) * 200) / 200;  // ties on purpose
+      outcome[i] = u(rng) < risk[i] ? 1 : 0;
+    }
+    ThresholdState state;
+    state.setData(risk, outcome);
+    for (double t : {0.0, 0.005, 0.1, 0.333, 0.5, 0.995, 1.0}) {
+      ConfusionCounts c;
+      for (std::size_t i = 0; i < risk.size(); ++i) {
+        const bool flagged = risk[i] >= t, event = outcome[i] > 0.5;
+        (flagged ? (event ? c.tp : c.fp) : (event ? c.fn : c.tn))++;
+      }
+      const ThresholdSnapshot s = state.snapshotAt(t);
+      QCOMPARE(s.counts.tp, c.tp);
+      QCOMPARE(s.counts.fp, c.fp);
+      QCOMPARE(s.counts.tn, c.tn);
+      QCOMPARE(s.counts.fn, c.fn);
+      QCOMPARE(s.flaggedPer1000, 1000.0 * double(c.tp + c.fp) / 5000.0);
+    }
+  }
+
+  // Vickers, van Calster & Steyerberg, Diagn Progn Res 2019;3:18, worked table (read):
+  // prevalence 0.30, treat-all net benefit 0.222 at t = 0.10 and 0.125 at t = 0.20.
+  void treatAllNetBenefitMatchesPublishedTable() {
+    const ConfusionCounts everyoneFlagged{30, 70, 0, 0};
+    QVERIFY(std::abs(snapshotFromCounts(0.10, everyoneFlagged).netBenefitTreatAll - 0.222) < 5e-4);
+    QVERIFY(std::abs(snapshotFromCounts(0.20, everyoneFlagged).netBenefitTreatAll - 0.125) < 5e-4);
+    // Treating everyone is the model that flags everyone: its NB equals treat-all.
+    const ThresholdSnapshot s = snapshotFromCounts(0.10, everyoneFlagged);
+    QCOMPARE(s.netBenefit, s.netBenefitTreatAll);
+  }
+
+  void undefinedProportionsAreNaN() {
+    const ThresholdSnapshot s = snapshotFromCounts(0.9, ConfusionCounts{0, 0, 70, 30});
+    QVERIFY(std::isnan(s.ppv));
+    QCOMPARE(s.sensitivity, 0.0);
+    QVERIFY(std::isnan(snapshotFromCounts(1.0, ConfusionCounts{1, 1, 1, 1}).netBenefit));
+  }
+
+  void nudgeStaysOnTheGridAndClamps() {
+    ThresholdState state;
+    state.setThreshold(0.1);
+    for (int i = 0; i < 20; ++i) state.nudge(1);
+    QCOMPARE(state.threshold(), 0.2);
+    state.setThreshold(0.998);
+    state.nudge(1);
+    QCOMPARE(state.threshold(), 1.0);
+    QVERIFY(!state.setThreshold(std::nan("")));
+  }
+
+  void tableSortsNumbersAsNumbersAndExportsCsv() {
+    RecordTableModel model;
+    model.setTable({"Name", "Value"}, {},
+                   {{{"a, with comma", 0}, {"10", 10}}, {{"b \"quoted\"", 0}, {"9", 9}}});
+    QSortFilterProxyModel proxy;
+    proxy.setSourceModel(&model);
+    proxy.setSortRole(RecordTableModel::kSortRole);
+    proxy.sort(1, Qt::AscendingOrder);
+    QCOMPARE(proxy.index(0, 1).data().toString(), QString("9"));
+    QCOMPARE(tableToCsv(proxy),
+             QString("Name,Value\r\n\"b \"\"quoted\"\"\",9\r\n\"a, with comma\",10\r\n"));
+    QCOMPARE(tableToTsv(proxy, {1}), QString("Name\tValue\r\na, with comma\t10\r\n"));
+  }
+
+  void nearestRowPicksTheClosestThreshold() {
+    std::vector<ThresholdRow> rows(3);
+    rows[0].threshold = 0.1;
+    rows[1].threshold = 0.2;
+    rows[2].threshold = 0.3;
+    QCOMPARE(nearestThresholdRow(rows, 0.0), 0);
+    QCOMPARE(nearestThresholdRow(rows, 0.16), 1);
+    QCOMPARE(nearestThresholdRow(rows, 0.14), 0);
+    QCOMPARE(nearestThresholdRow(rows, 0.9), 2);
+    QCOMPARE(nearestThresholdRow({}, 0.5), -1);
+  }
+
+  void studyFileRoundTrip() {
+    QTemporaryDir dir;
+    const std::string data = dir.filePath("cohort.csv").toStdString();
+    std::ofstream(data) << "x,y\n1,0\n";
+    StudyState s;
+    s.data = InputFileRecord{data, "abc"};
+    s.import.delimiter = ';';
+    s.import.missingTokens = {"", "NA", "."};
+    s.import.outcomeColumn = "died";
+    s.import.eventValue = "yes";
+    s.modelSource = ModelSource::Fitted;
+    s.fit.predictors = {"x"};
+    s.fit.firth = true;
+    s.columnMapping = {{"a", "b"}};
+    s.analysis.threshold = 0.125;
+    s.analysis.groups = 8;
+    s.heldValues = {{"x", "3"}};
+    const std::string path = dir.filePath("s.cvstudy").toStdString();
+    writeStudyFile(path, s);
+    const StudyState r = readStudyFile(path);
+    QCOMPARE(r.data->path, data);
+    QCOMPARE(r.import.delimiter, ';');
+    QCOMPARE(r.import.missingTokens, s.import.missingTokens);
+    QCOMPARE(*r.import.eventValue, std::string("yes"));
+    QVERIFY(r.modelSource == ModelSource::Fitted);
+    QCOMPARE(r.fit.predictors, s.fit.predictors);
+    QVERIFY(r.fit.firth);
+    QCOMPARE(r.columnMapping, s.columnMapping);
+    QCOMPARE(r.analysis.threshold, 0.125);
+    QCOMPARE(r.analysis.groups, 8);
+    QCOMPARE(r.heldValues, s.heldValues);
+    const auto checks = checkInputs(r);  // recorded SHA "abc" is not the file's
+    QCOMPARE(checks.size(), std::size_t{1});
+    QCOMPARE(checks[0].problem, std::string("changed since the study was saved"));
+  }
+
+  void studyFileErrorsNameTheField() {
+    try {
+      parseStudyJson(R"({"format": "calivera-study/1", "import": {}, "model": {},
+                         "analysis": {"threshold": 3}})",
+                     "x.cvstudy");
+      QFAIL("no error");
+    } catch (const InputError& e) {
+      QVERIFY2(QString(e.what()).contains("x.cvstudy: field 'analysis.threshold'"), e.what());
+    }
+    QVERIFY_THROWS_EXCEPTION(InputError, parseStudyJson(R"({"format": "other"})", "y"));
+    QVERIFY_THROWS_EXCEPTION(InputError, parseStudyJson("{", "z"));
+  }
+
+  void unitCheck() {
+    QCOMPARE(*unitFromHeader("creatinine [umol/L]"), std::string("umol/L"));
+    QCOMPARE(*unitFromHeader("age (years)"), std::string("years"));
+    QVERIFY(!unitFromHeader("creat_umol"));
+    QVERIFY(checkUnit(std::string("µmol/L"), "creatinine [umol/l]").verdict ==
+            UnitVerdict::Matches);
+    QVERIFY(checkUnit(std::string("mg/dL"), "creatinine [umol/L]").verdict == UnitVerdict::Differs);
+    QVERIFY(checkUnit(std::string("mg/dL"), "creatinine").verdict == UnitVerdict::ColumnSilent);
+    QVERIFY(checkUnit(std::nullopt, "creatinine").verdict == UnitVerdict::NotStated);
+  }
+
+  // A surface whose logit is linear: the traced boundary must satisfy the linear equation exactly
+  // (interpolation is on the logit scale).
+  void boundaryOfALinearLogitIsExact() {
+    BoundaryData s;
+    for (int i = 0; i < 30; ++i) s.xs.push_back(i / 29.0 * 10);
+    for (int j = 0; j < 30; ++j) s.ys.push_back(j / 29.0 * 5);
+    for (double y : s.ys) {
+      for (double x : s.xs) s.risk.push_back(1 / (1 + std::exp(-(-3 + 0.4 * x + 0.5 * y))));
+    }
+    const auto lines = contourAt(s, 0.5);
+    QCOMPARE(lines.size(), std::size_t{1});
+    QVERIFY(lines[0].size() > 20);
+    for (const auto& [x, y] : lines[0]) QVERIFY(std::abs(-3 + 0.4 * x + 0.5 * y) < 1e-9);
+    QVERIFY(contourAt(s, 0.999999).empty());
+  }
+
+  void curveCrossings() {
+    RiskCurveData c;
+    c.x = {0, 1, 2, 3};
+    c.risk = {0.1, 0.3, 0.5, 0.2};
+    const auto x = crossings(c, 0.4);
+    QCOMPARE(x.size(), std::size_t{2});
+    QVERIFY(std::abs(x[0] - 1.5) < 1e-12);
+    QVERIFY(std::abs(x[1] - (2 + 1.0 / 3)) < 1e-12);
+  }
+
+  void hierarchyReading() {
+    Calibration c;
+    c.interceptCi = {-0.1, 0.1};
+    c.slope = 0.95;
+    c.slopeCi = {0.8, 1.1};
+    QCOMPARE(readCalibrationHierarchy(c).level, std::string("weak"));
+    c.slopeCi = {0.6, 0.9};
+    c.slope = 0.75;
+    const HierarchyReading r = readCalibrationHierarchy(c);
+    QCOMPARE(r.level, std::string("mean"));
+    QVERIFY(r.explanation.find("too extreme") != std::string::npos);
+    c.interceptCi = {-0.5, -0.2};
+    c.intercept = -0.35;
+    QCOMPARE(readCalibrationHierarchy(c).level, std::string("none"));
+    QVERIFY(readCalibrationHierarchy(c).explanation.find("too high") != std::string::npos);
+  }
+
+  void sampleSizeWarnings() {
+    CohortSummary small{500, 40, 0.08, false};
+    QCOMPARE(calivera::ui::sampleSizeWarnings(small).size(), std::size_t{1});
+    CohortSummary fine{5000, 400, 0.08, false};
+    QVERIFY(calivera::ui::sampleSizeWarnings(fine).empty());
+  }
+};
+
+QTEST_MAIN(UiLogicTest)
+#include "ui_logic_test.moc"

@@ -1,0 +1,49 @@
+#pragma once
+// Fit a logistic model on the loaded cohort: choose the predictors, optionally Firth's penalized
+// likelihood, fit in the background, and read the coefficient table (Wald 95% CIs) with any
+// separation, convergence or rank warnings before accepting the model.
+
+#include <QDialog>
+#include <memory>
+#include <optional>
+
+#include "core/data/table.h"
+#include "ui/state/analysis.h"
+
+class QListWidget;
+class QCheckBox;
+class QLabel;
+class QPushButton;
+class QTableView;
+
+namespace calivera::ui {
+
+class BackgroundJob;
+class RecordTableModel;
+
+class FitDialog : public QDialog {
+  Q_OBJECT
+
+ public:
+  FitDialog(std::shared_ptr<const Table> table, ImportSettings import, const FitSettings& initial,
+            QWidget* parent = nullptr);
+
+  FitSettings fitSettings() const;
+  const FittedModel* fitted() const { return fitted_ ? &*fitted_ : nullptr; }
+  BackgroundJob* job() const { return job_; }
+  void startFit();
+
+ private:
+  std::shared_ptr<const Table> table_;
+  ImportSettings import_;
+  std::optional<FittedModel> fitted_;
+  QListWidget* predictors_ = nullptr;
+  QCheckBox* firth_ = nullptr;
+  QPushButton* fitButton_ = nullptr;
+  QPushButton* accept_ = nullptr;
+  QLabel* status_ = nullptr;
+  RecordTableModel* coefficients_ = nullptr;
+  BackgroundJob* job_ = nullptr;
+};
+
+}  // namespace calivera::ui

@@ -1,0 +1,331 @@
+#include "ui/dialogs/import_dialog.h"
+
+#include <QCheckBox>
+#include <QComboBox>
+#include <QDialogButtonBox>
+#include <QFile>
+#include <QFileDialog>
+#include <QFormLayout>
+#include <QHBoxLayout>
+#include <QHeaderView>
+#include <QLabel>
+#include <QLineEdit>
+#include <QPushButton>
+#include <QTableWidget>
+#include <QVBoxLayout>
+#include <cmath>
+#include <set>
+
+#include "core/data/cohort.h"
+#include "core/data/csv_reader.h"
+#include "ui/async/background_job.h"
+#include "ui/state/analysis.h"
+
+namespace calivera::ui {
+
+namespace {
+
+constexpr qint64 kPreviewBytes = 64 * 1024;
+const char* const kZeroOne = "(column holds 0 and 1)";
+
+QString levelText(const Column& c, std::size_t row) {
+  if (c.isMissing(row)) return QStringLiteral("·missing·");
+  if (c.kind == ColumnKind::Text) return QString::fromStdString(c.levels[c.codes[row]]);
+  return QString::number(c.numbers[row], 'g', 10);
+}
+
+}  // namespace
+
+ImportDialog::ImportDialog(QWidget* parent) : QDialog(parent) {
+  setObjectName(QStringLiteral("importDialog"));
+  setWindowTitle(tr("Import cohort CSV"));
+  job_ = new BackgroundJob(this);
+  auto* layout = new QVBoxLayout(this);
+  auto* form = new QFormLayout;
+
+  auto* pathRow = new QHBoxLayout;
+  path_ = new QLineEdit;
+  path_->setObjectName(QStringLiteral("importPath"));
+  auto* browse = new QPushButton(tr("&Browse…"));
+  browse->setObjectName(QStringLiteral("importBrowse"));
+  pathRow->addWidget(path_, 1);
+  pathRow->addWidget(browse);
+  form->addRow(tr("&File:"), pathRow);
+
+  delimiter_ = new QComboBox;
+  delimiter_->setObjectName(QStringLiteral("importDelimiter"));
+  delimiter_->addItem(tr("Detect from the header"), 0);
+  delimiter_->addItem(tr("Comma ,"), int(','));
+  delimiter_->addItem(tr("Semicolon ;"), int(';'));
+  delimiter_->addItem(tr("Tab"), int('\t'));
+  form->addRow(tr("&Delimiter:"), delimiter_);
+
+  auto* missingRow = new QHBoxLayout;
+  emptyIsMissing_ = new QCheckBox(tr("Empty field"));
+  emptyIsMissing_->setObjectName(QStringLiteral("importEmptyIsMissing"));
+  emptyIsMissing_->setChecked(true);
+  missingTokens_ = new QLineEdit(QStringLiteral("NA"));
+  missingTokens_->setObjectName(QStringLiteral("importMissingTokens"));
+  missingTokens_->setToolTip(tr("Other texts that mean 'missing', separated by commas"));
+  missingRow->addWidget(emptyIsMissing_);
+  missingRow->addWidget(new QLabel(tr("and these texts:")));
+  missingRow->addWidget(missingTokens_, 1);
+  form->addRow(tr("Missing values:"), missingRow);
+  layout->addLayout(form);
+
+  previewNote_ = new QLabel;
+  previewNote_->setObjectName(QStringLiteral("importPreviewNote"));
+  previewNote_->setWordWrap(true);
+  layout->addWidget(previewNote_);
+  preview_ = new QTableWidget;
+  preview_->setObjectName(QStringLiteral("importPreview"));
+  preview_->setEditTriggers(QAbstractItemView::NoEditTriggers);
+  preview_->setMinimumHeight(200);
+  layout->addWidget(preview_, 1);
+
+  auto* outcomeForm = new QFormLayout;
+  outcome_ = new QComboBox;
+  outcome_->setObjectName(QStringLiteral("importOutcome"));
+  eventValue_ = new QComboBox;
+  eventValue_->setObjectName(QStringLiteral("importEventValue"));
+  outcomeForm->addRow(tr("&Outcome column:"), outcome_);
+  outcomeForm->addRow(tr("&Value that means the event:"), eventValue_);
+  layout->addLayout(outcomeForm);
+
+  summary_ = new QLabel;
+  summary_->setObjectName(QStringLiteral("importSummary"));
+  summary_->setWordWrap(true);
+  summary_->setTextInteractionFlags(Qt::TextSelectableByMouse);
+  layout->addWidget(summary_);
+
+  buttons_ = new QDialogButtonBox(QDialogButtonBox::Ok | QDialogButtonBox::Cancel);
+  buttons_->setObjectName(QStringLiteral("importButtons"));
+  buttons_->button(QDialogButtonBox::Ok)->setObjectName(QStringLiteral("importAccept"));
+  buttons_->button(QDialogButtonBox::Ok)->setText(tr("&Import"));
+  layout->addWidget(buttons_);
+  connect(buttons_, &QDialogButtonBox::accepted, this, &QDialog::accept);
+  connect(buttons_, &QDialogButtonBox::rejected, this, &QDialog::reject);
+
+  connect(browse, &QPushButton::clicked, this, [this]() {
+    const QString p = QFileDialog::getOpenFileName(
+        this, tr("Cohort CSV"), path_->text(), tr("CSV files (*.csv *.tsv *.txt);;All files (*)"));
+    if (!p.isEmpty()) setPath(p);
+  });
+  connect(path_, &QLineEdit::editingFinished, this, &ImportDialog::refresh);
+  connect(delimiter_, &QComboBox::currentIndexChanged, this, &ImportDialog::refresh);
+  connect(emptyIsMissing_, &QCheckBox::toggled, this, &ImportDialog::refresh);
+  connect(missingTokens_, &QLineEdit::editingFinished, this, &ImportDialog::refresh);
+  connect(outcome_, &QComboBox::currentIndexChanged, this, [this]() {
+    pendingOutcome_ = outcome_->currentText();
+    refreshOutcomeChoices();
+  });
+  connect(eventValue_, &QComboBox::currentIndexChanged, this, &ImportDialog::refreshSummary);
+  connect(job_, &BackgroundJob::failed, this, [this](const QString& message) {
+    summary_->setText(tr("<b>The file cannot be imported:</b> %1").arg(message.toHtmlEscaped()));
+  });
+  connect(job_, &BackgroundJob::finished, this, [this]() {
+    if (refreshQueued_) {
+      refreshQueued_ = false;
+      startFullRead();
+    }
+  });
+  resize(900, 640);
+  refresh();
+}
+
+void ImportDialog::setInitial(const QString& path, const ImportSettings& settings) {
+  const int d = delimiter_->findData(int(settings.delimiter));
+  delimiter_->setCurrentIndex(d < 0 ? 0 : d);
+  QStringList others;
+  bool empty = false;
+  for (const auto& t : settings.missingTokens) {
+    if (t.empty()) {
+      empty = true;
+    } else {
+      others << QString::fromStdString(t);
+    }
+  }
+  emptyIsMissing_->setChecked(empty);
+  missingTokens_->setText(others.join(QStringLiteral(", ")));
+  pendingOutcome_ = QString::fromStdString(settings.outcomeColumn);
+  pendingEvent_ = settings.eventValue ? QString::fromStdString(*settings.eventValue) : QString();
+  setPath(path);
+}
+
+void ImportDialog::setPath(const QString& path) {
+  path_->setText(path);
+  refresh();
+}
+
+QString ImportDialog::path() const {
+  return path_->text().trimmed();
+}
+
+ImportSettings ImportDialog::settings() const {
+  ImportSettings s;
+  s.delimiter = static_cast<char>(delimiter_->currentData().toInt());
+  s.missingTokens.clear();
+  if (emptyIsMissing_->isChecked()) s.missingTokens.emplace_back();
+  for (const QString& t : missingTokens_->text().split(',', Qt::SkipEmptyParts)) {
+    if (!t.trimmed().isEmpty()) s.missingTokens.push_back(t.trimmed().toStdString());
+  }
+  s.outcomeColumn = outcome_->currentText().toStdString();
+  if (eventValue_->currentIndex() > 0) s.eventValue = eventValue_->currentText().toStdString();
+  return s;
+}
+
+QString ImportDialog::summaryText() const {
+  return summary_->text();
+}
+
+void ImportDialog::refresh() {
+  refreshPreview();
+  startFullRead();
+}
+
+void ImportDialog::refreshPreview() {
+  preview_->clear();
+  preview_->setRowCount(0);
+  preview_->setColumnCount(0);
+  if (path().isEmpty()) {
+    previewNote_->setText(tr("Choose a CSV file with one row per patient and a header row."));
+    return;
+  }
+  QFile file(path());
+  if (!file.open(QIODevice::ReadOnly)) {
+    previewNote_->setText(tr("Cannot open %1: %2").arg(path(), file.errorString()));
+    return;
+  }
+  QByteArray head = file.read(kPreviewBytes);
+  if (!file.atEnd()) head.truncate(head.lastIndexOf('\n') + 1);  // whole lines only
+  try {
+    const CsvReadResult r = parseCsv(std::string_view(head.constData(), std::size_t(head.size())),
+                                     path().toStdString(), csvOptionsFor(settings()));
+    const Table& t = r.table;
+    const int rows = static_cast<int>(std::min<std::size_t>(t.rowCount, kPreviewRows));
+    preview_->setColumnCount(static_cast<int>(t.columns.size()));
+    preview_->setRowCount(rows);
+    QStringList headers;
+    for (const Column& c : t.columns) {
+      headers << QStringLiteral("%1\n(%2)")
+                     .arg(QString::fromStdString(c.name),
+                          c.kind == ColumnKind::Numeric ? tr("number") : tr("text"));
+    }
+    preview_->setHorizontalHeaderLabels(headers);
+    for (int row = 0; row < rows; ++row) {
+      for (std::size_t col = 0; col < t.columns.size(); ++col) {
+        preview_->setItem(row, int(col), new QTableWidgetItem(levelText(t.columns[col], row)));
+      }
+    }
+    preview_->horizontalHeader()->setSectionResizeMode(QHeaderView::ResizeToContents);
+    const QString delim = r.delimiter == '\t' ? tr("tab") : QString(QChar(r.delimiter));
+    previewNote_->setText(tr("First %1 rows, delimiter %2%3. Column types are judged from these "
+                             "rows; the full read below decides.")
+                              .arg(rows)
+                              .arg(delim, r.delimiterDetected ? tr(" (detected)") : QString()));
+  } catch (const std::exception& e) {
+    previewNote_->setText(tr("Preview not available: %1").arg(QString::fromStdString(e.what())));
+  }
+}
+
+void ImportDialog::startFullRead() {
+  table_.reset();
+  buttons_->button(QDialogButtonBox::Ok)->setEnabled(false);
+  if (path().isEmpty()) return;
+  if (job_->isRunning()) {
+    job_->cancel();
+    refreshQueued_ = true;
+    return;
+  }
+  summary_->setText(tr("Reading the whole file…"));
+  const std::string file = path().toStdString();
+  const ImportSettings s = settings();
+  std::function<std::shared_ptr<const Table>(const ProgressCallback&)> work =
+      [file, s](const ProgressCallback&) { return loadCohortFile(file, s).table; };
+  std::function<void(std::shared_ptr<const Table>&)> done =
+      [this](std::shared_ptr<const Table>& t) {
+        table_ = t;
+        const QString keep = pendingOutcome_;
+        outcome_->blockSignals(true);
+        outcome_->clear();
+        for (const Column& c : table_->columns) outcome_->addItem(QString::fromStdString(c.name));
+        const int i = outcome_->findText(keep);
+        outcome_->setCurrentIndex(i >= 0 ? i : -1);
+        outcome_->blockSignals(false);
+        refreshOutcomeChoices();
+      };
+  job_->start<std::shared_ptr<const Table>>(tr("Reading"), work, done);
+}
+
+void ImportDialog::refreshOutcomeChoices() {
+  const QString keep = pendingEvent_;
+  eventValue_->blockSignals(true);
+  eventValue_->clear();
+  eventValue_->addItem(tr(kZeroOne));
+  if (table_ != nullptr) {
+    if (const Column* c = table_->find(outcome_->currentText().toStdString())) {
+      if (c->kind == ColumnKind::Text) {
+        for (const auto& level : c->levels) eventValue_->addItem(QString::fromStdString(level));
+      } else {
+        std::set<double> values;
+        for (double v : c->numbers) {
+          if (!std::isnan(v)) values.insert(v);
+          if (values.size() > 20) break;
+        }
+        if (values.size() <= 20) {
+          for (double v : values) eventValue_->addItem(QString::number(v, 'g', 10));
+        }
+      }
+    }
+  }
+  const int i = keep.isEmpty() ? 0 : eventValue_->findText(keep);
+  eventValue_->setCurrentIndex(i >= 0 ? i : 0);
+  eventValue_->blockSignals(false);
+  refreshSummary();
+}
+
+void ImportDialog::refreshSummary() {
+  pendingEvent_ = eventValue_->currentIndex() > 0 ? eventValue_->currentText() : QString();
+  if (table_ == nullptr) return;
+  QString text =
+      tr("<b>%1 rows, %2 columns read.</b>").arg(table_->rowCount).arg(table_->columns.size());
+  const ImportSettings s = settings();
+  const bool ok = !s.outcomeColumn.empty();
+  buttons_->button(QDialogButtonBox::Ok)->setEnabled(ok);
+  if (!ok) {
+    summary_->setText(text + tr(" Choose the outcome column."));
+    return;
+  }
+  try {
+    const AnalysisRows rows = selectCompleteCases(*table_, {s.outcomeColumn});
+    const std::vector<double> y =
+        outcomeValues(*table_, OutcomeSpec{s.outcomeColumn, s.eventValue}, rows.rows);
+    std::size_t events = 0;
+    for (double v : y) events += v > 0.5 ? 1 : 0;
+    text += tr(" Outcome '%1': %2 events among %3 rows with a recorded outcome.")
+                .arg(QString::fromStdString(s.outcomeColumn))
+                .arg(events)
+                .arg(y.size());
+    text += tr("<br><b>Excluded:</b> %1 rows without a recorded outcome.")
+                .arg(rows.exclusions.rowsExcluded);
+    QStringList missing;
+    for (const Column& c : table_->columns) {
+      if (c.missingCount > 0 && c.name != s.outcomeColumn) {
+        missing << tr("%1 (%2 missing)").arg(QString::fromStdString(c.name)).arg(c.missingCount);
+      }
+    }
+    if (!missing.isEmpty()) {
+      text += tr(" Rows missing a value in a column the model uses are excluded too (complete "
+                 "cases); columns with missing values: %1.")
+                  .arg(missing.join(QStringLiteral(", ")));
+    } else {
+      text += tr(" No other column has missing values.");
+    }
+  } catch (const std::exception& e) {
+    buttons_->button(QDialogButtonBox::Ok)->setEnabled(false);
+    text += tr("<br><b>Problem:</b> %1").arg(QString::fromStdString(e.what()).toHtmlEscaped());
+  }
+  summary_->setText(text);
+}
+
+}  // namespace calivera::ui

@@ -1,0 +1,66 @@
+#pragma once
+// Import a cohort CSV: choose the file, the delimiter and the missing-value tokens, see a live
+// preview of the first rows, choose the outcome column and the value that means "event", and read
+// a summary of what will be excluded and why. The whole file is read in the background while the
+// dialog is open, so the summary counts every row; the loaded table is handed to the caller.
+
+#include <QDialog>
+#include <memory>
+
+#include "core/data/table.h"
+#include "ui/state/study_state.h"
+
+class QComboBox;
+class QLabel;
+class QLineEdit;
+class QCheckBox;
+class QTableWidget;
+class QDialogButtonBox;
+
+namespace calivera::ui {
+
+class BackgroundJob;
+
+class ImportDialog : public QDialog {
+  Q_OBJECT
+
+ public:
+  static constexpr int kPreviewRows = 20;
+
+  explicit ImportDialog(QWidget* parent = nullptr);
+
+  void setInitial(const QString& path, const ImportSettings& settings);
+  void setPath(const QString& path);  // refreshes preview and starts the full read
+
+  QString path() const;
+  ImportSettings settings() const;
+  // The fully read table for the current settings; null while reading or after an error.
+  std::shared_ptr<const Table> loadedTable() const { return table_; }
+  BackgroundJob* job() const { return job_; }
+  QString summaryText() const;
+
+ private:
+  void refresh();
+  void refreshPreview();
+  void startFullRead();
+  void refreshOutcomeChoices();
+  void refreshSummary();
+
+  QLineEdit* path_ = nullptr;
+  QComboBox* delimiter_ = nullptr;
+  QCheckBox* emptyIsMissing_ = nullptr;
+  QLineEdit* missingTokens_ = nullptr;
+  QTableWidget* preview_ = nullptr;
+  QLabel* previewNote_ = nullptr;
+  QComboBox* outcome_ = nullptr;
+  QComboBox* eventValue_ = nullptr;
+  QLabel* summary_ = nullptr;
+  QDialogButtonBox* buttons_ = nullptr;
+  BackgroundJob* job_ = nullptr;
+  std::shared_ptr<const Table> table_;
+  QString pendingOutcome_;
+  QString pendingEvent_;
+  bool refreshQueued_ = false;
+};
+
+}  // namespace calivera::ui

@@ -1,0 +1,404 @@
+#include "ui/main_window.h"
+
+#include <QAction>
+#include <QApplication>
+#include <QCheckBox>
+#include <QCloseEvent>
+#include <QGridLayout>
+#include <QHBoxLayout>
+#include <QHeaderView>
+#include <QLabel>
+#include <QMenuBar>
+#include <QProgressBar>
+#include <QPushButton>
+#include <QScrollArea>
+#include <QShortcut>
+#include <QSortFilterProxyModel>
+#include <QSpinBox>
+#include <QSplitter>
+#include <QStatusBar>
+#include <QTabWidget>
+#include <QTableView>
+#include <QTextBrowser>
+#include <QToolBar>
+#include <QVBoxLayout>
+
+#include "ui/async/background_job.h"
+#include "ui/models/record_table_model.h"
+#include "ui/views/caution_text.h"
+#include "ui/views/chart_panel.h"
+#include "ui/views/confusion_panel.h"
+#include "ui/views/predictor_view.h"
+#include "ui/views/threshold_bar.h"
+
+namespace calivera::ui {
+
+MainWindow::MainWindow(QWidget* parent) : QMainWindow(parent) {
+  setObjectName(QStringLiteral("mainWindow"));
+  setWindowTitle(tr("Calivera workstation"));
+  job_ = new BackgroundJob(this);
+  job_->setObjectName(QStringLiteral("backgroundJob"));
+
+  auto* central = new QWidget;
+  central->setObjectName(QStringLiteral("centralArea"));
+  auto* layout = new QVBoxLayout(central);
+  layout->setContentsMargins(0, 0, 0, 0);
+  layout->setSpacing(0);
+  buildBanner(central);
+  layout->addWidget(banner_);
+
+  messageBar_ = new QWidget;
+  messageBar_->setObjectName(QStringLiteral("messageBar"));
+  auto* messageLayout = new QHBoxLayout(messageBar_);
+  messageLayout->setContentsMargins(8, 4, 8, 4);
+  messageText_ = new QLabel;
+  messageText_->setObjectName(QStringLiteral("messageText"));
+  messageText_->setWordWrap(true);
+  messageText_->setTextInteractionFlags(Qt::TextSelectableByMouse);
+  auto* dismiss = new QPushButton(tr("Dismiss"));
+  dismiss->setObjectName(QStringLiteral("messageDismiss"));
+  connect(dismiss, &QPushButton::clicked, this, &MainWindow::clearMessage);
+  messageLayout->addWidget(messageText_, 1);
+  messageLayout->addWidget(dismiss);
+  messageBar_->hide();
+  layout->addWidget(messageBar_);
+
+  thresholdBar_ = new ThresholdBar;
+  layout->addWidget(thresholdBar_);
+  connect(thresholdBar_, &ThresholdBar::thresholdEdited, this, &MainWindow::setThreshold);
+  connect(thresholdBar_, &ThresholdBar::reasonableRangeEdited, this, [this](double lo, double hi) {
+    study_.analysis.reasonableLo = lo;
+    study_.analysis.reasonableHi = hi;
+    rebuildViews();
+  });
+
+  tabs_ = new QTabWidget;
+  tabs_->setObjectName(QStringLiteral("mainTabs"));
+  tabs_->addTab(buildLinkedViewsTab(), tr("&Linked views"));
+  summary_ = new QTextBrowser;
+  summary_->setObjectName(QStringLiteral("summaryPanel"));
+  summary_->setOpenLinks(false);
+  tabs_->addTab(summary_, tr("&Summary"));
+  tabs_->addTab(buildTablesTab(), tr("&Tables"));
+  tabs_->addTab(buildModelTab(), tr("&Model"));
+  predictorView_ = new PredictorView;
+  connect(predictorView_, &PredictorView::thresholdPicked, this, &MainWindow::setThreshold);
+  connect(predictorView_, &PredictorView::settingsChanged, this,
+          [this](const std::vector<std::string>& chosen,
+                 const std::map<std::string, std::string>& held) {
+            study_.predictorView = chosen;
+            study_.heldValues = held;
+          });
+  tabs_->addTab(predictorView_, tr("&Predictor space"));
+  layout->addWidget(tabs_, 1);
+
+  status_ = new QLabel;
+  status_->setObjectName(QStringLiteral("studyStatus"));
+  statusBar()->setObjectName(QStringLiteral("statusBar"));
+  statusBar()->addWidget(status_, 1);
+
+  setCentralWidget(central);
+  buildMenus();
+  buildToolBar();
+
+  connect(job_, &BackgroundJob::progressChanged, this,
+          [this](int permille) { progress_->setValue(permille); });
+  connect(job_, &BackgroundJob::started, this, [this](const QString& what) {
+    progress_->setFormat(what + QStringLiteral(" %p%"));
+    progress_->setVisible(true);
+    updateActions();
+  });
+  connect(job_, &BackgroundJob::finished, this, [this]() {
+    progress_->setVisible(false);
+    updateActions();
+  });
+  connect(job_, &BackgroundJob::failed, this,
+          [this](const QString& message) { showMessage(message, true); });
+  connect(job_, &BackgroundJob::cancelled, this,
+          [this]() { showMessage(tr("Cancelled. The previous results are unchanged."), false); });
+
+  thresholdBar_->setThreshold(study_.analysis.threshold);
+  thresholdBar_->setReasonableRange(study_.analysis.reasonableLo, study_.analysis.reasonableHi);
+  rebuildRecentMenu();
+  rebuildViews();
+  updateStatus();
+  updateActions();
+  resize(1280, 800);
+}
+
+MainWindow::~MainWindow() = default;
+
+void MainWindow::buildBanner(QWidget* host) {
+  banner_ = new QLabel(cautionText(), host);
+  banner_->setObjectName(QStringLiteral("cautionBanner"));
+  banner_->setWordWrap(true);
+  banner_->setTextFormat(Qt::PlainText);
+  banner_->setContentsMargins(10, 6, 10, 6);
+  // Not dismissible: no close button, and nothing hides it for the session.
+  banner_->setStyleSheet(QStringLiteral(
+      "QLabel#cautionBanner { background: #fff4cc; color: #000; border-bottom: 2px solid #b08800; "
+      "font-weight: 600; }"));
+}
+
+void MainWindow::buildMenus() {
+  QMenu* file = menuBar()->addMenu(tr("&File"));
+  file->setObjectName(QStringLiteral("menuFile"));
+  auto add = [this](QMenu* menu, const QString& objectName, const QString& text,
+                    const QKeySequence& key, void (MainWindow::*slot)()) {
+    QAction* a = menu->addAction(text);
+    a->setObjectName(objectName);
+    if (!key.isEmpty()) a->setShortcut(key);
+    connect(a, &QAction::triggered, this, slot);
+    return a;
+  };
+  actionOpen_ = add(file, QStringLiteral("actionOpenStudy"), tr("&Open study…"), QKeySequence::Open,
+                    &MainWindow::onOpenStudy);
+  recentMenu_ = file->addMenu(tr("Recent &studies"));
+  recentMenu_->setObjectName(QStringLiteral("menuRecentStudies"));
+  actionSave_ = file->addAction(tr("&Save study"));
+  actionSave_->setObjectName(QStringLiteral("actionSaveStudy"));
+  actionSave_->setShortcut(QKeySequence::Save);
+  connect(actionSave_, &QAction::triggered, this, [this]() { onSaveStudy(false); });
+  actionSaveAs_ = file->addAction(tr("Save study &as…"));
+  actionSaveAs_->setObjectName(QStringLiteral("actionSaveStudyAs"));
+  actionSaveAs_->setShortcut(QKeySequence::SaveAs);
+  connect(actionSaveAs_, &QAction::triggered, this, [this]() { onSaveStudy(true); });
+  file->addSeparator();
+  actionImport_ = add(file, QStringLiteral("actionImportCohort"), tr("&Import cohort CSV…"),
+                      QKeySequence(Qt::CTRL | Qt::Key_I), &MainWindow::onImportCohort);
+  file->addSeparator();
+  actionExportCharts_ =
+      add(file, QStringLiteral("actionExportCharts"), tr("&Export all charts (PNG and SVG)…"),
+          QKeySequence(Qt::CTRL | Qt::Key_E), &MainWindow::onExportCharts);
+  actionExportTable_ =
+      add(file, QStringLiteral("actionExportTable"), tr("Export current &table as CSV…"),
+          QKeySequence(Qt::CTRL | Qt::SHIFT | Qt::Key_E), &MainWindow::onExportTable);
+  actionExportReport_ = add(file, QStringLiteral("actionExportReport"), tr("Export &report…"),
+                            QKeySequence(Qt::CTRL | Qt::Key_P), &MainWindow::onExportReport);
+  file->addSeparator();
+  QAction* quit = file->addAction(tr("&Quit"));
+  quit->setObjectName(QStringLiteral("actionQuit"));
+  quit->setShortcut(QKeySequence::Quit);
+  connect(quit, &QAction::triggered, this, &QWidget::close);
+
+  QMenu* model = menuBar()->addMenu(tr("&Model"));
+  model->setObjectName(QStringLiteral("menuModel"));
+  actionLoadModel_ = add(model, QStringLiteral("actionLoadModel"), tr("&Load model file…"),
+                         QKeySequence(Qt::CTRL | Qt::Key_L), &MainWindow::onLoadModel);
+  actionFit_ = add(model, QStringLiteral("actionFitModel"), tr("&Fit a model on this cohort…"),
+                   QKeySequence(Qt::CTRL | Qt::SHIFT | Qt::Key_F), &MainWindow::onFitModel);
+  actionMap_ = add(model, QStringLiteral("actionMapVariables"),
+                   tr("&Map model variables to cohort columns…"), QKeySequence(),
+                   &MainWindow::onMapVariables);
+
+  QMenu* analysis = menuBar()->addMenu(tr("&Analysis"));
+  analysis->setObjectName(QStringLiteral("menuAnalysis"));
+  actionRun_ = analysis->addAction(tr("&Run validation"));
+  actionRun_->setObjectName(QStringLiteral("actionRunValidation"));
+  actionRun_->setShortcut(QKeySequence(Qt::CTRL | Qt::Key_R));
+  connect(actionRun_, &QAction::triggered, this, [this]() { runValidation(); });
+  actionCancel_ = analysis->addAction(tr("&Cancel running job"));
+  actionCancel_->setObjectName(QStringLiteral("actionCancel"));
+  actionCancel_->setShortcut(QKeySequence(Qt::Key_Escape));
+  connect(actionCancel_, &QAction::triggered, job_, &BackgroundJob::cancel);
+  analysis->addSeparator();
+  QAction* up = analysis->addAction(tr("Raise threshold by 0.005"));
+  up->setObjectName(QStringLiteral("actionThresholdUp"));
+  up->setShortcut(QKeySequence(Qt::CTRL | Qt::Key_Up));
+  connect(up, &QAction::triggered, this, [this]() {
+    if (threshold_.nudge(1)) setThreshold(threshold_.threshold());
+  });
+  QAction* down = analysis->addAction(tr("Lower threshold by 0.005"));
+  down->setObjectName(QStringLiteral("actionThresholdDown"));
+  down->setShortcut(QKeySequence(Qt::CTRL | Qt::Key_Down));
+  connect(down, &QAction::triggered, this, [this]() {
+    if (threshold_.nudge(-1)) setThreshold(threshold_.threshold());
+  });
+
+  QMenu* edit = menuBar()->addMenu(tr("&Edit"));
+  edit->setObjectName(QStringLiteral("menuEdit"));
+  QAction* copy = add(edit, QStringLiteral("actionCopyTable"), tr("&Copy selected table rows"),
+                      QKeySequence::Copy, &MainWindow::onCopyTable);
+  copy->setShortcutContext(Qt::WidgetWithChildrenShortcut);
+  tabs_->addAction(copy);
+}
+
+void MainWindow::buildToolBar() {
+  QToolBar* bar = addToolBar(tr("Study"));
+  bar->setObjectName(QStringLiteral("mainToolBar"));
+  bar->setMovable(false);
+  bar->setToolButtonStyle(Qt::ToolButtonTextOnly);
+  bar->addAction(actionOpen_);
+  bar->addAction(actionSave_);
+  bar->addSeparator();
+  bar->addAction(actionImport_);
+  bar->addAction(actionLoadModel_);
+  bar->addAction(actionFit_);
+  bar->addSeparator();
+  auto* groupsLabel = new QLabel(tr(" Risk groups: "));
+  groupsLabel->setObjectName(QStringLiteral("groupsLabel"));
+  groups_ = new QSpinBox;
+  groups_->setObjectName(QStringLiteral("groupsSpin"));
+  groups_->setRange(2, 50);
+  groups_->setValue(study_.analysis.groups);
+  groups_->setToolTip(tr("Number of risk groups for the calibration table and Hosmer-Lemeshow"));
+  connect(groups_, &QSpinBox::valueChanged, this, [this](int g) { study_.analysis.groups = g; });
+  apparent_ = new QCheckBox(tr("Cohort is the development data"));
+  apparent_->setObjectName(QStringLiteral("apparentCheck"));
+  apparent_->setToolTip(
+      tr("Tick when the model was developed on this very cohort: the results "
+         "are then apparent (optimistic) performance, and Hosmer-Lemeshow uses "
+         "g − 2 degrees of freedom"));
+  connect(apparent_, &QCheckBox::toggled, this, [this](bool on) { study_.analysis.apparent = on; });
+  bar->addWidget(groupsLabel);
+  bar->addWidget(groups_);
+  bar->addWidget(apparent_);
+  bar->addSeparator();
+  bar->addAction(actionRun_);
+  progress_ = new QProgressBar;
+  progress_->setObjectName(QStringLiteral("runProgress"));
+  progress_->setRange(0, 1000);
+  progress_->setMaximumWidth(260);
+  progress_->setVisible(false);
+  bar->addWidget(progress_);
+  bar->addAction(actionCancel_);
+  if (QWidget* w = bar->widgetForAction(actionCancel_)) w->setObjectName("cancelButton");
+  if (QWidget* w = bar->widgetForAction(actionRun_)) w->setObjectName("runButton");
+}
+
+QWidget* MainWindow::buildLinkedViewsTab() {
+  auto* page = new QSplitter(Qt::Horizontal);
+  page->setObjectName(QStringLiteral("linkedViewsPage"));
+  auto* grid = new QWidget;
+  grid->setObjectName(QStringLiteral("chartGrid"));
+  auto* gridLayout = new QGridLayout(grid);
+  gridLayout->setContentsMargins(2, 2, 2, 2);
+  gridLayout->setSpacing(2);
+  roc_ = new ChartPanel(QStringLiteral("rocView"));
+  calibration_ = new ChartPanel(QStringLiteral("calibrationView"));
+  decision_ = new ChartPanel(QStringLiteral("decisionCurveView"));
+  distribution_ = new ChartPanel(QStringLiteral("distributionView"));
+  gridLayout->addWidget(roc_, 0, 0);
+  gridLayout->addWidget(calibration_, 0, 1);
+  gridLayout->addWidget(decision_, 1, 0);
+  gridLayout->addWidget(distribution_, 1, 1);
+  for (ChartPanel* panel : {roc_, calibration_, decision_, distribution_}) {
+    connect(panel, &ChartPanel::thresholdPicked, this, &MainWindow::setThreshold);
+    connect(panel, &ChartPanel::exportRequested, this, &MainWindow::onExportChart);
+    connect(panel, &ChartPanel::nudgeRequested, this, [this](int steps) {
+      if (threshold_.nudge(steps)) setThreshold(threshold_.threshold());
+    });
+  }
+  confusion_ = new ConfusionPanel;
+  // A scroll area gives the word-wrapped labels their full height for the panel's width.
+  auto* side = new QScrollArea;
+  side->setObjectName(QStringLiteral("confusionScroll"));
+  side->setWidget(confusion_);
+  side->setWidgetResizable(true);
+  side->setHorizontalScrollBarPolicy(Qt::ScrollBarAlwaysOff);
+  side->setFixedWidth(340);
+  page->addWidget(grid);
+  page->addWidget(side);
+  page->setStretchFactor(0, 1);
+  page->setStretchFactor(1, 0);
+  return page;
+}
+
+QTableView* MainWindow::makeTableView(const QString& objectName, RecordTableModel* model,
+                                      QSortFilterProxyModel** proxyOut) {
+  auto* proxy = new QSortFilterProxyModel(this);
+  proxy->setObjectName(objectName + QStringLiteral("Proxy"));
+  proxy->setSourceModel(model);
+  proxy->setSortRole(RecordTableModel::kSortRole);
+  auto* view = new QTableView;
+  view->setObjectName(objectName);
+  view->setModel(proxy);
+  view->setSortingEnabled(true);
+  view->setSelectionBehavior(QAbstractItemView::SelectRows);
+  view->setSelectionMode(QAbstractItemView::ExtendedSelection);
+  view->setAlternatingRowColors(true);
+  view->verticalHeader()->setVisible(false);
+  view->horizontalHeader()->setSectionResizeMode(QHeaderView::ResizeToContents);
+  view->setEditTriggers(QAbstractItemView::NoEditTriggers);
+  if (proxyOut != nullptr) *proxyOut = proxy;
+  return view;
+}
+
+QWidget* MainWindow::buildTablesTab() {
+  auto* tabs = new QTabWidget;
+  tabs->setObjectName(QStringLiteral("tableTabs"));
+  thresholdModel_ = new RecordTableModel(this);
+  thresholdModel_->setObjectName(QStringLiteral("thresholdTableModel"));
+  hlModel_ = new RecordTableModel(this);
+  hlModel_->setObjectName(QStringLiteral("hosmerLemeshowModel"));
+  thresholdTable_ =
+      makeTableView(QStringLiteral("thresholdTable"), thresholdModel_, &thresholdProxy_);
+  hlTable_ = makeTableView(QStringLiteral("hosmerLemeshowTable"), hlModel_, nullptr);
+  tabs->addTab(thresholdTable_, tr("Threshold trade-offs"));
+  tabs->addTab(hlTable_, tr("Calibration groups (Hosmer-Lemeshow)"));
+  return tabs;
+}
+
+QWidget* MainWindow::buildModelTab() {
+  auto* page = new QWidget;
+  page->setObjectName(QStringLiteral("modelPage"));
+  auto* layout = new QVBoxLayout(page);
+  modelInfo_ = new QLabel;
+  modelInfo_->setObjectName(QStringLiteral("modelInfo"));
+  modelInfo_->setWordWrap(true);
+  modelInfo_->setTextInteractionFlags(Qt::TextSelectableByMouse);
+  coefficientModel_ = new RecordTableModel(this);
+  coefficientModel_->setObjectName(QStringLiteral("coefficientModel"));
+  coefficientTable_ = makeTableView(QStringLiteral("coefficientTable"), coefficientModel_, nullptr);
+  layout->addWidget(modelInfo_);
+  layout->addWidget(coefficientTable_, 1);
+  return page;
+}
+
+QString MainWindow::messageText() const {
+  return messageBar_->isVisibleTo(this) ? messageText_->text() : QString();
+}
+
+void MainWindow::showMessage(const QString& text, bool error) {
+  messageText_->setText(text);
+  messageBar_->setStyleSheet(
+      error ? QStringLiteral("QWidget#messageBar { background: #fde3d6; border-bottom: 2px solid "
+                             "#d55e00; } QLabel { color: #000; }")
+            : QStringLiteral("QWidget#messageBar { background: #e3f1fb; border-bottom: 2px solid "
+                             "#0072b2; } QLabel { color: #000; }"));
+  messageBar_->setProperty("error", error);
+  messageBar_->show();
+}
+
+void MainWindow::clearMessage() {
+  messageText_->clear();
+  messageBar_->hide();
+}
+
+std::vector<ChartPanel*> MainWindow::chartPanels() const {
+  std::vector<ChartPanel*> out{roc_, calibration_, decision_, distribution_};
+  for (ChartPanel* p : predictorView_->chartPanels()) out.push_back(p);
+  return out;
+}
+
+void MainWindow::closeEvent(QCloseEvent* event) {
+  job_->cancel();
+  job_->waitForFinished();
+  event->accept();
+}
+
+void MainWindow::updateActions() {
+  const bool busy = job_->isRunning();
+  for (QAction* a : {actionOpen_, actionImport_, actionLoadModel_, actionFit_, actionRun_}) {
+    a->setEnabled(!busy);
+  }
+  actionMap_->setEnabled(!busy && study_.model.has_value() && table_ != nullptr);
+  actionCancel_->setEnabled(busy);
+  actionSave_->setEnabled(study_.data.has_value());
+  actionSaveAs_->setEnabled(study_.data.has_value());
+  actionExportCharts_->setEnabled(study_.result != nullptr);
+  actionExportTable_->setEnabled(study_.result != nullptr);
+  actionExportReport_->setEnabled(reportExportAvailable() && study_.result != nullptr);
+}
+
+}  // namespace calivera::ui

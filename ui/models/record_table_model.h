@@ -1,0 +1,41 @@
+#pragma once
+// A read-only table of precomputed cells for the result tables (threshold trade-offs,
+// Hosmer-Lemeshow groups, coefficients). Each cell carries its display text and a numeric sort
+// key (Qt::UserRole) so a QSortFilterProxyModel sorts numbers as numbers. No widgets: testable
+// on its own.
+
+#include <QAbstractTableModel>
+#include <QString>
+#include <QStringList>
+#include <vector>
+
+namespace calivera::ui {
+
+struct TableCell {
+  QString text;
+  double sortKey = 0.0;
+};
+
+class RecordTableModel : public QAbstractTableModel {
+ public:
+  static constexpr int kSortRole = Qt::UserRole;
+
+  explicit RecordTableModel(QObject* parent = nullptr) : QAbstractTableModel(parent) {}
+
+  void setTable(QStringList headers, QStringList headerTips,
+                std::vector<std::vector<TableCell>> rows);
+
+  int rowCount(const QModelIndex& parent = {}) const override;
+  int columnCount(const QModelIndex& parent = {}) const override;
+  QVariant data(const QModelIndex& index, int role) const override;
+  QVariant headerData(int section, Qt::Orientation orientation, int role) const override;
+
+  const TableCell& cell(int row, int column) const { return rows_[row][column]; }
+
+ private:
+  QStringList headers_;
+  QStringList headerTips_;
+  std::vector<std::vector<TableCell>> rows_;
+};
+
+}  // namespace calivera::ui

@@ -1,0 +1,24 @@
+#pragma once
+// Fills RecordTableModels from core result structs: the threshold trade-off table, the
+// Hosmer-Lemeshow (grouped calibration) table and the coefficient table.
+
+#include <vector>
+
+#include "core/metrics/validation.h"
+#include "core/model/model.h"
+#include "ui/models/record_table_model.h"
+
+namespace calivera::ui {
+
+// Column 0 is the threshold. Net benefit is filled from the decision curve where its threshold
+// grid matches the table's (core builds both from the same grid).
+void fillThresholdTable(RecordTableModel& model, const std::vector<ThresholdRow>& rows,
+                        const std::vector<DecisionCurvePoint>& decisionCurve);
+void fillHosmerLemeshowTable(RecordTableModel& model, const HosmerLemeshow& hl);
+// Wald 95% CI coefficient +/- 1.96 SE and the odds ratio exp(coefficient) per term.
+void fillCoefficientTable(RecordTableModel& model, const Model& riskModel);
+
+// Index of the row whose threshold is nearest to t (rows ascending by threshold); -1 when empty.
+int nearestThresholdRow(const std::vector<ThresholdRow>& rows, double t);
+
+}  // namespace calivera::ui

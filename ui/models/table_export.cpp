@@ -1,0 +1,64 @@
+#include "ui/models/table_export.h"
+
+#include <QAbstractItemModel>
+#include <QSaveFile>
+
+namespace calivera::ui {
+
+namespace {
+
+QString csvField(QString text) {
+  if (text.contains(QLatin1Char(',')) || text.contains(QLatin1Char('"')) ||
+      text.contains(QLatin1Char('\n')) || text.contains(QLatin1Char('\r'))) {
+    text.replace(QStringLiteral("\""), QStringLiteral("\"\""));
+    return QStringLiteral("\"") + text + QStringLiteral("\"");
+  }
+  return text;
+}
+
+QString joined(const QAbstractItemModel& model, const std::vector<int>& rows, QChar separator,
+               bool quote) {
+  QString out;
+  auto field = [&](const QString& s) {
+    return quote ? csvField(s) : QString(s).replace(separator, ' ');
+  };
+  const int columns = model.columnCount();
+  for (int c = 0; c < columns; ++c) {
+    if (c > 0) out += separator;
+    out += field(model.headerData(c, Qt::Horizontal, Qt::DisplayRole).toString());
+  }
+  out += QStringLiteral("\r\n");
+  auto writeRow = [&](int r) {
+    for (int c = 0; c < columns; ++c) {
+      if (c > 0) out += separator;
+      out += field(model.data(model.index(r, c), Qt::DisplayRole).toString());
+    }
+    out += QStringLiteral("\r\n");
+  };
+  if (rows.empty()) {
+    for (int r = 0; r < model.rowCount(); ++r) writeRow(r);
+  } else {
+    for (int r : rows) writeRow(r);
+  }
+  return out;
+}
+
+}  // namespace
+
+QString tableToCsv(const QAbstractItemModel& model) {
+  return joined(model, {}, ',', true);
+}
+
+QString tableToTsv(const QAbstractItemModel& model, const std::vector<int>& rows) {
+  return joined(model, rows, '\t', false);
+}
+
+QString writeTableCsv(const QAbstractItemModel& model, const QString& path) {
+  QSaveFile file(path);
+  if (!file.open(QIODevice::WriteOnly)) return file.errorString();
+  file.write(tableToCsv(model).toUtf8());
+  if (!file.commit()) return file.errorString();
+  return {};
+}
+
+}  // namespace calivera::ui

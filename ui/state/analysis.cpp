@@ -1,0 +1,137 @@
+#include "ui/state/analysis.h"
+
+#include <algorithm>
+#include <cmath>
+#include <filesystem>
+
+#include "core/data/cohort.h"
+#include "core/fit/cohort_fit.h"
+#include "core/metrics/validation_run.h"
+#include "core/util/errors.h"
+#include "core/util/sha256.h"
+
+namespace calivera::ui {
+
+namespace {
+
+// Maps a sub-range of the overall progress onto a step's own 0..1 progress.
+ProgressCallback subProgress(const ProgressCallback& progress, double from, double to) {
+  if (!progress) return {};
+  return [progress, from, to](double f) { return progress(from + (to - from) * f); };
+}
+
+void collectVariables(const Term& term, std::vector<std::string>& out) {
+  if (term.kind == TransformKind::Product) {
+    for (const Term& f : term.factors) collectVariables(f, out);
+    return;
+  }
+  if (!term.variable.empty() && std::find(out.begin(), out.end(), term.variable) == out.end()) {
+    out.push_back(term.variable);
+  }
+}
+
+std::string problemText(FitProblem problem) {
+  switch (problem) {
+    case FitProblem::None:
+      return {};
+    case FitProblem::CompleteSeparation:
+      return "complete separation: some predictor values predict the outcome perfectly, so "
+             "maximum-likelihood estimates do not exist; consider Firth's penalized fit";
+    case FitProblem::QuasiSeparation:
+      return "quasi-complete separation: estimates for some terms are unstable or infinite; "
+             "consider Firth's penalized fit";
+    case FitProblem::RankDeficient:
+      return "some predictors are constant or collinear; their coefficients are not identifiable";
+    case FitProblem::NotConverged:
+      return "the fit did not converge";
+  }
+  return {};
+}
+
+}  // namespace
+
+CsvOptions csvOptionsFor(const ImportSettings& settings) {
+  CsvOptions options;
+  options.delimiter = settings.delimiter;
+  options.missingTokens = settings.missingTokens;
+  return options;
+}
+
+LoadedTable loadCohortFile(const std::string& path, const ImportSettings& settings) {
+  LoadedTable loaded;
+  CsvReadResult read = readCsvFile(path, csvOptionsFor(settings));
+  loaded.delimiter = read.delimiter;
+  loaded.table = std::make_shared<const Table>(std::move(read.table));
+  loaded.record.path = std::filesystem::absolute(path).string();
+  loaded.record.sha256 = sha256OfFile(path);
+  return loaded;
+}
+
+std::vector<std::string> modelVariables(const Model& model) {
+  std::vector<std::string> out;
+  for (const Term& t : model.terms) collectVariables(t, out);
+  return out;
+}
+
+AnalysisOutput runAnalysis(const std::shared_ptr<const Table>& table, Model model,
+                           const StudyState& study, const ProgressCallback& progress) {
+  if (!table) throw InputError("no cohort is loaded");
+  if (study.import.outcomeColumn.empty()) throw InputError("no outcome column is chosen");
+  for (const auto& [from, to] : study.columnMapping) model.columnMapping[from] = to;
+  reportProgress(progress, 0.0);
+  // The same preparation as the command line's validate (core/metrics/validation_run.h).
+  PreparedCohort prepared =
+      prepareCohort(*table, OutcomeSpec{study.import.outcomeColumn, study.import.eventValue},
+                    &model, std::nullopt);
+  reportProgress(progress, 0.1);
+
+  auto cohort = std::make_shared<CohortData>();
+  cohort->table = table;
+  cohort->rows = prepared.rows;
+  cohort->outcome = prepared.input.outcome;
+  cohort->risk = prepared.input.risk;
+  cohort->linearPredictor = prepared.input.linearPredictor.value_or(std::vector<double>{});
+
+  ValidationOptions options;
+  options.groups = study.analysis.groups;
+  options.apparent =
+      study.analysis.apparent || (study.data && isApparent(&model, study.data->sha256));
+  options.thresholds = thresholdRange(0.01, 0.99, 0.01);
+  options.progress = subProgress(progress, 0.1, 1.0);
+  ValidationResult result = validate(prepared.input, options);
+  result.warnings.insert(result.warnings.begin(), prepared.warnings.begin(),
+                         prepared.warnings.end());
+
+  AnalysisOutput out;
+  out.result = std::make_shared<const ValidationResult>(std::move(result));
+  out.model = std::move(model);
+  out.cohort = std::move(cohort);
+  out.exclusions = prepared.exclusions;
+  return out;
+}
+
+FittedModel fitModel(const Table& table, const ImportSettings& import, const FitSettings& fit,
+                     const ProgressCallback& progress) {
+  if (fit.predictors.empty()) throw InputError("choose at least one predictor to fit a model");
+  CohortFitSpec spec;
+  spec.outcome = OutcomeSpec{import.outcomeColumn, import.eventValue};
+  spec.predictors = fit.predictors;
+  spec.modelName = "Fitted on " + std::filesystem::path(table.sourceName).filename().string();
+  spec.fit.firth = fit.firth;
+  spec.fit.progress = progress;
+  // Separation and non-convergence without Firth are AnalysisErrors naming the terms; the fit
+  // dialog shows them as the reason the fit failed.
+  CohortFit fitted = fitCohortModel(table, spec);
+  FittedModel out;
+  out.model = std::move(fitted.model);
+  out.model.outcome = import.outcomeColumn;
+  out.fit = std::move(fitted.fit);
+  out.exclusions = fitted.exclusions;
+  if (const std::string text = problemText(out.fit.problem); !text.empty()) {
+    out.warnings.push_back(text);
+  }
+  for (const std::string& w : out.fit.warnings) out.warnings.push_back(w);
+  return out;
+}
+
+}  // namespace calivera::ui

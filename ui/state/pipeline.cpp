@@ -1,0 +1,95 @@
+#include "ui/state/pipeline.h"
+
+#include <filesystem>
+
+#include "core/model/model_io.h"
+#include "core/util/errors.h"
+#include "core/util/sha256.h"
+
+namespace calivera::ui {
+
+std::vector<std::string> unmappedVariables(const Model& model,
+                                           const std::map<std::string, std::string>& mapping,
+                                           const Table& table) {
+  std::vector<std::string> out;
+  for (const std::string& variable : modelVariables(model)) {
+    std::string column = variable;
+    if (const auto it = mapping.find(variable); it != mapping.end()) column = it->second;
+    if (const auto it = model.columnMapping.find(variable);
+        mapping.count(variable) == 0 && it != model.columnMapping.end()) {
+      column = it->second;
+    }
+    if (table.find(column) == nullptr) out.push_back(variable);
+  }
+  return out;
+}
+
+PipelineOutput runPipeline(const PipelineRequest& request, const ProgressCallback& progress) {
+  PipelineOutput out;
+  out.study = request.study;
+  StudyState& s = out.study;
+  s.result.reset();
+  s.exclusions = {};
+  reportProgress(progress, 0.0);
+
+  if (!s.data) throw InputError("no cohort file is chosen");
+  if (request.table && request.table->sourceName == s.data->path) {
+    out.table = request.table;
+  } else {
+    LoadedTable loaded = loadCohortFile(s.data->path, s.import);
+    s.data = loaded.record;
+    out.table = loaded.table;
+  }
+  if (s.data->sha256.empty()) s.data->sha256 = sha256OfFile(s.data->path);
+  reportProgress(progress, 0.2);
+
+  switch (s.modelSource) {
+    case ModelSource::None:
+      s.model.reset();
+      break;
+    case ModelSource::File: {
+      if (!s.modelFile) throw InputError("no model file is chosen");
+      s.model = readModelFile(s.modelFile->path);
+      s.modelFile->path = std::filesystem::absolute(s.modelFile->path).string();
+      s.modelFile->sha256 = sha256OfFile(s.modelFile->path);
+      s.modelWarnings.clear();
+      break;
+    }
+    case ModelSource::Fitted: {
+      if (!s.model || request.refit) {
+        FittedModel fitted = fitModel(*out.table, s.import, s.fit, [&](double f) {
+          return progress ? progress(0.2 + 0.2 * f) : true;
+        });
+        s.model = std::move(fitted.model);
+        s.modelWarnings = fitted.warnings;
+      }
+      s.analysis.apparent = true;  // performance on the data the model was fitted on
+      break;
+    }
+  }
+  reportProgress(progress, 0.4);
+  if (!s.model) {
+    out.notes.push_back("Load a model file or fit a model to run the validation.");
+    return out;
+  }
+  if (s.import.outcomeColumn.empty()) {
+    out.notes.push_back("Choose the outcome column (File → Import cohort) to run the validation.");
+    return out;
+  }
+  out.unmappedVariables = unmappedVariables(*s.model, s.columnMapping, *out.table);
+  if (!out.unmappedVariables.empty()) {
+    std::string list;
+    for (const auto& v : out.unmappedVariables) list += (list.empty() ? "" : ", ") + v;
+    out.notes.push_back("The model uses variables the cohort does not have under these names: " +
+                        list + ". Pair them with cohort columns (Model → Map variables).");
+    return out;
+  }
+  AnalysisOutput analysis = runAnalysis(
+      out.table, *s.model, s, [&](double f) { return progress ? progress(0.4 + 0.6 * f) : true; });
+  s.exclusions = analysis.exclusions;
+  s.result = analysis.result;
+  out.cohort = analysis.cohort;
+  return out;
+}
+
+}  // namespace calivera::ui

@@ -1,0 +1,39 @@
+#pragma once
+// One background run from a candidate study to everything the workstation shows: read the cohort
+// (unless the caller already has it), read or fit the model, and validate. The result is applied
+// to the window only when the whole run succeeds, so a bad file or a failed step leaves the
+// previous study untouched.
+
+#include <memory>
+#include <optional>
+#include <string>
+#include <vector>
+
+#include "core/util/progress.h"
+#include "ui/state/analysis.h"
+#include "ui/state/study_state.h"
+
+namespace calivera::ui {
+
+struct PipelineRequest {
+  StudyState study;                    // inputs and settings to use
+  std::shared_ptr<const Table> table;  // reuse when it matches study.data; else read
+  bool refit = false;                  // Fitted source: fit again even if study.model is set
+};
+
+struct PipelineOutput {
+  StudyState study;  // as requested, with records, model, exclusions and result filled in
+  std::shared_ptr<const Table> table;
+  std::shared_ptr<const CohortData> cohort;    // null when no validation could run yet
+  std::vector<std::string> unmappedVariables;  // model variables the cohort lacks
+  std::vector<std::string> notes;              // why no validation ran, when it did not
+};
+
+PipelineOutput runPipeline(const PipelineRequest& request, const ProgressCallback& progress);
+
+// Model variables (after mapping) that are not columns of the table.
+std::vector<std::string> unmappedVariables(const Model& model,
+                                           const std::map<std::string, std::string>& mapping,
+                                           const Table& table);
+
+}  // namespace calivera::ui

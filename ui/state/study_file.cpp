@@ -1,0 +1,234 @@
+#include "ui/state/study_file.h"
+
+#include <filesystem>
+#include <fstream>
+#include <nlohmann/json.hpp>
+#include <sstream>
+
+#include "core/model/model_io.h"
+#include "core/util/atomic_file.h"
+#include "core/util/errors.h"
+#include "core/util/sha256.h"
+
+namespace calivera::ui {
+
+namespace fs = std::filesystem;
+using nlohmann::json;
+
+namespace {
+
+json fileRecord(const InputFileRecord& r, const std::string& studyPath) {
+  json j;
+  j["path"] = r.path;
+  std::error_code ec;
+  const fs::path folder = fs::absolute(studyPath).parent_path();
+  const fs::path relative = fs::relative(r.path, folder, ec);
+  j["relativePath"] = ec ? r.path : relative.generic_string();
+  j["sha256"] = r.sha256;
+  return j;
+}
+
+std::string delimiterName(char d) {
+  switch (d) {
+    case 0:
+      return "auto";
+    case '\t':
+      return "\t";
+    default:
+      return std::string(1, d);
+  }
+}
+
+// Reads fields with messages that name the file and the JSON path of the field.
+class Reader {
+ public:
+  explicit Reader(std::string source) : source_(std::move(source)) {}
+
+  [[noreturn]] void fail(const std::string& field, const std::string& what) const {
+    throw InputError(source_ + ": field '" + field + "': " + what);
+  }
+  const json& object(const json& parent, const std::string& key, const std::string& path) const {
+    if (!parent.contains(key)) fail(path, "missing");
+    const json& v = parent.at(key);
+    if (!v.is_object()) fail(path, "expected an object");
+    return v;
+  }
+  template <class T>
+  T get(const json& parent, const std::string& key, const std::string& path, T fallback) const {
+    if (!parent.contains(key) || parent.at(key).is_null()) return fallback;
+    try {
+      return parent.at(key).get<T>();
+    } catch (const json::exception&) {
+      fail(path, "has the wrong type");
+    }
+  }
+  InputFileRecord file(const json& j, const std::string& path, const fs::path& folder) const {
+    if (!j.is_object()) fail(path, "expected an object");
+    InputFileRecord r;
+    r.path = get<std::string>(j, "path", path + ".path", "");
+    r.sha256 = get<std::string>(j, "sha256", path + ".sha256", "");
+    const std::string relative = get<std::string>(j, "relativePath", path + ".relativePath", "");
+    if (r.path.empty() && relative.empty()) fail(path + ".path", "missing");
+    // A study moved together with its inputs (or shipped with relative paths only) still opens.
+    std::error_code ec;
+    if ((r.path.empty() || !fs::exists(r.path, ec)) && !relative.empty() &&
+        (r.path.empty() || fs::exists(folder / relative, ec))) {
+      r.path = fs::absolute(folder / relative).lexically_normal().string();
+    }
+    return r;
+  }
+
+ private:
+  std::string source_;
+};
+
+}  // namespace
+
+std::string studyToJson(const StudyState& study, const std::string& studyPath) {
+  json j;
+  j["format"] = kStudyFormatId;
+  if (study.data) j["data"] = fileRecord(*study.data, studyPath);
+  json import;
+  import["delimiter"] = delimiterName(study.import.delimiter);
+  import["missingTokens"] = study.import.missingTokens;
+  import["outcome"] = study.import.outcomeColumn;
+  import["eventValue"] = study.import.eventValue ? json(*study.import.eventValue) : json(nullptr);
+  j["import"] = import;
+  json model;
+  switch (study.modelSource) {
+    case ModelSource::None:
+      model["source"] = "none";
+      break;
+    case ModelSource::File:
+      model["source"] = "file";
+      break;
+    case ModelSource::Fitted:
+      model["source"] = "fitted";
+      break;
+  }
+  if (study.modelFile) model["file"] = fileRecord(*study.modelFile, studyPath);
+  model["predictors"] = study.fit.predictors;
+  model["firth"] = study.fit.firth;
+  model["fitted"] = (study.modelSource == ModelSource::Fitted && study.model)
+                        ? json::parse(modelToJson(*study.model))
+                        : json(nullptr);
+  j["model"] = model;
+  j["columnMapping"] = study.columnMapping;
+  j["analysis"] = {{"threshold", study.analysis.threshold},
+                   {"reasonableLo", study.analysis.reasonableLo},
+                   {"reasonableHi", study.analysis.reasonableHi},
+                   {"groups", study.analysis.groups},
+                   {"apparent", study.analysis.apparent}};
+  j["predictorView"] = {{"predictors", study.predictorView}, {"held", study.heldValues}};
+  return j.dump(2) + "\n";
+}
+
+StudyState parseStudyJson(const std::string& text, const std::string& studyPath) {
+  json j;
+  try {
+    j = json::parse(text);
+  } catch (const json::parse_error& e) {
+    throw InputError(studyPath + ": not valid JSON (byte " + std::to_string(e.byte) + ")");
+  }
+  const Reader in(studyPath);
+  if (!j.is_object()) in.fail("(top level)", "expected an object");
+  if (in.get<std::string>(j, "format", "format", "") != kStudyFormatId) {
+    in.fail("format", std::string("expected \"") + kStudyFormatId + "\"");
+  }
+  const fs::path folder = fs::absolute(studyPath).parent_path();
+  StudyState s;
+  if (j.contains("data") && !j.at("data").is_null()) s.data = in.file(j.at("data"), "data", folder);
+
+  const json& import = in.object(j, "import", "import");
+  const std::string delimiter =
+      in.get<std::string>(import, "delimiter", "import.delimiter", "auto");
+  if (delimiter == "auto") {
+    s.import.delimiter = 0;
+  } else if (delimiter.size() == 1 && (delimiter == "," || delimiter == ";" || delimiter == "\t")) {
+    s.import.delimiter = delimiter[0];
+  } else {
+    in.fail("import.delimiter", "expected \"auto\", \",\", \";\" or a tab");
+  }
+  s.import.missingTokens =
+      in.get<std::vector<std::string>>(import, "missingTokens", "import.missingTokens", {"", "NA"});
+  s.import.outcomeColumn = in.get<std::string>(import, "outcome", "import.outcome", "");
+  if (import.contains("eventValue") && !import.at("eventValue").is_null()) {
+    s.import.eventValue = in.get<std::string>(import, "eventValue", "import.eventValue", "");
+  }
+
+  const json& model = in.object(j, "model", "model");
+  const std::string source = in.get<std::string>(model, "source", "model.source", "none");
+  if (source == "none") {
+    s.modelSource = ModelSource::None;
+  } else if (source == "file") {
+    s.modelSource = ModelSource::File;
+  } else if (source == "fitted") {
+    s.modelSource = ModelSource::Fitted;
+  } else {
+    in.fail("model.source", "expected \"none\", \"file\" or \"fitted\"");
+  }
+  if (model.contains("file") && !model.at("file").is_null()) {
+    s.modelFile = in.file(model.at("file"), "model.file", folder);
+  }
+  if (s.modelSource == ModelSource::File && !s.modelFile) in.fail("model.file", "missing");
+  s.fit.predictors = in.get<std::vector<std::string>>(model, "predictors", "model.predictors", {});
+  s.fit.firth = in.get<bool>(model, "firth", "model.firth", false);
+  if (model.contains("fitted") && !model.at("fitted").is_null()) {
+    s.model = parseModelJson(model.at("fitted").dump(), studyPath + " (model.fitted)");
+  }
+  s.columnMapping =
+      in.get<std::map<std::string, std::string>>(j, "columnMapping", "columnMapping", {});
+  const json& a = in.object(j, "analysis", "analysis");
+  s.analysis.threshold = in.get<double>(a, "threshold", "analysis.threshold", 0.1);
+  s.analysis.reasonableLo = in.get<double>(a, "reasonableLo", "analysis.reasonableLo", 0.05);
+  s.analysis.reasonableHi = in.get<double>(a, "reasonableHi", "analysis.reasonableHi", 0.3);
+  s.analysis.groups = in.get<int>(a, "groups", "analysis.groups", 10);
+  s.analysis.apparent = in.get<bool>(a, "apparent", "analysis.apparent", false);
+  if (!(s.analysis.threshold >= 0 && s.analysis.threshold <= 1)) {
+    in.fail("analysis.threshold", "must lie between 0 and 1");
+  }
+  if (s.analysis.groups < 2) in.fail("analysis.groups", "must be at least 2");
+  if (j.contains("predictorView") && j.at("predictorView").is_object()) {
+    const json& pv = j.at("predictorView");
+    s.predictorView =
+        in.get<std::vector<std::string>>(pv, "predictors", "predictorView.predictors", {});
+    s.heldValues = in.get<std::map<std::string, std::string>>(pv, "held", "predictorView.held", {});
+  }
+  return s;
+}
+
+void writeStudyFile(const std::string& path, const StudyState& study) {
+  writeFileAtomically(path, studyToJson(study, path));
+}
+
+StudyState readStudyFile(const std::string& path) {
+  std::ifstream in(path, std::ios::binary);
+  if (!in) throw InputError(path + ": cannot open the study file");
+  std::ostringstream text;
+  text << in.rdbuf();
+  return parseStudyJson(text.str(), path);
+}
+
+std::vector<InputCheck> checkInputs(const StudyState& study) {
+  std::vector<InputCheck> out;
+  auto check = [&](const std::optional<InputFileRecord>& r, const char* role) {
+    if (!r) return;
+    std::error_code ec;
+    if (!fs::exists(r->path, ec)) {
+      out.push_back({role, r->path, "missing"});
+      return;
+    }
+    try {
+      if (sha256OfFile(r->path) != r->sha256) {
+        out.push_back({role, r->path, "changed since the study was saved"});
+      }
+    } catch (const InputError&) {
+      out.push_back({role, r->path, "cannot be read"});
+    }
+  };
+  check(study.data, "cohort data");
+  if (study.modelSource == ModelSource::File) check(study.modelFile, "model file");
+  return out;
+}
+
+}  // namespace calivera::ui

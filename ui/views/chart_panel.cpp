@@ -1,0 +1,108 @@
+#include "ui/views/chart_panel.h"
+
+#include <QContextMenuEvent>
+#include <QKeyEvent>
+#include <QMenu>
+#include <QMouseEvent>
+#include <QToolTip>
+
+#include "ui/charts/chart_render.h"
+#include "ui/charts/chart_style.h"
+
+namespace calivera::ui {
+
+ChartPanel::ChartPanel(const QString& objectName, QWidget* parent) : QChartView(parent) {
+  setObjectName(objectName);
+  setRenderHint(QPainter::Antialiasing);
+  setMouseTracking(true);
+  setMinimumSize(320, 240);
+  setFocusPolicy(Qt::StrongFocus);
+  auto* placeholder = new QChart;
+  charts::applyChartStyle(placeholder, tr("Run the validation to see this view"));
+  setChart(placeholder);
+}
+
+void ChartPanel::setLinkedChart(charts::LinkedChart* chart) {
+  QChart* previous = this->chart();
+  if (chart == nullptr) {
+    auto* placeholder = new QChart;
+    charts::applyChartStyle(placeholder, tr("Run the validation to see this view"));
+    setChart(placeholder);
+  } else {
+    setChart(chart);
+  }
+  linked_ = chart;
+  delete previous;  // setChart does not delete the chart it replaces
+}
+
+QPointF ChartPanel::valueAt(QPoint widgetPos) const {
+  if (linked_ == nullptr || linked_->series().isEmpty()) return {};
+  return linked_->mapToValue(mapToScene(widgetPos), linked_->series().last());
+}
+
+void ChartPanel::mouseMoveEvent(QMouseEvent* event) {
+  QChartView::mouseMoveEvent(event);
+  if (linked_ == nullptr) return;
+  const QString text = linked_->plotArea().contains(mapToScene(event->pos()))
+                           ? linked_->describeAt(valueAt(event->pos()))
+                           : QString();
+  if (text.isEmpty()) {
+    QToolTip::hideText();
+  } else {
+    QToolTip::showText(event->globalPosition().toPoint(), text, this);
+  }
+}
+
+void ChartPanel::mousePressEvent(QMouseEvent* event) {
+  QChartView::mousePressEvent(event);
+  if (linked_ == nullptr || event->button() != Qt::LeftButton) return;
+  if (!linked_->plotArea().contains(mapToScene(event->pos()))) return;
+  if (const auto t = linked_->thresholdAt(valueAt(event->pos()))) emit thresholdPicked(*t);
+}
+
+void ChartPanel::contextMenuEvent(QContextMenuEvent* event) {
+  if (linked_ == nullptr) return;
+  QMenu menu(this);
+  menu.setObjectName(objectName() + QStringLiteral("Menu"));
+  QAction* exportAction = menu.addAction(tr("Export this chart as PNG and SVG…"));
+  if (menu.exec(event->globalPos()) == exportAction) emit exportRequested(this);
+}
+
+void ChartPanel::keyPressEvent(QKeyEvent* event) {
+  switch (event->key()) {
+    case Qt::Key_Right:
+    case Qt::Key_Up:
+      emit nudgeRequested(1);
+      break;
+    case Qt::Key_Left:
+    case Qt::Key_Down:
+      emit nudgeRequested(-1);
+      break;
+    case Qt::Key_PageUp:
+      emit nudgeRequested(10);
+      break;
+    case Qt::Key_PageDown:
+      emit nudgeRequested(-10);
+      break;
+    default:
+      QChartView::keyPressEvent(event);
+      return;
+  }
+  event->accept();
+}
+
+QSize ChartPanel::exportSize() const {
+  return size().expandedTo(QSize(900, 600));
+}
+
+QString ChartPanel::exportPng(const QString& path) {
+  if (linked_ == nullptr) return tr("there is no chart to export yet");
+  return charts::exportChartPng(*linked_, path, exportSize());
+}
+
+QString ChartPanel::exportSvg(const QString& path) {
+  if (linked_ == nullptr) return tr("there is no chart to export yet");
+  return charts::exportChartSvg(*linked_, path, exportSize(), linked_->title());
+}
+
+}  // namespace calivera::ui

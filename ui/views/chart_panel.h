@@ -1,0 +1,45 @@
+#pragma once
+// Shows one LinkedChart: tooltips with exact values under the mouse, a click sets the threshold
+// (where the chart supports it), arrow keys nudge it, and a context menu exports the chart as PNG
+// or SVG.
+
+#include <QtCharts/QChartView>
+
+#include "ui/charts/linked_chart.h"
+
+namespace calivera::ui {
+
+class ChartPanel : public QChartView {
+  Q_OBJECT
+
+ public:
+  explicit ChartPanel(const QString& objectName, QWidget* parent = nullptr);
+
+  // Takes ownership; the previous chart is deleted. nullptr shows an empty placeholder.
+  void setLinkedChart(charts::LinkedChart* chart);
+  charts::LinkedChart* linkedChart() const { return linked_; }
+
+  // Exports at the view's current size (at least 900 x 600); empty string on success.
+  QString exportPng(const QString& path);
+  QString exportSvg(const QString& path);
+
+  // Chart coordinates of a widget position (for tests and the click handler).
+  QPointF valueAt(QPoint widgetPos) const;
+
+ signals:
+  void thresholdPicked(double threshold);
+  void exportRequested(ChartPanel* panel);
+  void nudgeRequested(int steps);  // arrow keys: +1 / -1 (Page Up/Down: +-10)
+
+ protected:
+  void mouseMoveEvent(QMouseEvent* event) override;
+  void mousePressEvent(QMouseEvent* event) override;
+  void contextMenuEvent(QContextMenuEvent* event) override;
+  void keyPressEvent(QKeyEvent* event) override;
+
+ private:
+  QSize exportSize() const;
+  charts::LinkedChart* linked_ = nullptr;
+};
+
+}  // namespace calivera::ui

@@ -1,0 +1,157 @@
+#include "ui/views/summary_html.h"
+
+#include <QFileInfo>
+
+#include "ui/charts/chart_text.h"
+#include "ui/state/readings.h"
+
+namespace calivera::ui {
+
+namespace {
+
+QString esc(const std::string& s) {
+  return QString::fromStdString(s).toHtmlEscaped();
+}
+
+QString row(const QString& name, const QString& value, const QString& reading = {}) {
+  return QStringLiteral(
+             "<tr><td><b>%1</b></td><td style='padding-left:12px'>%2</td>"
+             "<td style='padding-left:12px; color:#333'>%3</td></tr>")
+      .arg(name, value, reading);
+}
+
+QString ci(double v, const Interval& i, int decimals) {
+  return withInterval(v, i.lo, i.hi, decimals);
+}
+
+}  // namespace
+
+QString decisionCurveReading(const std::vector<DecisionCurvePoint>& curve, double lo, double hi) {
+  int inRange = 0, better = 0;
+  for (const auto& p : curve) {
+    if (p.threshold < lo - 1e-12 || p.threshold > hi + 1e-12) continue;
+    ++inRange;
+    if (p.netBenefit > p.netBenefitTreatAll && p.netBenefit > 0) ++better;
+  }
+  if (inRange == 0) {
+    return QStringLiteral("No threshold of the decision-curve grid lies in your range %1 to %2.")
+        .arg(fixed(lo, 3), fixed(hi, 3));
+  }
+  return QStringLiteral(
+             "Within your range of reasonable thresholds (%1 to %2) the model has a "
+             "higher net benefit than both treating everyone and treating no one at "
+             "%3 of %4 thresholds examined.")
+      .arg(fixed(lo, 3), fixed(hi, 3))
+      .arg(better)
+      .arg(inRange);
+}
+
+QString summaryHtml(const StudyState& study) {
+  QString html = QStringLiteral("<html><body style='font-size:10pt'>");
+  html += QStringLiteral("<h3>Cohort</h3><table>");
+  if (study.data) {
+    html += row(QStringLiteral("File"),
+                QFileInfo(QString::fromStdString(study.data->path)).fileName().toHtmlEscaped(),
+                QStringLiteral("SHA-256 %1…").arg(esc(study.data->sha256.substr(0, 16))));
+  }
+  const ExclusionReport& ex = study.exclusions;
+  if (ex.rowsRead > 0) {
+    html += row(QStringLiteral("Rows read"), QString::number(ex.rowsRead));
+    QString reasons;
+    for (const auto& c : ex.byColumn) {
+      if (c.rowsMissing == 0) continue;
+      if (!reasons.isEmpty()) reasons += QStringLiteral("; ");
+      reasons += QStringLiteral("%1 missing in %2").arg(c.rowsMissing).arg(esc(c.column));
+    }
+    html += row(QStringLiteral("Rows excluded"), QString::number(ex.rowsExcluded),
+                reasons.isEmpty() ? QStringLiteral("no missing values in the columns used")
+                                  : reasons + QStringLiteral(" (a row may miss several)"));
+    html += row(QStringLiteral("Rows analysed"), QString::number(ex.rowsAnalysed));
+  }
+  html += QStringLiteral("</table>");
+  if (study.model) {
+    html += QStringLiteral("<h3>Model</h3><table>");
+    html += row(QStringLiteral("Name"), esc(study.model->name));
+    html += row(QStringLiteral("Source"),
+                study.modelSource == ModelSource::Fitted
+                    ? QStringLiteral("fitted on this cohort (performance below is apparent)")
+                    : QStringLiteral("model file"));
+    html += row(QStringLiteral("Terms"), QString::number(study.model->terms.size()));
+    html += QStringLiteral("</table>");
+  }
+  if (!study.result) {
+    html += QStringLiteral("<p>Run the validation (Analysis → Run validation) to see results.</p>");
+    return html + QStringLiteral("</body></html>");
+  }
+  const ValidationResult& r = *study.result;
+
+  std::vector<std::string> warnings = sampleSizeWarnings(r.cohort);
+  warnings.insert(warnings.end(), study.modelWarnings.begin(), study.modelWarnings.end());
+  warnings.insert(warnings.end(), r.warnings.begin(), r.warnings.end());
+  if (!warnings.empty()) {
+    html += QStringLiteral("<h3>Warnings</h3><ul>");
+    for (const auto& w : warnings) html += QStringLiteral("<li>%1</li>").arg(esc(w));
+    html += QStringLiteral("</ul>");
+  }
+
+  html += QStringLiteral("<h3>Patients</h3><table>");
+  html += row(QStringLiteral("Analysed"), QString::number(r.cohort.n));
+  html += row(QStringLiteral("Events"), QString::number(r.cohort.events),
+              QStringLiteral("observed event rate %1").arg(fixed(r.cohort.prevalence, 4)));
+  html += QStringLiteral("</table>");
+
+  html += QStringLiteral("<h3>Discrimination</h3><table>");
+  html +=
+      row(QStringLiteral("AUC (c-statistic)"), ci(r.discrimination.auc, r.discrimination.aucCi, 3),
+          esc(readDiscrimination(r.discrimination)));
+  html += row(QStringLiteral("DeLong SE"), fixed(r.discrimination.aucSe, 4),
+              QStringLiteral("interval on the logit scale, so it stays within 0 and 1"));
+  html +=
+      row(QStringLiteral("Discrimination slope"), fixed(r.discrimination.discriminationSlope, 4),
+          QStringLiteral("mean predicted risk with the event minus without it"));
+  html += QStringLiteral("</table>");
+
+  const Calibration& c = r.calibration;
+  const HierarchyReading hierarchy = readCalibrationHierarchy(c);
+  html += QStringLiteral("<h3>Calibration</h3>");
+  html += QStringLiteral("<p><b>Calibration hierarchy (Van Calster et al. 2016): %1.</b> %2</p>")
+              .arg(esc(c.hierarchyLevel.empty() ? hierarchy.level : c.hierarchyLevel),
+                   esc(hierarchy.explanation));
+  html += QStringLiteral("<table>");
+  html += row(QStringLiteral("Calibration intercept"), ci(c.intercept, c.interceptCi, 3),
+              QStringLiteral("target 0; negative = risks too high on average"));
+  html += row(QStringLiteral("Calibration slope"), ci(c.slope, c.slopeCi, 3),
+              QStringLiteral("target 1; below 1 = predictions too extreme"));
+  html += row(QStringLiteral("Observed / expected events"), ci(c.oeRatio, c.oeCi, 3),
+              QStringLiteral("target 1"));
+  html += row(QStringLiteral("Spiegelhalter z"),
+              QStringLiteral("%1 (p = %2)")
+                  .arg(fixed(c.spiegelhalterZ, 3), QString::number(c.spiegelhalterP, 'g', 3)),
+              QStringLiteral("tests whether the risks are calibrated overall"));
+  html += row(QStringLiteral("ICI / E50 / E90 / Emax"),
+              QStringLiteral("%1 / %2 / %3 / %4")
+                  .arg(fixed(c.ici, 4), fixed(c.e50, 4), fixed(c.e90, 4), fixed(c.emax, 4)),
+              QStringLiteral("distance of the smoothed curve from the ideal line (Austin & "
+                             "Steyerberg 2019): mean, median, 90th percentile, maximum"));
+  html += row(QStringLiteral("Hosmer-Lemeshow"),
+              QStringLiteral("%1, df %2, p = %3")
+                  .arg(fixed(r.hosmerLemeshow.statistic, 2))
+                  .arg(r.hosmerLemeshow.df)
+                  .arg(QString::number(r.hosmerLemeshow.pValue, 'g', 3)),
+              esc(readHosmerLemeshow(r.hosmerLemeshow)));
+  html += QStringLiteral("</table>");
+
+  html += QStringLiteral("<h3>Overall accuracy</h3><table>");
+  html += row(QStringLiteral("Brier score"), fixed(r.overall.brier, 4),
+              QStringLiteral("mean squared difference of risk and outcome; lower is better"));
+  html += row(QStringLiteral("Scaled Brier"), fixed(r.overall.brierScaled, 4),
+              QStringLiteral("1 − Brier / Brier of predicting the event rate for everyone"));
+  html += QStringLiteral("</table>");
+
+  html += QStringLiteral("<h3>Clinical utility</h3><p>%1</p>")
+              .arg(decisionCurveReading(r.decisionCurve, study.analysis.reasonableLo,
+                                        study.analysis.reasonableHi));
+  return html + QStringLiteral("</body></html>");
+}
+
+}  // namespace calivera::ui
