@@ -3,6 +3,7 @@
 set -euo pipefail
 cd "$(dirname "$0")/.."
 shopt -s nullglob
+export QT_QPA_PLATFORM=${QT_QPA_PLATFORM:-offscreen}
 benches=(build/bin/calivera_bench_*)
 if [ ${#benches[@]} -eq 0 ]; then
   echo "no benchmarks built; run scripts/build.sh first" >&2
