@@ -79,8 +79,6 @@ double DecisionCurveChart::markedThreshold() const {
 }
 
 void DecisionCurveChart::setReasonableRange(double lo, double hi) {
-  rangeLo_ = lo;
-  rangeHi_ = hi;
   rangeUpper_->replace({QPointF(lo, yMax_), QPointF(hi, yMax_)});
   rangeLower_->replace({QPointF(lo, yMin_), QPointF(hi, yMin_)});
 }
@@ -144,7 +142,10 @@ void DecisionCurveChart::setYRange(double lo, double hi) {
   yMax_ = yAxis_->max();
   const double marked = markedThreshold();
   marker_->replace({QPointF(marked, yMin_), QPointF(marked, yMax_)});
-  setReasonableRange(rangeLo_, rangeHi_);
+  // The shaded range keeps its thresholds and spans the new height.
+  const double from = rangeUpper_->at(0).x(), to = rangeUpper_->at(1).x();
+  rangeUpper_->replace({QPointF(from, yMax_), QPointF(to, yMax_)});
+  rangeLower_->replace({QPointF(from, yMin_), QPointF(to, yMin_)});
   drawCurves();
 }
 

@@ -54,16 +54,15 @@ class DecisionCurveChart : public LinkedChart {
 
   std::vector<DecisionCurvePoint> curve_;
   double xMax_ = 1.0, yMin_ = -0.05, yMax_ = 0.1;
-  double rangeLo_ = 0.0, rangeHi_ = 0.0;
+  QLineSeries* marker_ = nullptr;
+  QLineSeries* rangeUpper_ = nullptr;
+  QLineSeries* rangeLower_ = nullptr;
   QValueAxis* yAxis_ = nullptr;
   QLineSeries* treatAll_ = nullptr;
   QLineSeries* model_ = nullptr;
   std::vector<BandPoint> bandPoints_;
   QAreaSeries* band_ = nullptr;
   std::vector<Comparison> comparisons_;
-  QLineSeries* marker_ = nullptr;
-  QLineSeries* rangeUpper_ = nullptr;
-  QLineSeries* rangeLower_ = nullptr;
 };
 
 }  // namespace calivera::ui::charts
