@@ -145,6 +145,12 @@ class ChartOverlayTest : public QObject {
     QVERIFY(chart.yMax() >= top + wide.front().estimate - 1e-12);
     chart.setThreshold(snapshotFromCounts(0.2, ConfusionCounts{10, 10, 10, 10}));
     QCOMPARE(chart.markedThreshold(), 0.2);
+    // Without a reasonable range (as in reports that set none) the band still widens the axis.
+    DecisionCurveChart bare(r.decisionCurve, r.cohort);
+    bare.clearReasonableRange();
+    bare.setNetBenefitBand(wide);
+    expectBandPoints(bare.netBenefitBand(), wide);
+    QCOMPARE(bare.yMax(), chart.yMax());
     const QString text = chart.describeAt(QPointF(0.2, 0.0));
     QVERIFY2(text.contains(QStringLiteral("bootstrap 95% band")), qPrintable(text));
   }

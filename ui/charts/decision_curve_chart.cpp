@@ -158,9 +158,7 @@ void DecisionCurveChart::setYRange(double lo, double hi) {
   const double marked = markedThreshold();
   marker_->replace({QPointF(marked, yMin_), QPointF(marked, yMax_)});
   // The shaded range keeps its thresholds and spans the new height.
-  const double from = rangeUpper_->at(0).x(), to = rangeUpper_->at(1).x();
-  rangeUpper_->replace({QPointF(from, yMax_), QPointF(to, yMax_)});
-  rangeLower_->replace({QPointF(from, yMin_), QPointF(to, yMin_)});
+  if (range_ != nullptr) setReasonableRange(rangeUpper_->at(0).x(), rangeUpper_->at(1).x());
   drawCurves();
 }
 
