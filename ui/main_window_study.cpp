@@ -87,7 +87,7 @@ void MainWindow::applyPipeline(PipelineOutput& output, const QString& studyPathO
     addRecentStudy(studyPath_);
   }
   if (cohort_) {
-    threshold_.setData(cohort_->risk, cohort_->outcome);
+    threshold_.setData(cohort_->risk(), cohort_->outcome());
   } else {
     threshold_.clear();
   }

@@ -231,8 +231,8 @@ class MainWindowTest : public QObject {
     child<QDoubleSpinBox>(w, "thresholdSpin")->setValue(t);
     const auto cohort = w.cohort();
     std::size_t tp = 0, fp = 0;
-    for (std::size_t i = 0; i < cohort->risk.size(); ++i) {
-      if (cohort->risk[i] >= t) (cohort->outcome[i] > 0.5 ? tp : fp)++;
+    for (std::size_t i = 0; i < cohort->risk().size(); ++i) {
+      if (cohort->risk()[i] >= t) (cohort->outcome()[i] > 0.5 ? tp : fp)++;
     }
     QCOMPARE(text(w, "confusionTp"), QString::number(tp));
     QCOMPARE(text(w, "confusionFp"), QString::number(fp));
