@@ -40,10 +40,27 @@ std::vector<double> modelRisks(const Model& model, const Table& table,
 
 }  // namespace
 
+UncertaintySubject uncertaintySubject(const ValidationRun& run) {
+  return UncertaintySubject{run.table,
+                            run.request.outcome,
+                            run.model ? &*run.model : nullptr,
+                            run.request.riskColumn,
+                            run.modelName,
+                            run.cohort.rows,
+                            run.cohort.input,
+                            run.request.options,
+                            run.result};
+}
+
 UncertaintyResults runUncertainty(const ValidationRun& run, const UncertaintyRequest& request) {
+  return runUncertainty(uncertaintySubject(run), request);
+}
+
+UncertaintyResults runUncertainty(const UncertaintySubject& subject,
+                                  const UncertaintyRequest& request) {
   UncertaintyResults results;
-  const ValidationInput& input = run.cohort.input;
-  const ValidationResult& apparent = run.result;
+  const ValidationInput& input = subject.input;
+  const ValidationResult& apparent = subject.result;
   const bool comparing = !request.compareModelPaths.empty();
   const bool boot = request.bootstrapReplicates > 0;
   // Shares of the progress bar: the validation bootstrap, the comparison, the subgroups.
@@ -62,7 +79,7 @@ UncertaintyResults runUncertainty(const ValidationRun& run, const UncertaintyReq
   bootstrapOptions.bootstrap.threads = request.threads;
   if (boot) {
     bootstrapOptions.bootstrap.progress = nextSegment();
-    results.bootstrap = bootstrapValidation(input, run.request.options, apparent, bootstrapOptions);
+    results.bootstrap = bootstrapValidation(input, subject.options, apparent, bootstrapOptions);
   }
 
   // Sample size: after the bootstrap, so net-benefit CI widths at the target thresholds exist.
@@ -95,50 +112,56 @@ UncertaintyResults runUncertainty(const ValidationRun& run, const UncertaintyReq
 
   if (comparing) {
     std::vector<Model> models;
-    std::vector<std::string> columns{run.request.outcome.column};
+    std::vector<std::string> columns{subject.outcome.column};
     const auto addColumns = [&](const Model& m) {
       for (const auto& c : requiredColumns(m)) {
         if (std::find(columns.begin(), columns.end(), c) == columns.end()) columns.push_back(c);
       }
     };
-    if (run.model) addColumns(*run.model);
-    if (run.request.riskColumn) columns.push_back(*run.request.riskColumn);
+    if (subject.model) addColumns(*subject.model);
+    if (subject.riskColumn) columns.push_back(*subject.riskColumn);
     for (const auto& path : request.compareModelPaths) {
       models.push_back(readModelFile(path));
       addColumns(models.back());
       results.comparedModels.push_back(
           {path, sha256OfFile(path), models.back().name.empty() ? path : models.back().name});
     }
-    const AnalysisRows common = selectCompleteCases(run.table, columns);
+    const Table& table = subject.table;
+    const AnalysisRows common = selectCompleteCases(table, columns);
     results.comparisonRows = common.rows.size();
-    const std::vector<double> outcome = outcomeValues(run.table, run.request.outcome, common.rows);
-    std::vector<std::string> names{run.modelName};
+    const std::vector<double> outcome = outcomeValues(table, subject.outcome, common.rows);
+    std::vector<std::string> names{subject.modelName};
     std::vector<std::vector<double>> risks;
-    risks.push_back(run.model ? modelRisks(*run.model, run.table, common.rows)
-                              : riskColumnValues(run.table, *run.request.riskColumn, common.rows));
+    risks.push_back(subject.model ? modelRisks(*subject.model, table, common.rows)
+                                  : riskColumnValues(table, *subject.riskColumn, common.rows));
     for (std::size_t m = 0; m < models.size(); ++m) {
       names.push_back(results.comparedModels[m].name);
-      risks.push_back(modelRisks(models[m], run.table, common.rows));
+      risks.push_back(modelRisks(models[m], table, common.rows));
     }
     ComparisonOptions options;
-    options.thresholds = run.request.options.thresholds;
+    options.thresholds = subject.options.thresholds;
     options.bootstrap = bootstrapOptions.bootstrap;
     options.bootstrap.progress = nextSegment();
     results.comparison = compareModels(names, risks, outcome, options);
-    if (common.rows.size() < run.cohort.rows.size()) {
+    ValidationOptions overlayOptions = subject.options;
+    overlayOptions.progress = nullptr;
+    for (const auto& risk : risks) {
+      results.comparedResults.push_back(
+          validate(ValidationInput{outcome, risk, std::nullopt}, overlayOptions));
+    }
+    if (common.rows.size() < subject.rows.size()) {
       results.comparison->warnings.push_back(
           "compared on " + std::to_string(common.rows.size()) +
           " patients complete for every model (" +
-          std::to_string(run.cohort.rows.size() - common.rows.size()) +
-          " fewer than the validation)");
+          std::to_string(subject.rows.size() - common.rows.size()) + " fewer than the validation)");
     }
   }
 
   for (const auto& column : request.subgroupColumns) {
-    const std::vector<std::string> labels = subgroupLabels(run.table, column, run.cohort.rows);
+    const std::vector<std::string> labels = subgroupLabels(subject.table, column, subject.rows);
     bootstrapOptions.bootstrap.progress = nextSegment();
     results.subgroups.push_back(
-        validateSubgroups(column, labels, input, run.request.options, bootstrapOptions));
+        validateSubgroups(column, labels, input, subject.options, bootstrapOptions));
   }
   reportProgress(request.progress, 1.0);
   return results;

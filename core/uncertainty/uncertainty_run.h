@@ -42,11 +42,33 @@ struct UncertaintyResults {
   std::optional<ModelComparison> comparison;
   std::vector<ComparedModelFile> comparedModels;  // the further models, in request order
   std::size_t comparisonRows = 0;
+  // Every compared model (the run's first, then comparedModels) validated on the comparison
+  // rows with the run's options: the curves that comparison overlays draw. Empty: no comparison.
+  std::vector<ValidationResult> comparedResults;
   std::vector<SubgroupAnalysis> subgroups;
 };
 
+// What one uncertainty request works on, borrowed from the caller for the duration of the call:
+// the command line takes it from a ValidationRun, the workstation from its own analysis state.
+// `rows`, `input` and `result` describe the same patients in the same order.
+struct UncertaintySubject {
+  const Table& table;
+  const OutcomeSpec& outcome;
+  const Model* model = nullptr;  // null: risks come from riskColumn
+  const std::optional<std::string>& riskColumn;
+  const std::string& modelName;
+  const std::vector<std::uint32_t>& rows;  // analysed rows of `table`
+  const ValidationInput& input;
+  const ValidationOptions& options;  // thresholds filled in
+  const ValidationResult& result;    // validate(input, options)
+};
+
+UncertaintySubject uncertaintySubject(const ValidationRun& run);
+
 // Throws InputError for an unreadable model file or a missing subgroup column, AnalysisError
 // when a comparison has one outcome class, Cancelled.
+UncertaintyResults runUncertainty(const UncertaintySubject& subject,
+                                  const UncertaintyRequest& request);
 UncertaintyResults runUncertainty(const ValidationRun& run, const UncertaintyRequest& request);
 
 }  // namespace calivera
