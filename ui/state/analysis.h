@@ -23,9 +23,9 @@ struct CohortData {
   std::shared_ptr<const Table> table;
   std::vector<std::uint32_t> rows;  // analysed rows of `table`
   OutcomeSpec outcomeSpec;
-  Model model;                 // with the study's column mapping applied
-  ValidationInput input;       // outcome (0/1), risk and linear predictor per analysed row
-  ValidationOptions options;   // as validate() used them, thresholds filled in, no progress
+  Model model;                // with the study's column mapping applied
+  ValidationInput input;      // outcome (0/1), risk and linear predictor per analysed row
+  ValidationOptions options;  // as validate() used them, thresholds filled in, no progress
   const std::vector<double>& outcome() const { return input.outcome; }
   const std::vector<double>& risk() const { return input.risk; }
 };
