@@ -2,8 +2,10 @@
 
 #include <cmath>
 #include <cstdio>
+#include <iterator>
 #include <sstream>
 
+#include "core/report/audit_run.h"
 #include "core/report/validation_json.h"
 
 namespace calivera {
@@ -26,8 +28,14 @@ std::string pValue(double p) {
   return p < 0.001 ? "< 0.001" : fixed(p, 3);
 }
 
-// Net benefit rows shown in the summary: the configured thresholds closest to these.
+// Net benefit rows shown for a long threshold grid (the default 0.01..0.99): these customary
+// thresholds when computed. A short list the user gave (as the PDF report) is shown in full.
 constexpr double kSummaryThresholds[] = {0.05, 0.10, 0.20, 0.30, 0.50};
+
+std::vector<double> summaryThresholds(const std::vector<double>& computed) {
+  if (computed.size() <= kMaxTabulatedThresholds) return computed;
+  return {std::begin(kSummaryThresholds), std::end(kSummaryThresholds)};
+}
 
 }  // namespace
 
@@ -83,7 +91,7 @@ std::string validationSummaryText(const ValidationRun& run) {
   }
   out << "\nThreshold  net benefit  treat all  avoided/100  sensitivity  specificity  "
          "flagged/1000\n";
-  for (const double wanted : kSummaryThresholds) {
+  for (const double wanted : summaryThresholds(run.request.options.thresholds)) {
     for (std::size_t i = 0; i < r.decisionCurve.size(); ++i) {
       if (std::abs(r.decisionCurve[i].threshold - wanted) > 1e-9) continue;
       const DecisionCurvePoint& d = r.decisionCurve[i];

@@ -15,6 +15,7 @@
 #include "core/metrics/validation_run.h"
 #include "core/model/linear_predictor.h"
 #include "core/model/model_io.h"
+#include "core/report/validation_summary.h"
 #include "core/util/sha256.h"
 
 namespace calivera {
@@ -105,6 +106,19 @@ TEST_F(ValidationPipeline, ModelFileAndRiskColumnRoutesGiveTheSameResults) {
   }
   EXPECT_EQ(m.performance, kPerformanceNewData);
   EXPECT_EQ(m.dataSha256, sha256OfFile(data()));
+}
+
+TEST_F(ValidationPipeline, SummaryTabulatesAShortThresholdListInFull) {
+  ValidationRequest r = request();
+  r.riskColumn = "risk";
+  r.options.thresholds = {0.05, 0.10, 0.15, 0.20, 0.30};
+  const std::string text = validationSummaryText(runValidation(r));
+  const std::size_t table = text.find("Threshold  net benefit");
+  ASSERT_NE(table, std::string::npos);
+  for (const char* t :
+       {"\n    0.05 ", "\n    0.10 ", "\n    0.15 ", "\n    0.20 ", "\n    0.30 "}) {
+    EXPECT_NE(text.find(t, table), std::string::npos) << t;
+  }
 }
 
 TEST_F(ValidationPipeline, DevelopmentDataFingerprintMakesThePerformanceApparent) {

@@ -53,8 +53,15 @@ CalibrationChart::CalibrationChart(const Calibration& calibration,
   histogramAxis->setRange(0, static_cast<double>(maxCount) * 5.0);
   histogramAxis->setVisible(false);
   addAxis(histogramAxis, Qt::AlignRight);
+  // Bins beyond the axis are cut at it: drawn whole they ran past the plot in the PDF.
+  std::vector<double> edges = distribution.binEdges;
+  while (edges.size() > 2 && edges[edges.size() - 2] >= axisMax_) {
+    edges.pop_back();
+    totals.pop_back();
+  }
+  if (!edges.empty()) edges.back() = std::min(edges.back(), axisMax_);
   if (!totals.empty()) {
-    auto* histogram = makeHistogramArea(distribution.binEdges, totals);
+    auto* histogram = makeHistogramArea(edges, totals);
     histogram->setName(QStringLiteral("Histogram"));
     histogram->setColor(QColor(200, 200, 200, 150));
     histogram->setBorderColor(palette::kGrey);

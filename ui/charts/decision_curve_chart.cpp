@@ -5,6 +5,7 @@
 #include <QtCharts/QValueAxis>
 #include <algorithm>
 #include <cmath>
+#include <memory>
 
 #include "ui/charts/chart_style.h"
 #include "ui/charts/chart_text.h"
@@ -22,7 +23,11 @@ DecisionCurveChart::DecisionCurveChart(const std::vector<DecisionCurvePoint>& cu
   xMax_ =
       curve_.empty() ? 1.0 : std::clamp(std::ceil(curve_.back().threshold * 10.0) / 10.0, 0.1, 1.0);
 
-  auto* x = makeAxis(QStringLiteral("Threshold probability (0–1)"), 0, xMax_, "%.1f", 6);
+  // One tick per 0.1, or per 0.05 on a short range (0.3 with one decimal printed 0.1 twice).
+  const bool fine = xMax_ <= 0.5;
+  const int xTicks = static_cast<int>(std::lround(xMax_ * (fine ? 20 : 10))) + 1;
+  auto* x = makeAxis(QStringLiteral("Threshold probability (0–1)"), 0, xMax_,
+                     fine ? "%.2f" : "%.1f", xMax_ >= 0.99 ? 6 : xTicks);
   auto* y = makeAxis(QStringLiteral("Net benefit (per patient)"), yMin_, yMax_, "%.3f", 6);
   y->applyNiceNumbers();
   yMin_ = y->min();
@@ -42,6 +47,7 @@ DecisionCurveChart::DecisionCurveChart(const std::vector<DecisionCurvePoint>& cu
   range->setColor(fill);
   range->setBorderColor(roleColor(SeriesRole::Range));
   attach(range);
+  range_ = range;
 
   auto clampY = [&](double v) { return std::clamp(v, yMin_, yMax_); };
   auto* none = new QLineSeries;
@@ -85,8 +91,17 @@ double DecisionCurveChart::markedThreshold() const {
 }
 
 void DecisionCurveChart::setReasonableRange(double lo, double hi) {
+  if (range_ == nullptr) return;
   rangeUpper_->replace({QPointF(lo, yMax_), QPointF(hi, yMax_)});
   rangeLower_->replace({QPointF(lo, yMin_), QPointF(hi, yMin_)});
+}
+
+void DecisionCurveChart::clearReasonableRange() {
+  if (range_ == nullptr) return;
+  removeSeries(range_);  // hands the series back to us, with its legend entry gone
+  const std::unique_ptr<QAreaSeries> removed(range_);
+  range_ = nullptr;
+  rangeUpper_ = rangeLower_ = nullptr;
 }
 
 std::optional<double> DecisionCurveChart::thresholdAt(QPointF value) const {

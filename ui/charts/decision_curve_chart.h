@@ -24,6 +24,8 @@ class DecisionCurveChart : public LinkedChart {
   QString exportName() const override { return QStringLiteral("decision_curve"); }
 
   void setReasonableRange(double lo, double hi);
+  // No range was chosen (command-line reports): removes the shaded area and its legend entry.
+  void clearReasonableRange();
   double markedThreshold() const;
   double yMin() const { return yMin_; }
   double yMax() const { return yMax_; }
@@ -32,6 +34,7 @@ class DecisionCurveChart : public LinkedChart {
   std::vector<DecisionCurvePoint> curve_;
   double xMax_ = 1.0, yMin_ = -0.05, yMax_ = 0.1;
   QLineSeries* marker_ = nullptr;
+  QAreaSeries* range_ = nullptr;
   QLineSeries* rangeUpper_ = nullptr;
   QLineSeries* rangeLower_ = nullptr;
 };

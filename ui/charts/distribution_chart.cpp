@@ -30,9 +30,9 @@ DistributionChart::DistributionChart(const RiskHistogram& distribution) : histog
       std::accumulate(histogram_.eventCounts.begin(), histogram_.eventCounts.end(), std::size_t{0});
   nonEvents_ = std::accumulate(histogram_.nonEventCounts.begin(), histogram_.nonEventCounts.end(),
                                std::size_t{0});
-  applyChartStyle(this, QStringLiteral("Risk by outcome: %1 with, %2 without the event")
-                            .arg(events_)
-                            .arg(nonEvents_));
+  // The group sizes are in the confusion panel beside the chart and in its tooltips: in the title
+  // or the legend they made the text too long for a quarter-window chart and Qt Charts elided it.
+  applyChartStyle(this, QStringLiteral("Predicted risk by outcome"));
   const auto eventPct = percentages(histogram_.eventCounts, events_);
   const auto nonEventPct = percentages(histogram_.nonEventCounts, nonEvents_);
   double top = 1.0;
@@ -89,10 +89,13 @@ QString DistributionChart::describeAt(QPointF value) const {
   if (it == edges.begin() || it == edges.end()) return {};
   const auto bin = static_cast<std::size_t>(it - edges.begin() - 1);
   return QStringLiteral(
-             "Risks %1 to %2\nWith the event: %3 patients\nWithout the event: %4 patients")
+             "Risks %1 to %2\nWith the event: %3 of %4 patients\nWithout the event: %5 of %6 "
+             "patients")
       .arg(fixed(edges[bin], 3), fixed(edges[bin + 1], 3))
       .arg(histogram_.eventCounts[bin])
-      .arg(histogram_.nonEventCounts[bin]);
+      .arg(events_)
+      .arg(histogram_.nonEventCounts[bin])
+      .arg(nonEvents_);
 }
 
 }  // namespace calivera::ui::charts

@@ -10,7 +10,9 @@
 #include <cctype>
 #include <cstdlib>
 #include <ctime>
+#include <filesystem>
 #include <memory>
+#include <string>
 #include <utility>
 
 #include "core/util/atomic_file.h"
@@ -21,6 +23,30 @@ namespace calivera::ui::report {
 namespace {
 
 constexpr int kResolution = 1200;  // device units per inch: fine text positioning
+
+// Qt wants a private runtime directory and warns on stderr when XDG_RUNTIME_DIR is unset (as in
+// a root shell or a CI job); the command line gets a fresh 0700 one for the duration instead.
+class RuntimeDirScope {
+ public:
+  RuntimeDirScope() {
+    if (std::getenv("XDG_RUNTIME_DIR") != nullptr) return;
+    std::string pattern = (std::filesystem::temp_directory_path() / "calivera-qt-XXXXXX").string();
+    if (mkdtemp(pattern.data()) == nullptr) return;  // Qt then falls back and says so itself
+    path_ = pattern;
+    setenv("XDG_RUNTIME_DIR", path_.c_str(), 1);
+  }
+  ~RuntimeDirScope() {
+    if (path_.empty()) return;
+    unsetenv("XDG_RUNTIME_DIR");
+    std::error_code ignored;
+    std::filesystem::remove_all(path_, ignored);
+  }
+  RuntimeDirScope(const RuntimeDirScope&) = delete;
+  RuntimeDirScope& operator=(const RuntimeDirScope&) = delete;
+
+ private:
+  std::string path_;
+};
 
 // A QApplication for processes that have none (the command line). QChart needs the widgets
 // application; without a display the offscreen platform serves fonts and painting.
@@ -40,6 +66,7 @@ class ApplicationScope {
     if (std::getenv("QT_QPA_PLATFORM") == nullptr && !display) {
       setenv("QT_QPA_PLATFORM", "offscreen", 0);
     }
+    runtimeDir_ = std::make_unique<RuntimeDirScope>();
     owned_ = std::make_unique<QApplication>(argc_, argv_);
   }
 
@@ -48,6 +75,7 @@ class ApplicationScope {
   static inline char* argvStorage_[] = {name_, nullptr};
   int argc_ = 1;
   char** argv_ = argvStorage_;
+  std::unique_ptr<RuntimeDirScope> runtimeDir_;  // outlives the application
   std::unique_ptr<QApplication> owned_;
 };
 

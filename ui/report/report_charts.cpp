@@ -86,6 +86,8 @@ RecordedCharts recordReportCharts(const AuditDocument& doc) {
     charts::DecisionCurveChart chart(r.decisionCurve, r.cohort);
     if (doc.reasonableThresholds) {
       chart.setReasonableRange(doc.reasonableThresholds->lo, doc.reasonableThresholds->hi);
+    } else {
+      chart.clearReasonableRange();
     }
     chart.setThreshold(snapshot);
     recorded.drawings[ChartKind::DecisionCurve] = record(chart);

@@ -101,6 +101,10 @@ ConfusionPanel::ConfusionPanel(QWidget* parent) : QWidget(parent) {
   rates_->setMinimumHeight(2 * line + 4);
   netBenefit_->setMinimumHeight(3 * line + 4);
   naturalFrequency_->setMinimumHeight(6 * line + 4);
+  // ...and top-aligned, so the reserved height does not open a gap under each heading.
+  for (QLabel* l : {rates_, netBenefit_, naturalFrequency_}) {
+    l->setAlignment(Qt::AlignLeft | Qt::AlignTop);
+  }
   layout->addStretch(1);
   clear();
 }

@@ -1,0 +1,92 @@
+// Chart details a reader relies on: the decision curve drops its range entry when no range was
+// chosen, axis labels are distinct, and the calibration histogram stays within the plotted risk
+// range.
+#include <QtCharts/QAreaSeries>
+#include <QtCharts/QLegend>
+#include <QtCharts/QLegendMarker>
+#include <QtCharts/QLineSeries>
+#include <QtCharts/QValueAxis>
+#include <QtTest>
+
+#include "ui/charts/calibration_chart.h"
+#include "ui/charts/decision_curve_chart.h"
+
+using namespace calivera;
+using namespace calivera::ui;
+
+namespace {
+
+std::vector<DecisionCurvePoint> curveTo(double lastThreshold) {
+  std::vector<DecisionCurvePoint> curve;
+  for (double t = 0.05; t <= lastThreshold + 1e-9; t += 0.05) {
+    DecisionCurvePoint p;
+    p.threshold = t;
+    p.netBenefit = 0.1 - t / 4;
+    p.netBenefitTreatAll = 0.1 - t;
+    curve.push_back(p);
+  }
+  return curve;
+}
+
+// Every legend entry (markers report isVisible() false until the chart is shown on screen).
+QStringList legendLabels(QChart& chart) {
+  QStringList labels;
+  for (QLegendMarker* m : chart.legend()->markers()) labels << m->label();
+  return labels;
+}
+
+}  // namespace
+
+class ChartLegendTest : public QObject {
+  Q_OBJECT
+
+ private slots:
+  void reasonableRangeLeavesTheLegendWhenCleared() {
+    charts::DecisionCurveChart chart(curveTo(1.0), CohortSummary{1000, 100, 0.1, false});
+    chart.setReasonableRange(0.05, 0.3);
+    QVERIFY(legendLabels(chart).contains("Reasonable range"));
+    chart.clearReasonableRange();
+    QVERIFY(!legendLabels(chart).contains("Reasonable range"));
+    QVERIFY(legendLabels(chart).contains("Model"));
+    chart.setReasonableRange(0.1, 0.2);  // ignored once cleared, and no crash
+  }
+
+  void shortThresholdRangeHasDistinctTickLabels() {
+    charts::DecisionCurveChart chart(curveTo(0.3), CohortSummary{1000, 100, 0.1, false});
+    auto* x = qobject_cast<QValueAxis*>(chart.axes(Qt::Horizontal).first());
+    QVERIFY(x != nullptr);
+    QCOMPARE(x->max(), 0.3);
+    // Ticks every 0.05 printed with two decimals (one decimal printed 0.1 and 0.2 twice).
+    QCOMPARE(x->tickCount(), 7);
+    QCOMPARE(x->labelFormat(), QString("%.2f"));
+  }
+
+  void calibrationHistogramStopsAtTheAxis() {
+    Calibration c;
+    c.slope = 1;
+    CalibrationGroup g;
+    g.meanRisk = 0.2;
+    g.observedProportion = 0.2;
+    g.observedCi = {0.15, 0.25};
+    c.groups = {g};
+    c.curve = {{0.05, 0.05}, {0.35, 0.33}};
+    RiskHistogram h;
+    for (int i = 0; i <= 10; ++i) h.binEdges.push_back(i / 10.0);
+    h.eventCounts.assign(10, 1);
+    h.nonEventCounts.assign(10, 3);
+    charts::CalibrationChart chart(c, h);
+    QVERIFY(chart.axisMax() < 1.0);
+    for (QAbstractSeries* s : chart.series()) {
+      auto* area = qobject_cast<QAreaSeries*>(s);
+      if (area == nullptr || area->name() != "Histogram") continue;
+      for (const QPointF& p : area->upperSeries()->points()) {
+        QVERIFY2(p.x() <= chart.axisMax() + 1e-12, qPrintable(QString::number(p.x())));
+      }
+      return;
+    }
+    QFAIL("no histogram series");
+  }
+};
+
+QTEST_MAIN(ChartLegendTest)
+#include "chart_legend_test.moc"
