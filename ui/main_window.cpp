@@ -27,8 +27,11 @@
 #include "ui/models/record_table_model.h"
 #include "ui/views/caution_text.h"
 #include "ui/views/chart_panel.h"
+#include "ui/views/comparison_view.h"
 #include "ui/views/confusion_panel.h"
 #include "ui/views/predictor_view.h"
+#include "ui/views/result_table_view.h"
+#include "ui/views/subgroup_view.h"
 #include "ui/views/threshold_bar.h"
 
 namespace calivera::ui {
@@ -90,6 +93,11 @@ MainWindow::MainWindow(QWidget* parent) : QMainWindow(parent) {
             study_.heldValues = held;
           });
   tabs_->addTab(predictorView_, tr("&Predictor space"));
+  comparisonView_ = new ComparisonView;
+  tabs_->addTab(comparisonView_, tr("&Comparison"));
+  subgroupView_ = new SubgroupView;
+  connect(subgroupView_, &SubgroupView::thresholdPicked, this, &MainWindow::setThreshold);
+  tabs_->addTab(subgroupView_, tr("S&ubgroups"));
   layout->addWidget(tabs_, 1);
 
   status_ = new QLabel;
@@ -201,6 +209,9 @@ void MainWindow::buildMenus() {
   actionCancel_->setObjectName(QStringLiteral("actionCancel"));
   actionCancel_->setShortcut(QKeySequence(Qt::Key_Escape));
   connect(actionCancel_, &QAction::triggered, job_, &BackgroundJob::cancel);
+  actionUncertainty_ = add(
+      analysis, QStringLiteral("actionUncertainty"), tr("&Intervals, comparison and subgroups…"),
+      QKeySequence(Qt::CTRL | Qt::SHIFT | Qt::Key_B), &MainWindow::onUncertainty);
   analysis->addSeparator();
   QAction* up = analysis->addAction(tr("Raise threshold by 0.005"));
   up->setObjectName(QStringLiteral("actionThresholdUp"));
@@ -306,22 +317,7 @@ QWidget* MainWindow::buildLinkedViewsTab() {
 
 QTableView* MainWindow::makeTableView(const QString& objectName, RecordTableModel* model,
                                       QSortFilterProxyModel** proxyOut) {
-  auto* proxy = new QSortFilterProxyModel(this);
-  proxy->setObjectName(objectName + QStringLiteral("Proxy"));
-  proxy->setSourceModel(model);
-  proxy->setSortRole(RecordTableModel::kSortRole);
-  auto* view = new QTableView;
-  view->setObjectName(objectName);
-  view->setModel(proxy);
-  view->setSortingEnabled(true);
-  view->setSelectionBehavior(QAbstractItemView::SelectRows);
-  view->setSelectionMode(QAbstractItemView::ExtendedSelection);
-  view->setAlternatingRowColors(true);
-  view->verticalHeader()->setVisible(false);
-  view->horizontalHeader()->setSectionResizeMode(QHeaderView::ResizeToContents);
-  view->setEditTriggers(QAbstractItemView::NoEditTriggers);
-  if (proxyOut != nullptr) *proxyOut = proxy;
-  return view;
+  return makeResultTableView(objectName, model, proxyOut);
 }
 
 QWidget* MainWindow::buildTablesTab() {
@@ -394,6 +390,7 @@ void MainWindow::updateActions() {
   }
   actionMap_->setEnabled(!busy && study_.model.has_value() && table_ != nullptr);
   actionCancel_->setEnabled(busy);
+  actionUncertainty_->setEnabled(!busy && study_.result != nullptr && cohort_ != nullptr);
   actionSave_->setEnabled(study_.data.has_value());
   actionSaveAs_->setEnabled(study_.data.has_value());
   actionExportCharts_->setEnabled(study_.result != nullptr);

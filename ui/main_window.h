@@ -32,7 +32,9 @@ namespace calivera::ui {
 
 class BackgroundJob;
 class ChartPanel;
+class ComparisonView;
 class ConfusionPanel;
+class SubgroupView;
 class PredictorView;
 class RecordTableModel;
 class ThresholdBar;
@@ -60,6 +62,10 @@ class MainWindow : public QMainWindow {
                       const std::vector<std::string>& warnings);
   bool setColumnMapping(const std::map<std::string, std::string>& mapping);
   bool runValidation();
+  // Bootstrap intervals and bands, comparison and subgroups on the current analysis, in the
+  // background. Success replaces study().uncertainty and study().uncertaintySettings; cancel or
+  // failure keeps the previous results, with a message.
+  bool runUncertainty(const UncertaintySettings& settings);
   void setThreshold(double threshold);
 
   // Exports every chart as NAME.png and NAME.svg into `folder`; empty string on success.
@@ -114,6 +120,7 @@ class MainWindow : public QMainWindow {
   void onExportTable();
   void onCopyTable();
   void onExportReport();
+  void onUncertainty();
 
   StudyState study_;
   QString studyPath_;
@@ -136,6 +143,8 @@ class MainWindow : public QMainWindow {
   ConfusionPanel* confusion_ = nullptr;
   QTextBrowser* summary_ = nullptr;
   PredictorView* predictorView_ = nullptr;
+  ComparisonView* comparisonView_ = nullptr;
+  SubgroupView* subgroupView_ = nullptr;
   RecordTableModel* thresholdModel_ = nullptr;
   RecordTableModel* hlModel_ = nullptr;
   RecordTableModel* coefficientModel_ = nullptr;
@@ -157,6 +166,7 @@ class MainWindow : public QMainWindow {
   QAction* actionMap_ = nullptr;
   QAction* actionRun_ = nullptr;
   QAction* actionCancel_ = nullptr;
+  QAction* actionUncertainty_ = nullptr;
   QAction* actionExportCharts_ = nullptr;
   QAction* actionExportTable_ = nullptr;
   QAction* actionExportReport_ = nullptr;

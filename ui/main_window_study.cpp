@@ -25,14 +25,18 @@
 #include "ui/dialogs/fit_dialog.h"
 #include "ui/dialogs/import_dialog.h"
 #include "ui/dialogs/mapping_dialog.h"
+#include "ui/dialogs/uncertainty_dialog.h"
 #include "ui/main_window.h"
 #include "ui/models/record_table_model.h"
 #include "ui/models/result_tables.h"
 #include "ui/models/table_export.h"
 #include "ui/state/study_file.h"
+#include "ui/state/uncertainty.h"
 #include "ui/views/chart_panel.h"
+#include "ui/views/comparison_view.h"
 #include "ui/views/confusion_panel.h"
 #include "ui/views/predictor_view.h"
+#include "ui/views/subgroup_view.h"
 #include "ui/views/summary_html.h"
 #include "ui/views/threshold_bar.h"
 
@@ -87,7 +91,7 @@ void MainWindow::applyPipeline(PipelineOutput& output, const QString& studyPathO
     addRecentStudy(studyPath_);
   }
   if (cohort_) {
-    threshold_.setData(cohort_->risk, cohort_->outcome);
+    threshold_.setData(cohort_->risk(), cohort_->outcome());
   } else {
     threshold_.clear();
   }
@@ -158,6 +162,9 @@ void MainWindow::rebuildViews() {
            "on the cohort (Model → Fit a model)."));
   }
   summary_->setHtml(summaryHtml(study_));
+  comparisonView_->setResults(study_.uncertainty, study_.analysis.reasonableLo,
+                              study_.analysis.reasonableHi);
+  subgroupView_->setResults(study_.uncertainty);
   predictorView_->setData(study_.model ? &*study_.model : nullptr, cohort_, study_.columnMapping,
                           study_.predictorView, study_.heldValues);
   applyThreshold();
@@ -179,6 +186,7 @@ void MainWindow::applyThreshold() {
       if (p->linkedChart() != nullptr) p->linkedChart()->setThreshold(snapshot);
     }
     confusion_->setSnapshot(snapshot);
+    subgroupView_->setThreshold(snapshot);
     predictorView_->setThreshold(snapshot);
     highlightThresholdRow();
   }
@@ -231,6 +239,7 @@ bool MainWindow::openStudy(const QString& path) {
   }
   PipelineRequest request;
   request.study = candidate;
+  request.withUncertainty = true;  // recompute what the study's uncertainty settings ask for
   const bool started = startPipeline(request, tr("Opening study"), path);
   if (started && !changed.isEmpty()) {
     // Shown after the run so the pipeline's own notes do not hide it.
@@ -334,6 +343,30 @@ bool MainWindow::runValidation() {
   return startPipeline(request, tr("Validating"), {});
 }
 
+bool MainWindow::runUncertainty(const UncertaintySettings& settings) {
+  if (job_->isRunning()) {
+    showMessage(tr("Another computation is still running; wait for it or cancel it."), true);
+    return false;
+  }
+  if (!study_.result || !cohort_) {
+    showMessage(tr("Run the validation first (Analysis → Run validation)."), true);
+    return false;
+  }
+  std::function<UncertaintyResults(const ProgressCallback&)> work =
+      [cohort = cohort_, result = study_.result, settings](const ProgressCallback& progress) {
+        return computeUncertainty(*cohort, *result, settings, progress);
+      };
+  std::function<void(UncertaintyResults&)> done =
+      [this, settings, basis = validationBasis(study_)](UncertaintyResults& results) {
+        study_.uncertaintySettings = withComparedHashes(settings, results);
+        study_.uncertaintyBasis = basis;
+        study_.uncertainty = std::make_shared<const UncertaintyResults>(std::move(results));
+        rebuildViews();
+        clearMessage();
+      };
+  return job_->start<UncertaintyResults>(tr("Intervals, comparison and subgroups"), work, done);
+}
+
 QString MainWindow::exportAllCharts(const QString& folder) {
   if (!QDir().mkpath(folder)) return tr("cannot create the folder %1").arg(folder);
   for (ChartPanel* p : chartPanels()) {
@@ -373,6 +406,13 @@ void MainWindow::onMapVariables() {
   MappingDialog dialog(*study_.model, *table_, study_.columnMapping, this);
   if (dialog.exec() != QDialog::Accepted) return;
   setColumnMapping(dialog.mapping());
+}
+
+void MainWindow::onUncertainty() {
+  if (!study_.result || !table_) return;
+  UncertaintyDialog dialog(study_.uncertaintySettings, *table_, study_.import.outcomeColumn, this);
+  if (dialog.exec() != QDialog::Accepted) return;
+  runUncertainty(dialog.settings());
 }
 
 void MainWindow::onOpenStudy() {
@@ -427,6 +467,11 @@ QTableView* currentTable(QTabWidget* tabs, QTableView* fallback) {
   if (auto* inner = qobject_cast<QTabWidget*>(page)) page = inner->currentWidget();
   if (auto* view = qobject_cast<QTableView*>(page)) return view;
   if (page != nullptr) {
+    // A page with several tables (Comparison): the one with the keyboard focus, else the first.
+    QWidget* focus = QApplication::focusWidget();
+    for (QTableView* view : page->findChildren<QTableView*>()) {
+      if (focus != nullptr && (view == focus || view->isAncestorOf(focus))) return view;
+    }
     if (auto* view = page->findChild<QTableView*>()) return view;
   }
   return fallback;

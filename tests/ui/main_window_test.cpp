@@ -6,11 +6,14 @@
 // numbers); the sample study under resources/ is opened too when the sample data exists.
 #include "ui/main_window.h"
 
+#include <QAction>
 #include <QComboBox>
 #include <QDoubleSpinBox>
 #include <QFile>
 #include <QImage>
 #include <QLabel>
+#include <QProgressBar>
+#include <QScrollBar>
 #include <QSlider>
 #include <QSortFilterProxyModel>
 #include <QTabWidget>
@@ -22,8 +25,12 @@
 #include <fstream>
 #include <random>
 
+#include "core/data/csv_reader.h"
+#include "core/fit/cohort_fit.h"
 #include "core/metrics/threshold_index.h"
+#include "core/metrics/validation_run.h"
 #include "core/model/model_io.h"
+#include "core/uncertainty/uncertainty_run.h"
 #include "core/util/sha256.h"
 #include "ui/async/background_job.h"
 #include "ui/charts/calibration_chart.h"
@@ -35,6 +42,7 @@
 #include "ui/state/study_file.h"
 #include "ui/views/chart_panel.h"
 #include "ui/views/predictor_view.h"
+#include "ui/views/subgroup_view.h"
 
 using namespace calivera;
 using namespace calivera::ui;
@@ -108,6 +116,51 @@ QString text(QObject& root, const char* name) {
   return child<QLabel>(root, name)->text();
 }
 
+bool appendTo(const QString& path, const char* text) {
+  QFile f(path);
+  return f.open(QIODevice::Append) && f.write(text) > 0;
+}
+
+QString cellText(QTableView* view, int row, int column) {
+  return view->model()->index(row, column).data().toString();
+}
+
+int columnOf(QTableView* view, const QString& header) {
+  for (int c = 0; c < view->model()->columnCount(); ++c) {
+    if (view->model()->headerData(c, Qt::Horizontal).toString() == header) return c;
+  }
+  qFatal("no column %s", qPrintable(header));
+  return -1;
+}
+
+const QString kSampleStudy = QStringLiteral(CALIVERA_SOURCE_DIR "/resources/sample_study.cvstudy");
+const QString kSampleCohort = QStringLiteral(CALIVERA_SOURCE_DIR "/sample_data/local_cohort.csv");
+const QString kSampleModel =
+    QStringLiteral(CALIVERA_SOURCE_DIR "/sample_data/published_model.json");
+
+// Both bootstraps' intervals, replicate for replicate the same seed: bit-identical.
+void compareBootstrap(const ValidationBootstrap& a, const ValidationBootstrap& b) {
+  QCOMPARE(a.run.replicates, b.run.replicates);
+  QCOMPARE(a.run.failed, b.run.failed);
+  for (auto m :
+       {&ValidationBootstrap::auc, &ValidationBootstrap::brier, &ValidationBootstrap::brierScaled,
+        &ValidationBootstrap::calibrationIntercept, &ValidationBootstrap::calibrationSlope,
+        &ValidationBootstrap::oeRatio, &ValidationBootstrap::ici, &ValidationBootstrap::e90}) {
+    QCOMPARE((a.*m).ci.lo, (b.*m).ci.lo);
+    QCOMPARE((a.*m).ci.hi, (b.*m).ci.hi);
+  }
+  QCOMPARE(a.calibrationCurve.size(), b.calibrationCurve.size());
+  for (std::size_t i = 0; i < a.calibrationCurve.size(); ++i) {
+    QCOMPARE(a.calibrationCurve[i].ci.lo, b.calibrationCurve[i].ci.lo);
+    QCOMPARE(a.calibrationCurve[i].ci.hi, b.calibrationCurve[i].ci.hi);
+  }
+  QCOMPARE(a.netBenefit.size(), b.netBenefit.size());
+  for (std::size_t i = 0; i < a.netBenefit.size(); ++i) {
+    QCOMPARE(a.netBenefit[i].ci.lo, b.netBenefit[i].ci.lo);
+    QCOMPARE(a.netBenefit[i].ci.hi, b.netBenefit[i].ci.hi);
+  }
+}
+
 }  // namespace
 
 class MainWindowTest : public QObject {
@@ -118,6 +171,47 @@ class MainWindowTest : public QObject {
   QString cohort_, model_, study_;
 
   QString path(const QString& name) const { return dir_.filePath(name); }
+
+  QString secondModel_;
+
+  // A second model for the sample data to compare with: refitted on the sample cohort with
+  // fewer predictors (demo input only; the checks compare the window with core on it).
+  QString secondModel() {
+    if (!secondModel_.isEmpty()) return secondModel_;
+    const Table table = readCsvFile(kSampleCohort.toStdString(), CsvOptions{}).table;
+    CohortFitSpec spec;
+    spec.outcome = OutcomeSpec{"complication_30d", std::nullopt};
+    spec.predictors = {"age", "urgency", "reserve"};
+    spec.modelName = "Refit: age, urgency, reserve";
+    const CohortFit fit = fitCohortModel(table, spec);
+    secondModel_ = path("refit_model.json");
+    writeModelFile(secondModel_.toStdString(), fit.model);
+    return secondModel_;
+  }
+
+  UncertaintySettings sampleSettings() {
+    UncertaintySettings s;
+    s.bootstrapReplicates = 50;
+    s.seed = 7;
+    s.threads = 2;
+    s.compareModels = {InputFileRecord{secondModel().toStdString(), {}}};
+    s.subgroupColumns = {"site"};
+    return s;
+  }
+
+  void openSample(MainWindow& w) {
+    QVERIFY(w.openStudy(kSampleStudy));
+    waitForJob(w);
+    QVERIFY2(w.study().result != nullptr, qPrintable(w.messageText()));
+  }
+
+  void runUncertainty(MainWindow& w, const UncertaintySettings& s) {
+    QVERIFY(w.runUncertainty(s));
+    waitForJob(w);
+    QVERIFY2(w.study().uncertainty != nullptr, qPrintable(w.messageText()));
+    QVERIFY2(w.study().uncertainty->bootstrap.has_value() == (s.bootstrapReplicates > 0),
+             qPrintable(w.messageText()));
+  }
 
   // Opens the simulated study and waits for the validation.
   void openStudy(MainWindow& w) {
@@ -231,8 +325,8 @@ class MainWindowTest : public QObject {
     child<QDoubleSpinBox>(w, "thresholdSpin")->setValue(t);
     const auto cohort = w.cohort();
     std::size_t tp = 0, fp = 0;
-    for (std::size_t i = 0; i < cohort->risk.size(); ++i) {
-      if (cohort->risk[i] >= t) (cohort->outcome[i] > 0.5 ? tp : fp)++;
+    for (std::size_t i = 0; i < cohort->risk().size(); ++i) {
+      if (cohort->risk()[i] >= t) (cohort->outcome()[i] > 0.5 ? tp : fp)++;
     }
     QCOMPARE(text(w, "confusionTp"), QString::number(tp));
     QCOMPARE(text(w, "confusionFp"), QString::number(fp));
@@ -361,11 +455,7 @@ class MainWindowTest : public QObject {
     s.data = InputFileRecord{data.toStdString(), sha256OfFileForTest(data)};
     const QString saved = path("changing.cvstudy");
     writeStudyFile(saved.toStdString(), s);
-    {
-      QFile f(data);
-      QVERIFY(f.open(QIODevice::Append));
-      f.write("70,male,2.5,yes\n");
-    }
+    QVERIFY(appendTo(data, "70,male,2.5,yes\n"));
     MainWindow w;
     w.show();
     QVERIFY(w.openStudy(saved));
@@ -445,6 +535,257 @@ class MainWindowTest : public QObject {
     QVERIFY(html.contains(QString::number(w.study().result->discrimination.auc, 'f', 3)));
   }
 
+  // The window's uncertainty run against core's own pipeline (the command line's route:
+  // runValidation + runUncertainty on the files) on the sample data.
+  void uncertaintyViewsMatchCore() {
+    if (!QFile::exists(kSampleStudy)) QSKIP("sample data not present");
+    MainWindow w;
+    w.show();
+    openSample(w);
+    // Before anything is asked for, the sample-size assessment is there and shown first.
+    QVERIFY(w.study().uncertainty != nullptr);
+    QVERIFY(!w.study().uncertainty->bootstrap);
+    const QString before = child<QTextBrowser>(w, "summaryPanel")->toPlainText();
+    QVERIFY(before.contains("Is the cohort large enough to judge the model?"));
+    QVERIFY(before.indexOf("large enough") < before.indexOf("Discrimination"));
+
+    const UncertaintySettings settings = sampleSettings();
+    runUncertainty(w, settings);
+    const UncertaintyResults& u = *w.study().uncertainty;
+
+    ValidationRequest request;
+    request.dataPath = kSampleCohort.toStdString();
+    request.outcome = OutcomeSpec{"complication_30d", std::nullopt};
+    request.modelPath = kSampleModel.toStdString();
+    const ValidationRun run = runValidation(request);
+    UncertaintyRequest coreRequest;
+    coreRequest.bootstrapReplicates = 50;
+    coreRequest.seed = 7;
+    coreRequest.threads = 1;  // other thread count than the window: same seed, same intervals
+    coreRequest.compareModelPaths = {secondModel().toStdString()};
+    coreRequest.subgroupColumns = {"site"};
+    const UncertaintyResults ref = calivera::runUncertainty(run, coreRequest);
+
+    QVERIFY(u.bootstrap && ref.bootstrap);
+    compareBootstrap(*u.bootstrap, *ref.bootstrap);
+    QCOMPARE(u.sampleSize.requiredN, ref.sampleSize.requiredN);
+    QCOMPARE(u.sampleSize.verdict, ref.sampleSize.verdict);
+
+    // Summary: the bootstrap interval beside the analytic one, with replicates and seed.
+    const QString summary = child<QTextBrowser>(w, "summaryPanel")->toPlainText();
+    QVERIFY2(summary.contains(QString("bootstrap %1 to %2")
+                                  .arg(QString::number(ref.bootstrap->auc.ci.lo, 'f', 3),
+                                       QString::number(ref.bootstrap->auc.ci.hi, 'f', 3))),
+             qPrintable(summary));
+    QVERIFY(summary.contains("50 resamples"));
+    QVERIFY(summary.contains("seed 7"));
+    QVERIFY(
+        summary.contains(QString("n ≥ %1").arg(ref.sampleSize.criteria[0].requiredN, 0, 'f', 0)));
+
+    // Subgroup table: every level's values as core computed them.
+    QCOMPARE(u.subgroups.size(), std::size_t{1});
+    const SubgroupAnalysis& sites = ref.subgroups[0];
+    auto* table = child<QTableView>(w, "subgroupTable");
+    QCOMPARE(table->model()->rowCount(), static_cast<int>(sites.levels.size()));
+    const int aucCol = columnOf(table, "AUC"), slopeCol = columnOf(table, "Cal. slope"),
+              interceptCol = columnOf(table, "Cal. intercept"), oeCol = columnOf(table, "O/E"),
+              iciCol = columnOf(table, "ICI"), bootCol = columnOf(table, "AUC bootstrap CI");
+    for (int r = 0; r < table->model()->rowCount(); ++r) {
+      const SubgroupResult& level = sites.levels[static_cast<std::size_t>(r)];
+      QCOMPARE(cellText(table, r, 0), QString::fromStdString(level.level));
+      QCOMPARE(cellText(table, r, 1), QString::number(level.n));
+      QCOMPARE(cellText(table, r, 2), QString::number(level.events));
+      QVERIFY(level.metrics && level.bootstrap);
+      const ValidationResult& m = *level.metrics;
+      QCOMPARE(cellText(table, r, aucCol), QString::number(m.discrimination.auc, 'f', 3));
+      QCOMPARE(cellText(table, r, slopeCol), QString::number(m.calibration.slope, 'f', 3));
+      QCOMPARE(cellText(table, r, interceptCol), QString::number(m.calibration.intercept, 'f', 3));
+      QCOMPARE(cellText(table, r, oeCol), QString::number(m.calibration.oeRatio, 'f', 3));
+      QCOMPARE(cellText(table, r, iciCol), QString::number(m.calibration.ici, 'f', 4));
+      QCOMPARE(cellText(table, r, bootCol),
+               QString("%1 to %2")
+                   .arg(QString::number(level.bootstrap->auc.ci.lo, 'f', 3),
+                        QString::number(level.bootstrap->auc.ci.hi, 'f', 3)));
+      QCOMPARE(u.subgroups[0].levels[static_cast<std::size_t>(r)].metrics->discrimination.auc,
+               m.discrimination.auc);
+    }
+    // The chart shows the selected level's calibration.
+    auto* view = child<SubgroupView>(w, "subgroupView");
+    view->showLevel(1);
+    auto* cal = dynamic_cast<charts::CalibrationChart*>(view->chartPanel()->linkedChart());
+    QVERIFY(cal != nullptr);
+    QVERIFY(cal->title().contains(QString::fromStdString(sites.levels[1].level)));
+
+    // Comparison: the paired DeLong difference of core, and the AUC of each model.
+    QVERIFY(ref.comparison && u.comparison);
+    const PairedAucTest& t = ref.comparison->pairs[0].auc;
+    QCOMPARE(u.comparison->pairs[0].auc.difference, t.difference);
+    QCOMPARE(u.comparison->pairs[0].auc.z, t.z);
+    auto* delong = child<QTableView>(w, "comparisonDelongTable");
+    QCOMPARE(delong->model()->rowCount(), 1);
+    QCOMPARE(cellText(delong, 0, columnOf(delong, "Difference")),
+             QString::number(t.difference, 'f', 4));
+    QCOMPARE(cellText(delong, 0, columnOf(delong, "z")), QString::number(t.z, 'f', 3));
+    QCOMPARE(cellText(delong, 0, columnOf(delong, "Correlation")),
+             QString::number(t.correlation, 'f', 3));
+    auto* models = child<QTableView>(w, "comparisonModelsTable");
+    QCOMPARE(models->model()->rowCount(), 2);
+    QCOMPARE(cellText(models, 1, columnOf(models, "AUC")),
+             QString::number(ref.comparison->aucs[1], 'f', 3));
+    QCOMPARE(cellText(models, 1, columnOf(models, "File")), QString("refit_model.json"));
+    // Net-benefit differences only over the reasonable range (0.05 to 0.30 by 0.01: 26 rows).
+    auto* nb = child<QTableView>(w, "comparisonNetBenefitTable");
+    int inRange = 0;
+    for (const auto& p : ref.comparison->pairs[0].netBenefit) {
+      if (p.threshold >= 0.05 - 1e-12 && p.threshold <= 0.30 + 1e-12) ++inRange;
+    }
+    QCOMPARE(nb->model()->rowCount(), inRange);
+    const auto& p10 = *std::find_if(
+        ref.comparison->pairs[0].netBenefit.begin(), ref.comparison->pairs[0].netBenefit.end(),
+        [](const auto& p) { return std::abs(p.threshold - 0.1) < 1e-9; });
+    bool found = false;
+    for (int r = 0; r < nb->model()->rowCount(); ++r) {
+      if (cellText(nb, r, 1) != "0.100") continue;
+      found = true;
+      QCOMPARE(cellText(nb, r, 4), QString::number(p10.difference, 'f', 4));
+      QCOMPARE(cellText(nb, r, 5),
+               QString("%1 to %2")
+                   .arg(QString::number(p10.ci.lo, 'f', 4), QString::number(p10.ci.hi, 'f', 4)));
+    }
+    QVERIFY(found);
+    // The compared model's SHA-256 is recorded in the settings.
+    QCOMPARE(w.study().uncertaintySettings.compareModels[0].sha256,
+             sha256OfFileForTest(secondModel()));
+
+    // Moving the threshold recomputes nothing.
+    const auto results = w.study().uncertainty;
+    w.setThreshold(0.25);
+    QCOMPARE(w.study().uncertainty, results);
+  }
+
+  void sameSeedGivesIdenticalIntervals() {
+    if (!QFile::exists(kSampleStudy)) QSKIP("sample data not present");
+    MainWindow w;
+    w.show();
+    openSample(w);
+    UncertaintySettings s;
+    s.bootstrapReplicates = 30;
+    s.seed = 11;
+    s.threads = 1;
+    runUncertainty(w, s);
+    const auto first = w.study().uncertainty;
+    s.threads = 2;
+    runUncertainty(w, s);
+    QVERIFY(first != w.study().uncertainty);
+    compareBootstrap(*first->bootstrap, *w.study().uncertainty->bootstrap);
+    s.seed = 12;
+    runUncertainty(w, s);
+    QVERIFY(first->bootstrap->auc.ci.lo != w.study().uncertainty->bootstrap->auc.ci.lo);
+  }
+
+  void cancelOrFailureKeepsPreviousResults() {
+    if (!QFile::exists(kSampleStudy)) QSKIP("sample data not present");
+    MainWindow w;
+    w.show();
+    openSample(w);
+    UncertaintySettings s;
+    s.subgroupColumns = {"sex"};
+    runUncertainty(w, s);
+    const auto previous = w.study().uncertainty;
+    const auto previousSettings = w.study().uncertaintySettings;
+
+    s.bootstrapReplicates = 20000;
+    QVERIFY(w.runUncertainty(s));
+    QVERIFY(w.job()->isRunning());
+    QTRY_VERIFY(child<QProgressBar>(w, "runProgress")->isVisible());
+    child<QAction>(w, "actionCancel")->trigger();
+    waitForJob(w);
+    QCOMPARE(w.study().uncertainty, previous);
+    QCOMPARE(w.study().uncertaintySettings.bootstrapReplicates, 0);
+    QVERIFY2(w.messageText().contains("Cancelled"), qPrintable(w.messageText()));
+    QCOMPARE(child<QTableView>(w, "subgroupTable")->model()->rowCount(),
+             static_cast<int>(previous->subgroups[0].levels.size()));
+
+    UncertaintySettings bad = s;
+    bad.bootstrapReplicates = 0;
+    bad.subgroupColumns = {"no_such_column"};
+    QVERIFY(w.runUncertainty(bad));
+    waitForJob(w);
+    QCOMPARE(w.study().uncertainty, previous);
+    QVERIFY2(w.messageText().contains("no_such_column"), qPrintable(w.messageText()));
+    QCOMPARE(w.study().uncertaintySettings.subgroupColumns, previousSettings.subgroupColumns);
+  }
+
+  void newModelClearsStaleUncertainty() {
+    if (!QFile::exists(kSampleStudy)) QSKIP("sample data not present");
+    MainWindow w;
+    w.show();
+    openSample(w);
+    UncertaintySettings s;
+    s.bootstrapReplicates = 20;
+    runUncertainty(w, s);
+    const auto results = w.study().uncertainty;
+    // Same cohort and model: the validation re-runs, the uncertainty results stay.
+    child<QDoubleSpinBox>(w, "reasonableHiSpin")->setValue(0.4);
+    QVERIFY(w.runValidation());
+    waitForJob(w);
+    QCOMPARE(w.study().uncertainty, results);
+    // Another model: stale, so only the (new) sample-size assessment remains.
+    QVERIFY(w.loadModelFile(secondModel()));
+    waitForJob(w);
+    QVERIFY(w.study().uncertainty != nullptr);
+    QVERIFY(!w.study().uncertainty->bootstrap);
+    QVERIFY(!child<QTextBrowser>(w, "summaryPanel")->toPlainText().contains("bootstrap"));
+  }
+
+  void uncertaintySettingsRoundTrip() {
+    if (!QFile::exists(kSampleStudy)) QSKIP("sample data not present");
+    const QString saved = path("uncertainty.cvstudy");
+    std::shared_ptr<const UncertaintyResults> before;
+    {
+      MainWindow w;
+      w.show();
+      openSample(w);
+      runUncertainty(w, sampleSettings());
+      before = w.study().uncertainty;
+      QVERIFY(w.saveStudy(saved));
+    }
+    MainWindow w;
+    w.show();
+    QVERIFY(w.openStudy(saved));
+    waitForJob(w);
+    const UncertaintySettings& s = w.study().uncertaintySettings;
+    QCOMPARE(s.bootstrapReplicates, 50);
+    QCOMPARE(s.seed, std::uint64_t{7});
+    QCOMPARE(s.threads, 2u);
+    QCOMPARE(s.subgroupColumns, std::vector<std::string>{"site"});
+    QCOMPARE(s.compareModels.size(), std::size_t{1});
+    QCOMPARE(QString::fromStdString(s.compareModels[0].path), secondModel());
+    QCOMPARE(s.compareModels[0].sha256, sha256OfFileForTest(secondModel()));
+    // Recomputed on reopening, with the same intervals.
+    QVERIFY(w.study().uncertainty && w.study().uncertainty->bootstrap);
+    compareBootstrap(*w.study().uncertainty->bootstrap, *before->bootstrap);
+    QCOMPARE(w.study().uncertainty->comparison->pairs[0].auc.difference,
+             before->comparison->pairs[0].auc.difference);
+    QVERIFY2(w.messageText().isEmpty(), qPrintable(w.messageText()));
+
+    // A changed compared model is reported on reopening.
+    const QString copy = path("compared_copy.json");
+    QVERIFY(QFile::copy(secondModel(), copy));
+    StudyState state = readStudyFile(saved.toStdString());
+    state.uncertaintySettings.compareModels[0] =
+        InputFileRecord{copy.toStdString(), sha256OfFileForTest(copy)};
+    const QString changed = path("uncertainty_changed.cvstudy");
+    writeStudyFile(changed.toStdString(), state);
+    QVERIFY(appendTo(copy, "\n// edited\n"));
+    MainWindow w2;
+    w2.show();
+    QVERIFY(w2.openStudy(changed));
+    waitForJob(w2);
+    QTRY_VERIFY(w2.messageText().contains("compared model file"));
+    QVERIFY(w2.messageText().contains("changed since the study was saved"));
+  }
+
   void screenshots() {
     const QByteArray dir = qgetenv("CALIVERA_SCREENSHOT_DIR");
     MainWindow w;
@@ -457,6 +798,12 @@ class MainWindowTest : public QObject {
       QVERIFY2(w.study().result != nullptr, qPrintable(w.messageText()));
     } else {
       openStudy(w);
+    }
+    if (QFile::exists(sample)) {
+      UncertaintySettings s = sampleSettings();
+      s.bootstrapReplicates = 200;
+      s.threads = 0;
+      runUncertainty(w, s);
     }
     w.setThreshold(0.2);
     QVERIFY(QTest::qWaitForWindowExposed(&w));
@@ -487,6 +834,13 @@ class MainWindowTest : public QObject {
       view->choose(first, second->itemText(2));
       save(&w, "predictor_boundary");
     }
+    tabs->setCurrentWidget(child<QWidget>(w, "comparisonView"));
+    save(&w, "comparison_tab");
+    tabs->setCurrentWidget(child<QWidget>(w, "subgroupView"));
+    save(&w, "subgroups_tab");
+    tabs->setCurrentIndex(1);
+    child<QTextBrowser>(w, "summaryPanel")->verticalScrollBar()->setValue(0);
+    save(&w, "summary_sample_size");
   }
 };
 

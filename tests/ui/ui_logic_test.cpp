@@ -141,6 +141,45 @@ class UiLogicTest : public QObject {
     QCOMPARE(checks[0].problem, std::string("changed since the study was saved"));
   }
 
+  void studyFileKeepsUncertaintySettings() {
+    QTemporaryDir dir;
+    const std::string model = dir.filePath("other_model.json").toStdString();
+    std::ofstream(model) << "{}";
+    StudyState s;
+    s.uncertaintySettings.bootstrapReplicates = 500;
+    s.uncertaintySettings.seed = 4242;
+    s.uncertaintySettings.threads = 3;
+    s.uncertaintySettings.compareModels = {InputFileRecord{model, "def"}};
+    s.uncertaintySettings.subgroupColumns = {"site", "sex"};
+    const std::string path = dir.filePath("u.cvstudy").toStdString();
+    writeStudyFile(path, s);
+    const StudyState r = readStudyFile(path);
+    const UncertaintySettings& u = r.uncertaintySettings;
+    QCOMPARE(u.bootstrapReplicates, 500);
+    QCOMPARE(u.seed, std::uint64_t{4242});
+    QCOMPARE(u.threads, 3u);
+    QCOMPARE(u.compareModels.size(), std::size_t{1});
+    QCOMPARE(u.compareModels[0].path, model);
+    QCOMPARE(u.compareModels[0].sha256, std::string("def"));
+    QCOMPARE(u.subgroupColumns, s.uncertaintySettings.subgroupColumns);
+    // The compared model is checked like the other inputs ("def" is not its SHA-256).
+    const auto checks = checkInputs(r);
+    QCOMPARE(checks.size(), std::size_t{1});
+    QCOMPARE(checks[0].role, std::string("compared model file"));
+    // A study without the key (saved before it existed) opens with everything off.
+    const StudyState old = parseStudyJson(
+        R"({"format": "calivera-study/1", "import": {}, "model": {}, "analysis": {}})", "o");
+    QVERIFY(!old.uncertaintySettings.anyRequested());
+    try {
+      parseStudyJson(R"({"format": "calivera-study/1", "import": {}, "model": {},
+                         "analysis": {}, "uncertainty": {"bootstrap": -5}})",
+                     "b.cvstudy");
+      QFAIL("no error");
+    } catch (const InputError& e) {
+      QVERIFY2(QString(e.what()).contains("b.cvstudy: field 'uncertainty.bootstrap'"), e.what());
+    }
+  }
+
   void studyFileErrorsNameTheField() {
     try {
       parseStudyJson(R"({"format": "calivera-study/1", "import": {}, "model": {},

@@ -27,7 +27,7 @@ QVariant RecordTableModel::data(const QModelIndex& index, int role) const {
     case Qt::DisplayRole:
       return c.text;
     case kSortRole:
-      return c.sortKey;
+      return c.textual ? QVariant(c.text) : QVariant(c.sortKey);
     case Qt::TextAlignmentRole:
       return index.column() == 0 ? QVariant(Qt::AlignLeft | Qt::AlignVCenter)
                                  : QVariant(Qt::AlignRight | Qt::AlignVCenter);

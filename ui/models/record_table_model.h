@@ -14,6 +14,7 @@ namespace calivera::ui {
 struct TableCell {
   QString text;
   double sortKey = 0.0;
+  bool textual = false;  // sort by the text instead of sortKey
 };
 
 class RecordTableModel : public QAbstractTableModel {

@@ -12,6 +12,10 @@ namespace {
 
 constexpr double kZ95 = 1.959963984540054;
 
+}  // namespace
+
+namespace cells {
+
 TableCell number(double v, int decimals) {
   return {fixed(v, decimals), std::isnan(v) ? -std::numeric_limits<double>::infinity() : v};
 }
@@ -21,8 +25,15 @@ TableCell count(std::size_t v) {
 TableCell interval(const Interval& ci, int decimals) {
   return {QStringLiteral("%1 to %2").arg(fixed(ci.lo, decimals), fixed(ci.hi, decimals)), ci.lo};
 }
+TableCell text(const QString& s) {
+  return {s, 0.0, true};
+}
 
-}  // namespace
+}  // namespace cells
+
+using cells::count;
+using cells::interval;
+using cells::number;
 
 void fillThresholdTable(RecordTableModel& model, const std::vector<ThresholdRow>& rows,
                         const std::vector<DecisionCurvePoint>& decisionCurve) {

@@ -10,6 +10,15 @@
 
 namespace calivera::ui {
 
+// Cells with numeric sort keys, formatted as every result table formats them. NaN shows as
+// "not defined" and sorts first.
+namespace cells {
+TableCell number(double v, int decimals);
+TableCell count(std::size_t v);
+TableCell interval(const Interval& ci, int decimals);  // "lo to hi", sorted by lo
+TableCell text(const QString& s);                      // sorts alphabetically
+}  // namespace cells
+
 // Column 0 is the threshold. Net benefit is filled from the decision curve where its threshold
 // grid matches the table's (core builds both from the same grid).
 void fillThresholdTable(RecordTableModel& model, const std::vector<ThresholdRow>& rows,

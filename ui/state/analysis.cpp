@@ -80,27 +80,25 @@ AnalysisOutput runAnalysis(const std::shared_ptr<const Table>& table, Model mode
   for (const auto& [from, to] : study.columnMapping) model.columnMapping[from] = to;
   reportProgress(progress, 0.0);
   // The same preparation as the command line's validate (core/metrics/validation_run.h).
-  PreparedCohort prepared =
-      prepareCohort(*table, OutcomeSpec{study.import.outcomeColumn, study.import.eventValue},
-                    &model, std::nullopt);
+  const OutcomeSpec outcome{study.import.outcomeColumn, study.import.eventValue};
+  PreparedCohort prepared = prepareCohort(*table, outcome, &model, std::nullopt);
   reportProgress(progress, 0.1);
 
   auto cohort = std::make_shared<CohortData>();
   cohort->table = table;
   cohort->rows = prepared.rows;
-  cohort->outcome = prepared.input.outcome;
-  cohort->risk = prepared.input.risk;
-  cohort->linearPredictor = prepared.input.linearPredictor.value_or(std::vector<double>{});
-
-  ValidationOptions options;
-  options.groups = study.analysis.groups;
-  options.apparent =
+  cohort->outcomeSpec = outcome;
+  cohort->options.groups = study.analysis.groups;
+  cohort->options.apparent =
       study.analysis.apparent || (study.data && isApparent(&model, study.data->sha256));
-  options.thresholds = thresholdRange(0.01, 0.99, 0.01);
+  cohort->options.thresholds = thresholdRange(0.01, 0.99, 0.01);
+  ValidationOptions options = cohort->options;
   options.progress = subProgress(progress, 0.1, 1.0);
   ValidationResult result = validate(prepared.input, options);
   result.warnings.insert(result.warnings.begin(), prepared.warnings.begin(),
                          prepared.warnings.end());
+  cohort->input = std::move(prepared.input);
+  cohort->model = model;
 
   AnalysisOutput out;
   out.result = std::make_shared<const ValidationResult>(std::move(result));

@@ -17,13 +17,17 @@
 
 namespace calivera::ui {
 
-// Per-patient data of the analysed rows, kept for the threshold index and the predictor views.
+// Per-patient data of the analysed rows, kept for the threshold index, the predictor views and
+// the uncertainty run (ui/state/uncertainty.h): exactly what validate() received.
 struct CohortData {
   std::shared_ptr<const Table> table;
   std::vector<std::uint32_t> rows;  // analysed rows of `table`
-  std::vector<double> outcome;      // 0/1 per analysed row
-  std::vector<double> risk;
-  std::vector<double> linearPredictor;
+  OutcomeSpec outcomeSpec;
+  Model model;                // with the study's column mapping applied
+  ValidationInput input;      // outcome (0/1), risk and linear predictor per analysed row
+  ValidationOptions options;  // as validate() used them, thresholds filled in, no progress
+  const std::vector<double>& outcome() const { return input.outcome; }
+  const std::vector<double>& risk() const { return input.risk; }
 };
 
 struct AnalysisOutput {

@@ -5,6 +5,7 @@
 #include "core/model/model_io.h"
 #include "core/util/errors.h"
 #include "core/util/sha256.h"
+#include "ui/state/uncertainty.h"
 
 namespace calivera::ui {
 
@@ -30,6 +31,8 @@ PipelineOutput runPipeline(const PipelineRequest& request, const ProgressCallbac
   StudyState& s = out.study;
   s.result.reset();
   s.exclusions = {};
+  const std::shared_ptr<const UncertaintyResults> previousUncertainty = std::move(s.uncertainty);
+  s.uncertainty.reset();
   reportProgress(progress, 0.0);
 
   if (!s.data) throw InputError("no cohort file is chosen");
@@ -84,11 +87,43 @@ PipelineOutput runPipeline(const PipelineRequest& request, const ProgressCallbac
                         list + ". Pair them with cohort columns (Model → Map variables).");
     return out;
   }
-  AnalysisOutput analysis = runAnalysis(
-      out.table, *s.model, s, [&](double f) { return progress ? progress(0.4 + 0.6 * f) : true; });
+  const bool fullUncertainty = request.withUncertainty && s.uncertaintySettings.anyRequested();
+  const double analysisEnd = fullUncertainty ? 0.6 : 1.0;
+  AnalysisOutput analysis = runAnalysis(out.table, *s.model, s, [&](double f) {
+    return progress ? progress(0.4 + (analysisEnd - 0.4) * f) : true;
+  });
   s.exclusions = analysis.exclusions;
   s.result = analysis.result;
   out.cohort = analysis.cohort;
+
+  const std::string basis = validationBasis(s);
+  if (previousUncertainty && s.uncertaintyBasis == basis && !fullUncertainty) {
+    s.uncertainty = previousUncertainty;
+    return out;
+  }
+  s.uncertaintyBasis = basis;
+  if (fullUncertainty) {
+    try {
+      UncertaintyResults u =
+          computeUncertainty(*out.cohort, *s.result, s.uncertaintySettings, [&](double f) {
+            return progress ? progress(analysisEnd + (1.0 - analysisEnd) * f) : true;
+          });
+      s.uncertaintySettings = withComparedHashes(s.uncertaintySettings, u);
+      s.uncertainty = std::make_shared<const UncertaintyResults>(std::move(u));
+      return out;
+    } catch (const Cancelled&) {
+      throw;
+    } catch (const std::runtime_error& e) {  // InputError, AnalysisError: the study still opens
+      out.notes.push_back(std::string("The uncertainty analysis could not run: ") + e.what());
+    }
+  }
+  // The sample-size assessment alone: cheap, and always shown before the results.
+  try {
+    s.uncertainty = std::make_shared<const UncertaintyResults>(
+        computeUncertainty(*out.cohort, *s.result, UncertaintySettings{}, nullptr));
+  } catch (const AnalysisError& e) {
+    out.notes.push_back(std::string("No sample-size assessment: ") + e.what());
+  }
   return out;
 }
 

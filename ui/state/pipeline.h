@@ -19,6 +19,10 @@ struct PipelineRequest {
   StudyState study;                    // inputs and settings to use
   std::shared_ptr<const Table> table;  // reuse when it matches study.data; else read
   bool refit = false;                  // Fitted source: fit again even if study.model is set
+  // Also run what study.uncertaintySettings asks for (bootstrap, comparison, subgroups), as on
+  // reopening a study. Otherwise uncertainty results are kept when the validation basis is
+  // unchanged and replaced by the sample-size assessment alone when it changed.
+  bool withUncertainty = false;
 };
 
 struct PipelineOutput {
@@ -26,7 +30,7 @@ struct PipelineOutput {
   std::shared_ptr<const Table> table;
   std::shared_ptr<const CohortData> cohort;    // null when no validation could run yet
   std::vector<std::string> unmappedVariables;  // model variables the cohort lacks
-  std::vector<std::string> notes;              // why no validation ran, when it did not
+  std::vector<std::string> notes;  // why no validation ran, why no uncertainty analysis ran
 };
 
 PipelineOutput runPipeline(const PipelineRequest& request, const ProgressCallback& progress);

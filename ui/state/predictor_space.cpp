@@ -245,7 +245,7 @@ BoundaryData riskSurface(const Model& model, const std::map<std::string, std::st
       std::max<std::size_t>(1, (cohort.rows.size() + kMaxPatients - 1) / kMaxPatients);
   for (std::size_t k = 0; k < cohort.rows.size(); k += out.patientStride) {
     const std::uint32_t r = cohort.rows[k];
-    out.patients.push_back({cx.numbers[r], cy.numbers[r], cohort.outcome[k] > 0.5});
+    out.patients.push_back({cx.numbers[r], cy.numbers[r], cohort.outcome()[k] > 0.5});
   }
   return out;
 }

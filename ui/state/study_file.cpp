@@ -120,6 +120,14 @@ std::string studyToJson(const StudyState& study, const std::string& studyPath) {
                    {"groups", study.analysis.groups},
                    {"apparent", study.analysis.apparent}};
   j["predictorView"] = {{"predictors", study.predictorView}, {"held", study.heldValues}};
+  const UncertaintySettings& u = study.uncertaintySettings;
+  json compare = json::array();
+  for (const InputFileRecord& m : u.compareModels) compare.push_back(fileRecord(m, studyPath));
+  j["uncertainty"] = {{"bootstrap", u.bootstrapReplicates},
+                      {"seed", u.seed},
+                      {"threads", u.threads},
+                      {"compareModels", compare},
+                      {"subgroups", u.subgroupColumns}};
   return j.dump(2) + "\n";
 }
 
@@ -194,6 +202,27 @@ StudyState parseStudyJson(const std::string& text, const std::string& studyPath)
         in.get<std::vector<std::string>>(pv, "predictors", "predictorView.predictors", {});
     s.heldValues = in.get<std::map<std::string, std::string>>(pv, "held", "predictorView.held", {});
   }
+  if (j.contains("uncertainty") && !j.at("uncertainty").is_null()) {
+    const json& u = in.object(j, "uncertainty", "uncertainty");
+    UncertaintySettings& out = s.uncertaintySettings;
+    out.bootstrapReplicates = in.get<int>(u, "bootstrap", "uncertainty.bootstrap", 0);
+    if (out.bootstrapReplicates < 0 || out.bootstrapReplicates > kMaxBootstrapReplicates) {
+      in.fail("uncertainty.bootstrap",
+              "must lie between 0 and " + std::to_string(kMaxBootstrapReplicates));
+    }
+    out.seed = in.get<std::uint64_t>(u, "seed", "uncertainty.seed", 1);
+    out.threads = in.get<unsigned>(u, "threads", "uncertainty.threads", 0);
+    if (u.contains("compareModels") && !u.at("compareModels").is_null()) {
+      const json& list = u.at("compareModels");
+      if (!list.is_array()) in.fail("uncertainty.compareModels", "expected an array");
+      for (std::size_t i = 0; i < list.size(); ++i) {
+        out.compareModels.push_back(
+            in.file(list.at(i), "uncertainty.compareModels[" + std::to_string(i) + "]", folder));
+      }
+    }
+    out.subgroupColumns =
+        in.get<std::vector<std::string>>(u, "subgroups", "uncertainty.subgroups", {});
+  }
   return s;
 }
 
@@ -228,6 +257,9 @@ std::vector<InputCheck> checkInputs(const StudyState& study) {
   };
   check(study.data, "cohort data");
   if (study.modelSource == ModelSource::File) check(study.modelFile, "model file");
+  for (const InputFileRecord& m : study.uncertaintySettings.compareModels) {
+    check(m, "compared model file");
+  }
   return out;
 }
 

@@ -14,7 +14,10 @@
 //     "columnMapping": {"model variable": "cohort column"},
 //     "analysis": {"threshold": 0.1, "reasonableLo": 0.05, "reasonableHi": 0.3, "groups": 10,
 //                  "apparent": false},
-//     "predictorView": {"predictors": [...], "held": {"age": "65"}} }
+//     "predictorView": {"predictors": [...], "held": {"age": "65"}},
+//     "uncertainty": {"bootstrap": 0 | B, "seed": 1, "threads": 0 (all cores),
+//                     "compareModels": [{...as data...}], "subgroups": ["site"]} }
+// "uncertainty" is optional (studies saved before it existed open with everything off).
 
 #include <string>
 #include <vector>
@@ -24,6 +27,7 @@
 namespace calivera::ui {
 
 inline constexpr const char* kStudyFormatId = "calivera-study/1";
+inline constexpr int kMaxBootstrapReplicates = 100000;  // as the command line's --bootstrap
 
 // Paths are written relative to the folder of `studyPath` as well as absolute.
 std::string studyToJson(const StudyState& study, const std::string& studyPath);
@@ -36,7 +40,7 @@ void writeStudyFile(const std::string& path, const StudyState& study);  // atomi
 StudyState readStudyFile(const std::string& path);
 
 struct InputCheck {
-  std::string role;  // "cohort data", "model file"
+  std::string role;  // "cohort data", "model file", "compared model file"
   std::string path;
   std::string problem;  // "missing" or "changed since the study was saved"
 };

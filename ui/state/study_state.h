@@ -4,6 +4,7 @@
 // result. The study file (study_file.h) saves the inputs and settings; the workstation recomputes
 // the rest on reopening. The PDF report reads a StudyState and nothing else.
 
+#include <cstdint>
 #include <map>
 #include <memory>
 #include <optional>
@@ -13,6 +14,7 @@
 #include "core/data/cohort.h"
 #include "core/metrics/validation.h"
 #include "core/model/model.h"
+#include "core/uncertainty/uncertainty_run.h"
 
 namespace calivera::ui {
 
@@ -44,6 +46,20 @@ struct AnalysisSettings {
   bool apparent = false;  // the cohort is the model's development data
 };
 
+// Uncertainty, comparison and subgroups (core/uncertainty/uncertainty_run.h). The sample-size
+// assessment is always computed; the rest only when asked for here.
+struct UncertaintySettings {
+  int bootstrapReplicates = 0;  // 0: no bootstrap intervals or bands
+  std::uint64_t seed = 1;
+  unsigned threads = 0;                        // 0: all hardware threads
+  std::vector<InputFileRecord> compareModels;  // further model files compared with the study's
+  std::vector<std::string> subgroupColumns;    // cohort columns
+
+  bool anyRequested() const {
+    return bootstrapReplicates > 0 || !compareModels.empty() || !subgroupColumns.empty();
+  }
+};
+
 struct StudyState {
   std::optional<InputFileRecord> data;
   ImportSettings import;
@@ -55,12 +71,18 @@ struct StudyState {
   // Predictor-space views: chosen predictors and the values the others are held at.
   std::vector<std::string> predictorView;
   std::map<std::string, std::string> heldValues;
+  UncertaintySettings uncertaintySettings;
 
   // Computed, not saved (recomputed from the inputs when a study is reopened).
   std::optional<Model> model;
   std::vector<std::string> modelWarnings;  // separation, non-convergence, unit checks
   ExclusionReport exclusions;
   std::shared_ptr<const ValidationResult> result;
+  // Sample size (always, once a result exists) and whatever uncertaintySettings asked for.
+  std::shared_ptr<const UncertaintyResults> uncertainty;
+  // validationBasis() of the inputs `uncertainty` was computed for; a run with another basis
+  // (new cohort, model, mapping, outcome coding, groups) makes it stale.
+  std::string uncertaintyBasis;
 };
 
 }  // namespace calivera::ui

@@ -1,6 +1,7 @@
 #include "ui/views/summary_html.h"
 
 #include <QFileInfo>
+#include <cmath>
 
 #include "ui/charts/chart_text.h"
 #include "ui/state/readings.h"
@@ -24,7 +25,66 @@ QString ci(double v, const Interval& i, int decimals) {
   return withInterval(v, i.lo, i.hi, decimals);
 }
 
+// The percentile bootstrap interval beside an analytic one (empty without a bootstrap).
+QString boot(const ValidationBootstrap* b, const BootstrapEstimate ValidationBootstrap::*member,
+             int decimals) {
+  if (b == nullptr) return {};
+  const BootstrapEstimate& e = b->*member;
+  return QStringLiteral("<br><span style='color:#0b4f7a'>bootstrap %1 to %2</span>")
+      .arg(fixed(e.ci.lo, decimals), fixed(e.ci.hi, decimals));
+}
+
+QString metText(bool met) {
+  return met ? QStringLiteral("met") : QStringLiteral("<b style='color:#a04000'>not met</b>");
+}
+
+QString count(double v) {
+  return std::isfinite(v) ? QString::number(v, 'f', 0) : QStringLiteral("not defined");
+}
+
 }  // namespace
+
+QString sampleSizeHtml(const SampleSizeAssessment& s) {
+  QString html = QStringLiteral("<h3>Is the cohort large enough to judge the model?</h3>");
+  html += QStringLiteral("<p><b>%1</b></p>").arg(esc(s.verdict));
+  html += QStringLiteral(
+      "<table cellspacing='0' cellpadding='2'><tr><th align='left'>Check</th>"
+      "<th align='left' style='padding-left:12px'>Needed</th>"
+      "<th align='left' style='padding-left:12px'>Available</th>"
+      "<th align='left' style='padding-left:12px'>95% CI width: target / achieved</th>"
+      "<th align='left' style='padding-left:12px'>Result</th></tr>");
+  const auto line = [](const QString& check, const QString& needed, const QString& available,
+                       const QString& width, bool met) {
+    return QStringLiteral(
+               "<tr><td>%1</td><td style='padding-left:12px'>%2</td>"
+               "<td style='padding-left:12px'>%3</td><td style='padding-left:12px'>%4</td>"
+               "<td style='padding-left:12px'>%5</td></tr>")
+        .arg(check, needed, available, width, metText(met));
+  };
+  const QString available =
+      QStringLiteral("%1 events, %2 non-events").arg(s.events).arg(s.nonEvents);
+  for (const RuleOfThumb& r : s.rules) {
+    html +=
+        line(QStringLiteral("Rule of thumb"), esc(r.rule), available, QStringLiteral("—"), r.met);
+  }
+  for (const SampleSizeCriterion& c : s.criteria) {
+    const QString achieved =
+        c.achievedCiWidth ? fixed(*c.achievedCiWidth, 3) : QStringLiteral("not estimated");
+    html +=
+        line(QStringLiteral("Riley size: %1").arg(esc(c.criterion)),
+             QStringLiteral("n ≥ %1 (%2 events)").arg(count(c.requiredN), count(c.requiredEvents)),
+             QStringLiteral("n = %1 (%2 events)").arg(s.n).arg(s.events),
+             QStringLiteral("%1 / %2").arg(fixed(c.targetCiWidth, 3), achieved), c.met);
+  }
+  html += QStringLiteral("</table>");
+  html += QStringLiteral(
+      "<p style='color:#333'>Rules of thumb: 100 events and 100 non-events (Vergouwe et al. "
+      "2005), 200 events for calibration (Collins, Ogundimu &amp; Altman 2016). Riley size: the "
+      "n at which the 95% CI of the measure has the target width (Riley et al., Stat Med 2021), "
+      "assuming this cohort's prevalence and linear-predictor distribution; the achieved width "
+      "is that of the interval shown below.</p>");
+  return html;
+}
 
 QString decisionCurveReading(const std::vector<DecisionCurvePoint>& curve, double lo, double hi) {
   int inRange = 0, better = 0;
@@ -84,6 +144,9 @@ QString summaryHtml(const StudyState& study) {
     return html + QStringLiteral("</body></html>");
   }
   const ValidationResult& r = *study.result;
+  const UncertaintyResults* u = study.uncertainty.get();
+  const ValidationBootstrap* b = (u != nullptr && u->bootstrap) ? &*u->bootstrap : nullptr;
+  if (u != nullptr) html += sampleSizeHtml(u->sampleSize);
 
   std::vector<std::string> warnings = sampleSizeWarnings(r.cohort);
   warnings.insert(warnings.end(), study.modelWarnings.begin(), study.modelWarnings.end());
@@ -100,10 +163,23 @@ QString summaryHtml(const StudyState& study) {
               QStringLiteral("observed event rate %1").arg(fixed(r.cohort.prevalence, 4)));
   html += QStringLiteral("</table>");
 
+  if (b != nullptr) {
+    html += QStringLiteral(
+                "<p style='color:#0b4f7a'><b>Bootstrap:</b> %1 resamples of the patients with "
+                "replacement, seed %2, %3 threads; %4 failed replicates (a resample with one "
+                "outcome class) left out. Percentile 95% intervals (Efron &amp; Tibshirani 1993) "
+                "appear under the analytic ones.</p>")
+                .arg(b->run.replicates)
+                .arg(b->run.seed)
+                .arg(b->run.threads)
+                .arg(b->run.failed);
+  }
+
   html += QStringLiteral("<h3>Discrimination</h3><table>");
-  html +=
-      row(QStringLiteral("AUC (c-statistic)"), ci(r.discrimination.auc, r.discrimination.aucCi, 3),
-          esc(readDiscrimination(r.discrimination)));
+  html += row(
+      QStringLiteral("AUC (c-statistic)"),
+      ci(r.discrimination.auc, r.discrimination.aucCi, 3) + boot(b, &ValidationBootstrap::auc, 3),
+      esc(readDiscrimination(r.discrimination)));
   html += row(QStringLiteral("DeLong SE"), fixed(r.discrimination.aucSe, 4),
               QStringLiteral("interval on the logit scale, so it stays within 0 and 1"));
   html +=
@@ -118,11 +194,15 @@ QString summaryHtml(const StudyState& study) {
               .arg(esc(c.hierarchyLevel.empty() ? hierarchy.level : c.hierarchyLevel),
                    esc(hierarchy.explanation));
   html += QStringLiteral("<table>");
-  html += row(QStringLiteral("Calibration intercept"), ci(c.intercept, c.interceptCi, 3),
-              QStringLiteral("target 0; negative = risks too high on average"));
-  html += row(QStringLiteral("Calibration slope"), ci(c.slope, c.slopeCi, 3),
+  html += row(
+      QStringLiteral("Calibration intercept"),
+      ci(c.intercept, c.interceptCi, 3) + boot(b, &ValidationBootstrap::calibrationIntercept, 3),
+      QStringLiteral("target 0; negative = risks too high on average"));
+  html += row(QStringLiteral("Calibration slope"),
+              ci(c.slope, c.slopeCi, 3) + boot(b, &ValidationBootstrap::calibrationSlope, 3),
               QStringLiteral("target 1; below 1 = predictions too extreme"));
-  html += row(QStringLiteral("Observed / expected events"), ci(c.oeRatio, c.oeCi, 3),
+  html += row(QStringLiteral("Observed / expected events"),
+              ci(c.oeRatio, c.oeCi, 3) + boot(b, &ValidationBootstrap::oeRatio, 3),
               QStringLiteral("target 1"));
   html += row(QStringLiteral("Spiegelhalter z"),
               QStringLiteral("%1 (p = %2)")
@@ -130,7 +210,12 @@ QString summaryHtml(const StudyState& study) {
               QStringLiteral("tests whether the risks are calibrated overall"));
   html += row(QStringLiteral("ICI / E50 / E90 / Emax"),
               QStringLiteral("%1 / %2 / %3 / %4")
-                  .arg(fixed(c.ici, 4), fixed(c.e50, 4), fixed(c.e90, 4), fixed(c.emax, 4)),
+                      .arg(fixed(c.ici, 4), fixed(c.e50, 4), fixed(c.e90, 4), fixed(c.emax, 4)) +
+                  (b == nullptr ? QString()
+                                : QStringLiteral("<br><span style='color:#0b4f7a'>bootstrap ICI "
+                                                 "%1 to %2, E90 %3 to %4</span>")
+                                      .arg(fixed(b->ici.ci.lo, 4), fixed(b->ici.ci.hi, 4),
+                                           fixed(b->e90.ci.lo, 4), fixed(b->e90.ci.hi, 4))),
               QStringLiteral("distance of the smoothed curve from the ideal line (Austin & "
                              "Steyerberg 2019): mean, median, 90th percentile, maximum"));
   html += row(QStringLiteral("Hosmer-Lemeshow"),
@@ -142,9 +227,11 @@ QString summaryHtml(const StudyState& study) {
   html += QStringLiteral("</table>");
 
   html += QStringLiteral("<h3>Overall accuracy</h3><table>");
-  html += row(QStringLiteral("Brier score"), fixed(r.overall.brier, 4),
+  html += row(QStringLiteral("Brier score"),
+              fixed(r.overall.brier, 4) + boot(b, &ValidationBootstrap::brier, 4),
               QStringLiteral("mean squared difference of risk and outcome; lower is better"));
-  html += row(QStringLiteral("Scaled Brier"), fixed(r.overall.brierScaled, 4),
+  html += row(QStringLiteral("Scaled Brier"),
+              fixed(r.overall.brierScaled, 4) + boot(b, &ValidationBootstrap::brierScaled, 4),
               QStringLiteral("1 − Brier / Brier of predicting the event rate for everyone"));
   html += QStringLiteral("</table>");
 
