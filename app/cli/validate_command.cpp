@@ -141,11 +141,12 @@ int validateBody(const std::vector<std::string>& words) {
   const auto jsonPath = arguments.value("--json");
   const std::string jsonText = jsonPath ? validationJsonText(run, uncertainty) : std::string();
 #ifdef CALIVERA_HAVE_UI
-  const std::string pdf =
-      pdfPath ? ui::report::renderAuditReportPdf(
-                    auditInputFromRun(run, arguments.value("--title").value_or(""), suppressBelow),
-                    paper)
-              : std::string();
+  const std::string pdf = pdfPath
+                              ? ui::report::renderAuditReportPdf(
+                                    auditInputFromRun(run, arguments.value("--title").value_or(""),
+                                                      suppressBelow, uncertainty),
+                                    paper)
+                              : std::string();
 #endif
   if (const auto dir = arguments.value("--csv-dir")) writeValidationTables(*dir, run);
 #ifdef CALIVERA_HAVE_UI

@@ -6,7 +6,8 @@
 namespace calivera {
 
 DisclosurePlan::DisclosurePlan(const ValidationResult& result, const ExclusionReport& exclusions,
-                               const std::vector<ThresholdRow>& tableRows, std::size_t below)
+                               const std::vector<ThresholdRow>& tableRows, std::size_t below,
+                               const DisclosureExtras& extras)
     : below_(below) {
   const std::size_t n = result.cohort.n;
   const std::size_t events = result.cohort.events;
@@ -23,22 +24,11 @@ DisclosurePlan::DisclosurePlan(const ValidationResult& result, const ExclusionRe
   nonEvents_ = problem_.addCell(n - events);
   problem_.addRelation({events_, nonEvents_, rowsAnalysed_});
 
-  std::vector<std::size_t> groupEvents{events_}, groupNonEvents{nonEvents_},
-      groupSizes{rowsAnalysed_};
+  std::vector<LevelCount> hlGroups;
   for (const CalibrationGroup& group : result.hosmerLemeshow.groups) {
-    GroupCells cells{problem_.addCell(group.n), problem_.addCell(group.observed),
-                     problem_.addCell(group.n - group.observed)};
-    problem_.addRelation({cells.n, cells.events, cells.nonEvents});
-    groupEvents.push_back(cells.events);
-    groupNonEvents.push_back(cells.nonEvents);
-    groupSizes.push_back(cells.n);
-    groups_.push_back(cells);
+    hlGroups.push_back({group.n, group.observed});
   }
-  if (!groups_.empty()) {
-    problem_.addRelation(groupEvents);
-    problem_.addRelation(groupNonEvents);
-    problem_.addRelation(groupSizes);
-  }
+  groups_ = addPartition(hlGroups);
 
   for (const ThresholdRow& row : tableRows) {
     RowCells cells{problem_.addCell(row.tp), problem_.addCell(row.fp), problem_.addCell(row.fn),
@@ -61,7 +51,37 @@ DisclosurePlan::DisclosurePlan(const ValidationResult& result, const ExclusionRe
   problem_.addRelation(binEventRelation);
   problem_.addRelation(binNonEventRelation);
 
+  for (const std::vector<LevelCount>& column : extras.subgroups) {
+    levels_.push_back(addPartition(column));
+  }
+  if (extras.comparisonRows) {
+    comparisonRows_ = problem_.addCell(*extras.comparisonRows);
+    rowsNotCompared_ = problem_.addCell(n - std::min(n, *extras.comparisonRows));
+    problem_.addRelation({*comparisonRows_, *rowsNotCompared_, rowsAnalysed_});
+  }
+
   states_ = problem_.solve(below_);
+}
+
+std::vector<DisclosurePlan::GroupCells> DisclosurePlan::addPartition(
+    const std::vector<LevelCount>& parts) {
+  std::vector<GroupCells> cells;
+  std::vector<std::size_t> sizes{rowsAnalysed_}, events{events_}, nonEvents{nonEvents_};
+  for (const LevelCount& part : parts) {
+    const GroupCells c{problem_.addCell(part.n), problem_.addCell(part.events),
+                       problem_.addCell(part.n - part.events)};
+    problem_.addRelation({c.n, c.events, c.nonEvents});
+    sizes.push_back(c.n);
+    events.push_back(c.events);
+    nonEvents.push_back(c.nonEvents);
+    cells.push_back(c);
+  }
+  if (!cells.empty()) {
+    problem_.addRelation(events);
+    problem_.addRelation(nonEvents);
+    problem_.addRelation(sizes);
+  }
+  return cells;
 }
 
 bool DisclosurePlan::anyHidden() const {

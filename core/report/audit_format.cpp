@@ -38,4 +38,9 @@ std::string formatPercent(double proportion, int decimals) {
   return formatFixed(proportion * 100.0, decimals) + "%";
 }
 
+std::string fileNameOnly(const std::string& path) {
+  const auto slash = path.find_last_of("/\\");
+  return slash == std::string::npos ? path : path.substr(slash + 1);
+}
+
 }  // namespace calivera

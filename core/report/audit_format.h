@@ -18,5 +18,7 @@ std::string formatInterval(const Interval& ci, int decimals);
 std::string formatThreshold(double threshold);
 // 0.0123 -> "1.2%"
 std::string formatPercent(double proportion, int decimals);
+// The last component of a path: reports name files, never folders (they can name people).
+std::string fileNameOnly(const std::string& path);
 
 }  // namespace calivera

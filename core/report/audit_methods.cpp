@@ -62,7 +62,7 @@ const std::vector<MethodParagraph>& auditMethodParagraphs() {
   return paragraphs;
 }
 
-std::vector<ChecklistItem> auditChecklist(bool apparent) {
+std::vector<ChecklistItem> auditChecklist(bool apparent, bool subgroups) {
   using S = ChecklistStatus;
   return {
       {"Title identifying the study as a validation of a prediction model", S::Covered,
@@ -92,8 +92,10 @@ std::vector<ChecklistItem> auditChecklist(bool apparent) {
        "Section 2: decision curve and threshold table"},
       {"Differences from the development data (case mix, predictors, outcome)", S::UserMustAdd,
        "Compare the cohort with the development population"},
-      {"Subgroup and fairness assessment (e.g. by sex, age band, site)", S::UserMustAdd,
-       "Report performance in relevant subgroups"},
+      {"Subgroup and fairness assessment (e.g. by sex, age band, site)",
+       subgroups ? S::Covered : S::UserMustAdd,
+       subgroups ? "Section 2: subgroups; add any relevant subgroup not analysed"
+                 : "Report performance in relevant subgroups"},
       {"Limitations and interpretation", S::UserMustAdd,
        "Discuss limitations; the caution statement is on every page"},
       {"Software and reproducibility (version, input fingerprints, settings)", S::Covered,

@@ -25,6 +25,7 @@ struct ChecklistItem {
 };
 
 // `apparent`: the cohort is the development data (changes the wording of the validation item).
-std::vector<ChecklistItem> auditChecklist(bool apparent);
+// `subgroups`: the report has a subgroup section (the subgroup item is then covered).
+std::vector<ChecklistItem> auditChecklist(bool apparent, bool subgroups = false);
 
 }  // namespace calivera

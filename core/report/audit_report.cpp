@@ -7,9 +7,11 @@
 #include <ctime>
 #include <string_view>
 
+#include "core/report/audit_blocks.h"
 #include "core/report/audit_disclosure.h"
 #include "core/report/audit_format.h"
 #include "core/report/audit_methods.h"
+#include "core/report/audit_uncertainty.h"
 #include "core/util/errors.h"
 
 namespace calivera {
@@ -47,28 +49,6 @@ long long reportTimestamp() {
 namespace {
 
 using Kind = ReportBlock::Kind;
-
-ReportBlock heading(std::string text, int level = 1) {
-  ReportBlock block;
-  block.kind = Kind::Heading;
-  block.level = level;
-  block.text = std::move(text);
-  return block;
-}
-
-ReportBlock paragraph(std::string text) {
-  ReportBlock block;
-  block.kind = Kind::Paragraph;
-  block.text = std::move(text);
-  return block;
-}
-
-ReportBlock tableBlock(ReportTable table) {
-  ReportBlock block;
-  block.kind = Kind::Table;
-  block.table = std::move(table);
-  return block;
-}
 
 ReportTable keyValueTable(std::string caption) {
   ReportTable table;
@@ -127,16 +107,11 @@ std::vector<ThresholdRow> selectTableRows(const AuditReportInput& input) {
   return rows;
 }
 
-std::string fileNameOnly(const std::string& path) {
-  const auto slash = path.find_last_of("/\\");
-  return slash == std::string::npos ? path : path.substr(slash + 1);
-}
-
 void addIdentification(const AuditReportInput& input, const DisclosurePlan& plan,
                        const std::vector<ThresholdRow>& tableRows,
                        std::vector<ReportBlock>& blocks) {
-  blocks.push_back(heading("1  What was validated"));
-  ReportTable cohort = keyValueTable("Table 1. Cohort file");
+  blocks.push_back(reportHeading("1  What was validated"));
+  ReportTable cohort = keyValueTable(std::string(kTablePrefix) + "Cohort file");
   cohort.rows.push_back({"File name", fileNameOnly(input.cohortFile.name)});
   cohort.rows.push_back({"SHA-256", input.cohortFile.sha256});
   cohort.rows.push_back({"Rows read", plan.rowsRead()});
@@ -156,10 +131,11 @@ void addIdentification(const AuditReportInput& input, const DisclosurePlan& plan
         "A row missing a value in any column the model or the outcome uses is excluded "
         "(complete-case analysis); a row can be missing in several columns.";
   }
-  blocks.push_back(tableBlock(cohort));
+  blocks.push_back(reportTable(cohort));
 
   const Model& model = input.model;
-  ReportTable modelTable = keyValueTable("Table 2. Model file and development record");
+  ReportTable modelTable =
+      keyValueTable(std::string(kTablePrefix) + "Model file and development record");
   modelTable.rows.push_back({"File name", fileNameOnly(input.modelFile.name)});
   modelTable.rows.push_back({"SHA-256", input.modelFile.sha256});
   modelTable.rows.push_back({"Model name", model.name.empty() ? "not stated" : model.name});
@@ -177,10 +153,10 @@ void addIdentification(const AuditReportInput& input, const DisclosurePlan& plan
   modelTable.rows.push_back({"Development: method", orDash(dev.method)});
   modelTable.rows.push_back({"Development: description", orDash(dev.description)});
   if (model.provenance) modelTable.rows.push_back({"Updates (provenance)", *model.provenance});
-  blocks.push_back(tableBlock(modelTable));
+  blocks.push_back(reportTable(modelTable));
 
   const AuditSettings& s = input.settings;
-  ReportTable settings = keyValueTable("Table 3. Settings of this validation");
+  ReportTable settings = keyValueTable(std::string(kTablePrefix) + "Settings of this validation");
   settings.rows.push_back(
       {"Outcome column", s.outcomeColumn.empty() ? "not stated" : s.outcomeColumn});
   settings.rows.push_back(
@@ -203,7 +179,7 @@ void addIdentification(const AuditReportInput& input, const DisclosurePlan& plan
                                      " hidden (shown as <" + std::to_string(s.suppressBelow) + ")"
                                : "off"});
   for (const auto& [name, value] : s.other) settings.rows.push_back({name, value});
-  blocks.push_back(tableBlock(settings));
+  blocks.push_back(reportTable(settings));
 }
 
 std::string aucReading(const Discrimination& d) {
@@ -233,12 +209,39 @@ std::string slopeReading(const Calibration& c) {
                          "little).";
 }
 
+// The bootstrap percentile CIs beside the analytic ones, matched by the summary's measure names.
+void addBootstrapColumn(const ValidationBootstrap& b, const DisclosurePlan& plan,
+                        ReportTable& table) {
+  const std::string hidden = kComplementaryMark;
+  const auto cell = [&](const std::string& measure) -> std::string {
+    if (measure == "AUC (c-statistic)") return bootstrapCiText(b.auc, 3);
+    if (measure == "Calibration intercept") return bootstrapCiText(b.calibrationIntercept, 3);
+    if (measure == "Calibration slope") return bootstrapCiText(b.calibrationSlope, 3);
+    if (measure == "Observed / expected") {
+      return plan.eventsHidden() ? hidden : bootstrapCiText(b.oeRatio, 3);
+    }
+    if (measure == "ICI / E50 / E90 / Emax") {
+      return "ICI " + bootstrapCiText(b.ici, 3) + "\nE90 " + bootstrapCiText(b.e90, 3);
+    }
+    if (measure == "Brier score (scaled)") {
+      return bootstrapCiText(b.brier, 3) + "\n(" +
+             (plan.eventsHidden() ? hidden : bootstrapCiText(b.brierScaled, 3)) + ")";
+    }
+    return "-";
+  };
+  table.header.insert(table.header.begin() + 2, "Bootstrap 95% CI");
+  table.widths = {0.21, 0.25, 0.18, 0.36};
+  table.align.insert(table.align.begin() + 2, CellAlign::Left);
+  for (auto& row : table.rows) row.insert(row.begin() + 2, cell(row.front()));
+  table.note = bootstrapNote(b);
+}
+
 void addSummary(const AuditReportInput& input, const DisclosurePlan& plan,
                 std::vector<ReportBlock>& blocks) {
   const ValidationResult& r = input.result;
   const Calibration& c = r.calibration;
   ReportTable table;
-  table.caption = "Table 4. Performance summary (95% confidence intervals)";
+  table.caption = std::string(kTablePrefix) + "Performance summary (95% confidence intervals)";
   table.header = {"Measure", "Estimate (95% CI)", "Reading"};
   table.widths = {0.24, 0.28, 0.48};
   table.align = {CellAlign::Left, CellAlign::Left, CellAlign::Left};
@@ -285,7 +288,10 @@ void addSummary(const AuditReportInput& input, const DisclosurePlan& plan,
     table.rows.push_back({"Calibration level", c.hierarchyLevel,
                           "Level reached on the calibration hierarchy (Van Calster et al. 2016)."});
   }
-  blocks.push_back(tableBlock(table));
+  if (input.uncertainty && input.uncertainty->bootstrap) {
+    addBootstrapColumn(*input.uncertainty->bootstrap, plan, table);
+  }
+  blocks.push_back(reportTable(table));
 }
 
 void addCharts(const AuditDocument& doc, std::vector<ReportBlock>& blocks) {
@@ -323,7 +329,7 @@ void addHosmerLemeshow(const AuditReportInput& input, const DisclosurePlan& plan
   const auto& groups = input.result.hosmerLemeshow.groups;
   if (groups.empty()) return;
   ReportTable table;
-  table.caption = "Table 5. Risk groups (Hosmer-Lemeshow)";
+  table.caption = std::string(kTablePrefix) + "Risk groups (Hosmer-Lemeshow)";
   table.header = {"Group",      "Risk range",      "n",         "Events",
                   "Non-events", "Expected events", "Mean risk", "Observed proportion (95% CI)"};
   table.widths = {0.07, 0.17, 0.08, 0.09, 0.11, 0.12, 0.10, 0.26};
@@ -341,14 +347,15 @@ void addHosmerLemeshow(const AuditReportInput& input, const DisclosurePlan& plan
              ? std::string(kComplementaryMark)
              : formatWithCi(group.observedProportion, group.observedCi, 3)});
   }
-  blocks.push_back(tableBlock(table));
+  blocks.push_back(reportTable(table));
 }
 
 void addThresholdTable(const std::vector<ThresholdRow>& rows, const DisclosurePlan& plan,
                        std::vector<ReportBlock>& blocks) {
   if (rows.empty()) return;
   ReportTable table;
-  table.caption = "Table 6. At the selected thresholds (flagged: predicted risk at or above)";
+  table.caption = std::string(kTablePrefix) +
+                  "At the selected thresholds (flagged: predicted risk at or above)";
   table.header = {"Threshold",   "TP",          "FP",  "FN",  "TN",
                   "Sensitivity", "Specificity", "PPV", "NPV", "Flagged per 1000"};
   table.widths = {0.10, 0.06, 0.06, 0.06, 0.06, 0.14, 0.14, 0.14, 0.14, 0.10};
@@ -372,7 +379,7 @@ void addThresholdTable(const std::vector<ThresholdRow>& rows, const DisclosurePl
   table.note =
       "TP, FP, FN, TN: true and false positives and negatives. Rates with Wilson 95% "
       "intervals.";
-  blocks.push_back(tableBlock(table));
+  blocks.push_back(reportTable(table));
 }
 
 std::vector<std::string> reportWarnings(const AuditReportInput& input) {
@@ -412,37 +419,41 @@ std::vector<std::string> reportWarnings(const AuditReportInput& input) {
   return warnings;
 }
 
-void addMethods(std::vector<ReportBlock>& blocks) {
-  blocks.push_back(heading("3  Methods"));
+void addMethods(const AuditReportInput& input, std::vector<ReportBlock>& blocks) {
+  blocks.push_back(reportHeading("3  Methods"));
   for (const MethodParagraph& method : auditMethodParagraphs()) {
-    blocks.push_back(heading(method.title, 2));
-    blocks.push_back(paragraph(method.text + " Source: " + method.reference));
+    blocks.push_back(reportHeading(method.title, 2));
+    blocks.push_back(reportParagraph(method.text + " Source: " + method.reference));
+  }
+  if (input.uncertainty) {
+    for (ReportBlock& block : uncertaintyMethods(*input.uncertainty)) blocks.push_back(block);
   }
 }
 
 void addChecklist(const AuditReportInput& input, std::vector<ReportBlock>& blocks) {
-  blocks.push_back(heading("4  Reporting checklist (oriented on TRIPOD and TRIPOD+AI)"));
-  blocks.push_back(paragraph(
+  blocks.push_back(reportHeading("4  Reporting checklist (oriented on TRIPOD and TRIPOD+AI)"));
+  blocks.push_back(reportParagraph(
       "Items of the TRIPOD statement (Collins et al., BMJ 2015;350:g7594) and its update for "
       "prediction models using regression or machine learning, TRIPOD+AI (Collins et al., BMJ "
       "2024;385:e078378), as they apply to a validation. Items marked [to add] are not known to "
       "this software and must be supplied by the user with the report."));
   ReportTable table;
-  table.caption = "Table 7. Checklist";
+  table.caption = std::string(kTablePrefix) + "Checklist";
   table.header = {"Status", "Item", "Where covered / what to add"};
   table.widths = {0.13, 0.45, 0.42};
   table.align = {CellAlign::Left, CellAlign::Left, CellAlign::Left};
-  for (const ChecklistItem& item : auditChecklist(input.settings.apparent)) {
+  const bool subgroups = input.uncertainty && !input.uncertainty->subgroups.empty();
+  for (const ChecklistItem& item : auditChecklist(input.settings.apparent, subgroups)) {
     table.rows.push_back({item.status == ChecklistStatus::Covered ? "[covered]" : "[to add]",
                           item.topic, item.where});
   }
-  blocks.push_back(tableBlock(table));
+  blocks.push_back(reportTable(table));
 }
 
 void addAbout(const AuditReportInput& input, const AuditDocument& doc, const DisclosurePlan& plan,
               std::vector<ReportBlock>& blocks) {
-  blocks.push_back(heading("5  About this report"));
-  blocks.push_back(paragraph(
+  blocks.push_back(reportHeading("5  About this report"));
+  blocks.push_back(reportParagraph(
       "Privacy: the report holds aggregates only (counts, proportions, curves). No value of an "
       "individual row of the cohort file, identifier or otherwise, is printed."));
   if (plan.active()) {
@@ -457,22 +468,33 @@ void addAbout(const AuditReportInput& input, const AuditDocument& doc, const Dis
         " are left out of the charts, and risk-distribution bins "
         "with hidden counts are drawn empty.";
     if (!doc.suppressionApplied) text += " No count in this report needed to be hidden.";
-    blocks.push_back(paragraph(text));
+    blocks.push_back(reportParagraph(text));
   } else {
-    blocks.push_back(paragraph("Small-cell suppression was off: all counts are shown."));
+    blocks.push_back(reportParagraph("Small-cell suppression was off: all counts are shown."));
   }
-  blocks.push_back(paragraph(
+  blocks.push_back(reportParagraph(
       "Reproducibility: the same input files (identified by the SHA-256 fingerprints in every "
       "footer) and the same settings give the same report. Software: Calivera " +
       input.softwareVersion + "."));
+}
+
+// "Table #. " captions become "Table 1. ", "Table 2. ", ... in reading order.
+void numberTables(std::vector<ReportBlock>& blocks) {
+  const std::string prefix = kTablePrefix;
+  int number = 0;
+  for (ReportBlock& block : blocks) {
+    if (block.kind != Kind::Table || block.table.caption.rfind(prefix, 0) != 0) continue;
+    block.table.caption.replace(0, prefix.size(), "Table " + std::to_string(++number) + ". ");
+  }
 }
 
 }  // namespace
 
 AuditDocument buildAuditDocument(const AuditReportInput& input) {
   const std::vector<ThresholdRow> tableRows = selectTableRows(input);
-  const DisclosurePlan plan(input.result, input.exclusions, tableRows,
-                            input.settings.suppressBelow);
+  const DisclosurePlan plan(
+      input.result, input.exclusions, tableRows, input.settings.suppressBelow,
+      input.uncertainty ? disclosureExtras(*input.uncertainty) : DisclosureExtras{});
   AuditDocument doc;
   doc.title = input.title.empty() ? "Model validation audit report" : input.title;
   doc.subtitle = "Created " + input.createdAt + "  |  Calivera " + input.softwareVersion;
@@ -484,6 +506,7 @@ AuditDocument buildAuditDocument(const AuditReportInput& input) {
   doc.suppressionApplied = plan.anyHidden();
   doc.chartData = plan.chartData(input.result);
   doc.reasonableThresholds = input.settings.reasonableThresholds;
+  addUncertaintyChartData(input, doc);
   for (std::size_t i = 0; i < tableRows.size() && !doc.markedThreshold; ++i) {
     if (!plan.rowHidden(i)) doc.markedThreshold = tableRows[i];
   }
@@ -494,20 +517,29 @@ AuditDocument buildAuditDocument(const AuditReportInput& input) {
   caution.text = doc.caution;
   blocks.push_back(caution);
   addIdentification(input, plan, tableRows, blocks);
+  if (input.uncertainty) addSampleSizeSection(*input.uncertainty, plan, blocks);
 
-  blocks.push_back(heading("2  Results"));
+  blocks.push_back(reportHeading("2  Results"));
   addSummary(input, plan, blocks);
   addCharts(doc, blocks);
   addHosmerLemeshow(input, plan, blocks);
   addThresholdTable(tableRows, plan, blocks);
-  blocks.push_back(heading("Warnings", 2));
-  const std::vector<std::string> warnings = reportWarnings(input);
-  if (warnings.empty()) blocks.push_back(paragraph("None."));
-  for (const std::string& warning : warnings) blocks.push_back(paragraph("- " + warning));
+  std::vector<std::string> warnings = reportWarnings(input);
+  if (input.uncertainty) {
+    std::vector<double> tabulated;
+    for (const ThresholdRow& row : tableRows) tabulated.push_back(row.threshold);
+    addComparisonSection(input, plan, tabulated, blocks);
+    addSubgroupSection(*input.uncertainty, plan, blocks);
+    for (std::string& w : uncertaintyWarnings(*input.uncertainty, plan)) warnings.push_back(w);
+  }
+  blocks.push_back(reportHeading("Warnings", 2));
+  if (warnings.empty()) blocks.push_back(reportParagraph("None."));
+  for (const std::string& warning : warnings) blocks.push_back(reportParagraph("- " + warning));
 
-  addMethods(blocks);
+  addMethods(input, blocks);
   addChecklist(input, blocks);
   addAbout(input, doc, plan, blocks);
+  numberTables(blocks);
   return doc;
 }
 

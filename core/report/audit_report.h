@@ -8,6 +8,11 @@
 // cohort is ever copied into it. With suppression on (AuditSettings::suppressBelow >= 2), every
 // count passes through the disclosure plan (audit_disclosure.h) and the chart data are rebuilt
 // from the suppressed values.
+//
+// Uncertainty (AuditReportInput::uncertainty, core/uncertainty/uncertainty_run.h), when given:
+// sample-size adequacy before the results, bootstrap CIs beside the analytic ones, a model
+// comparison and a subgroup section, their methods with sources; every count they add goes
+// through the same disclosure plan.
 
 #include <cstddef>
 #include <optional>
@@ -18,6 +23,7 @@
 #include "core/data/cohort.h"
 #include "core/metrics/validation.h"
 #include "core/model/model.h"
+#include "core/uncertainty/uncertainty_run.h"
 
 namespace calivera {
 
@@ -48,6 +54,9 @@ struct AuditReportInput {
   Model model;
   AuditSettings settings;
   ValidationResult result;
+  // The uncertainty layer's results for the same run (comparedModels' paths are reduced to file
+  // names in the report); absent: the report has no uncertainty sections.
+  std::optional<UncertaintyResults> uncertainty;
 };
 
 enum class CellAlign { Left, Right };
@@ -86,6 +95,15 @@ struct AuditDocument {
   std::optional<Interval> reasonableThresholds;  // shaded on the decision curve
   std::size_t suppressBelow = 0;
   bool suppressionApplied = false;  // at least one count was hidden
+
+  // What the charts draw of the uncertainty layer (empty when not computed):
+  std::vector<BandPoint> calibrationBand;  // bootstrap band of the smoothed calibration curve
+  std::vector<BandPoint> netBenefitBand;   // at the decision-curve points chartData keeps
+  struct Overlay {
+    std::string name;
+    ValidationResult chartData;  // validated on the comparison rows, suppressed like chartData
+  };
+  std::vector<Overlay> comparisons;  // the further models (not the validated one), in order
 };
 
 // The caution statement printed on the first page and in every footer.

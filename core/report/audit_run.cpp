@@ -52,4 +52,35 @@ AuditReportInput auditInputFromRun(const ValidationRun& run, const std::string& 
   return input;
 }
 
+AuditReportInput auditInputFromRun(const ValidationRun& run, const std::string& title,
+                                   std::size_t suppressBelow,
+                                   const UncertaintyResults& uncertainty) {
+  AuditReportInput input = auditInputFromRun(run, title, suppressBelow);
+  auto& other = input.settings.other;
+  if (uncertainty.bootstrap) {
+    const BootstrapSummary& b = uncertainty.bootstrap->run;
+    other.emplace_back("Bootstrap", std::to_string(b.replicates) + " resamples, seed " +
+                                        std::to_string(b.seed) + ", " + std::to_string(b.threads) +
+                                        (b.threads == 1 ? " thread" : " threads"));
+  } else {
+    other.emplace_back("Bootstrap", "not run (analytic intervals only)");
+  }
+  if (!uncertainty.comparedModels.empty()) {
+    std::string files;
+    for (const ComparedModelFile& m : uncertainty.comparedModels) {
+      files += (files.empty() ? "" : ", ") + fileNameOnly(m.path);
+    }
+    other.emplace_back("Models compared", files);
+  }
+  if (!uncertainty.subgroups.empty()) {
+    std::string columns;
+    for (const SubgroupAnalysis& s : uncertainty.subgroups) {
+      columns += (columns.empty() ? "" : ", ") + s.column;
+    }
+    other.emplace_back("Subgroup columns", columns);
+  }
+  input.uncertainty = uncertainty;
+  return input;
+}
+
 }  // namespace calivera

@@ -19,4 +19,10 @@ inline constexpr std::size_t kMaxTabulatedThresholds = 30;
 AuditReportInput auditInputFromRun(const ValidationRun& run, const std::string& title,
                                    std::size_t suppressBelow);
 
+// The same with the run's uncertainty results (core/uncertainty/uncertainty_run.h): the report
+// gains their sections, and its settings table the bootstrap, comparison and subgroup settings.
+AuditReportInput auditInputFromRun(const ValidationRun& run, const std::string& title,
+                                   std::size_t suppressBelow,
+                                   const UncertaintyResults& uncertainty);
+
 }  // namespace calivera

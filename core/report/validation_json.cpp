@@ -2,30 +2,24 @@
 
 #include <cmath>
 
+#include "core/metrics/json_values.h"
+
 namespace calivera {
 namespace {
 
 using nlohmann::json;
-
-json number(double value) {
-  return std::isfinite(value) ? json(value) : json(nullptr);
-}
-
-json interval(const Interval& ci) {
-  return json::array({number(ci.lo), number(ci.hi)});
-}
 
 json groupsJson(const std::vector<CalibrationGroup>& groups) {
   json out = json::array();
   for (const CalibrationGroup& g : groups) {
     out.push_back({{"n", g.n},
                    {"observed", g.observed},
-                   {"expected", number(g.expected)},
-                   {"mean_risk", number(g.meanRisk)},
-                   {"observed_proportion", number(g.observedProportion)},
-                   {"observed_ci", interval(g.observedCi)},
-                   {"risk_min", number(g.riskLo)},
-                   {"risk_max", number(g.riskHi)}});
+                   {"expected", jsonNumber(g.expected)},
+                   {"mean_risk", jsonNumber(g.meanRisk)},
+                   {"observed_proportion", jsonNumber(g.observedProportion)},
+                   {"observed_ci", jsonInterval(g.observedCi)},
+                   {"risk_min", jsonNumber(g.riskLo)},
+                   {"risk_max", jsonNumber(g.riskHi)}});
   }
   return out;
 }
@@ -33,15 +27,15 @@ json groupsJson(const std::vector<CalibrationGroup>& groups) {
 json discriminationJson(const Discrimination& d) {
   json roc = json::array();
   for (const RocPoint& p : d.roc) {
-    roc.push_back({{"threshold", number(p.threshold)}, {"fpr", p.fpr}, {"tpr", p.tpr}});
+    roc.push_back({{"threshold", jsonNumber(p.threshold)}, {"fpr", p.fpr}, {"tpr", p.tpr}});
   }
-  return {{"auc", number(d.auc)},
-          {"auc_se", number(d.aucSe)},
+  return {{"auc", jsonNumber(d.auc)},
+          {"auc_se", jsonNumber(d.aucSe)},
           {"auc_se_method", "DeLong (midranks)"},
-          {"auc_ci", interval(d.aucCi)},
+          {"auc_ci", jsonInterval(d.aucCi)},
           {"auc_ci_method", "logit"},
-          {"auc_ci_plain", interval(d.aucCiPlain)},
-          {"discrimination_slope", number(d.discriminationSlope)},
+          {"auc_ci_plain", jsonInterval(d.aucCiPlain)},
+          {"discrimination_slope", jsonNumber(d.discriminationSlope)},
           {"roc_note", "threshold null: nobody flagged"},
           {"roc", roc}};
 }
@@ -49,24 +43,24 @@ json discriminationJson(const Discrimination& d) {
 json calibrationJson(const Calibration& c) {
   json curve = json::array();
   for (const CalibrationCurvePoint& p : c.curve) {
-    curve.push_back({{"risk", number(p.risk)}, {"observed", number(p.observed)}});
+    curve.push_back({{"risk", jsonNumber(p.risk)}, {"observed", jsonNumber(p.observed)}});
   }
-  return {{"intercept", number(c.intercept)},
-          {"intercept_se", number(c.interceptSe)},
-          {"intercept_ci", interval(c.interceptCi)},
-          {"slope", number(c.slope)},
-          {"slope_se", number(c.slopeSe)},
-          {"slope_ci", interval(c.slopeCi)},
-          {"slope_model_intercept", number(c.slopeModelIntercept)},
-          {"oe_ratio", number(c.oeRatio)},
-          {"oe_ci", interval(c.oeCi)},
+  return {{"intercept", jsonNumber(c.intercept)},
+          {"intercept_se", jsonNumber(c.interceptSe)},
+          {"intercept_ci", jsonInterval(c.interceptCi)},
+          {"slope", jsonNumber(c.slope)},
+          {"slope_se", jsonNumber(c.slopeSe)},
+          {"slope_ci", jsonInterval(c.slopeCi)},
+          {"slope_model_intercept", jsonNumber(c.slopeModelIntercept)},
+          {"oe_ratio", jsonNumber(c.oeRatio)},
+          {"oe_ci", jsonInterval(c.oeCi)},
           {"oe_ci_method", "exp(ln(O/E) +/- 1.96 sqrt(1/O))"},
-          {"spiegelhalter_z", number(c.spiegelhalterZ)},
-          {"spiegelhalter_p", number(c.spiegelhalterP)},
-          {"ici", number(c.ici)},
-          {"e50", number(c.e50)},
-          {"e90", number(c.e90)},
-          {"emax", number(c.emax)},
+          {"spiegelhalter_z", jsonNumber(c.spiegelhalterZ)},
+          {"spiegelhalter_p", jsonNumber(c.spiegelhalterP)},
+          {"ici", jsonNumber(c.ici)},
+          {"e50", jsonNumber(c.e50)},
+          {"e90", jsonNumber(c.e90)},
+          {"emax", jsonNumber(c.emax)},
           {"curve_method", "loess degree 2, span 0.75, tricube, exact local fits"},
           {"curve_interpolated", c.curveInterpolated},
           {"curve", curve},
@@ -78,11 +72,11 @@ json decisionCurveJson(const std::vector<DecisionCurvePoint>& points) {
   json out = json::array();
   for (const DecisionCurvePoint& p : points) {
     out.push_back({{"threshold", p.threshold},
-                   {"net_benefit", number(p.netBenefit)},
-                   {"net_benefit_treat_all", number(p.netBenefitTreatAll)},
+                   {"net_benefit", jsonNumber(p.netBenefit)},
+                   {"net_benefit_treat_all", jsonNumber(p.netBenefitTreatAll)},
                    {"net_benefit_treat_none", 0.0},
-                   {"standardized_net_benefit", number(p.standardizedNetBenefit)},
-                   {"interventions_avoided_per_100", number(p.interventionsAvoidedPer100)}});
+                   {"standardized_net_benefit", jsonNumber(p.standardizedNetBenefit)},
+                   {"interventions_avoided_per_100", jsonNumber(p.interventionsAvoidedPer100)}});
   }
   return out;
 }
@@ -95,18 +89,18 @@ json thresholdsJson(const std::vector<ThresholdRow>& rows) {
                    {"fp", r.fp},
                    {"tn", r.tn},
                    {"fn", r.fn},
-                   {"sensitivity", number(r.sensitivity)},
-                   {"sensitivity_ci", interval(r.sensitivityCi)},
-                   {"specificity", number(r.specificity)},
-                   {"specificity_ci", interval(r.specificityCi)},
-                   {"ppv", number(r.ppv)},
-                   {"ppv_ci", interval(r.ppvCi)},
-                   {"npv", number(r.npv)},
-                   {"npv_ci", interval(r.npvCi)},
-                   {"flagged_per_1000", number(r.flaggedPer1000)},
-                   {"events_caught_per_1000", number(r.eventsCaughtPer1000)},
-                   {"events_missed_per_1000", number(r.eventsMissedPer1000)},
-                   {"flagged_without_event_per_1000", number(r.flaggedWithoutEventPer1000)}});
+                   {"sensitivity", jsonNumber(r.sensitivity)},
+                   {"sensitivity_ci", jsonInterval(r.sensitivityCi)},
+                   {"specificity", jsonNumber(r.specificity)},
+                   {"specificity_ci", jsonInterval(r.specificityCi)},
+                   {"ppv", jsonNumber(r.ppv)},
+                   {"ppv_ci", jsonInterval(r.ppvCi)},
+                   {"npv", jsonNumber(r.npv)},
+                   {"npv_ci", jsonInterval(r.npvCi)},
+                   {"flagged_per_1000", jsonNumber(r.flaggedPer1000)},
+                   {"events_caught_per_1000", jsonNumber(r.eventsCaughtPer1000)},
+                   {"events_missed_per_1000", jsonNumber(r.eventsMissedPer1000)},
+                   {"flagged_without_event_per_1000", jsonNumber(r.flaggedWithoutEventPer1000)}});
   }
   return out;
 }
@@ -119,7 +113,7 @@ json cohortJson(const ValidationRun& run) {
   return {{"n", s.n},
           {"events", s.events},
           {"non_events", s.n - s.events},
-          {"prevalence", number(s.prevalence)},
+          {"prevalence", jsonNumber(s.prevalence)},
           {"excluded", ex.rowsExcluded},
           {"rows_read", ex.rowsRead},
           {"excluded_by_column", byColumn},
@@ -159,9 +153,9 @@ json validationToJson(const ValidationRun& run) {
   const ValidationResult& r = run.result;
   json dev = nullptr;
   if (run.model && run.model->development.dataSha256) dev = *run.model->development.dataSha256;
-  json hl = {{"statistic", number(r.hosmerLemeshow.statistic)},
+  json hl = {{"statistic", jsonNumber(r.hosmerLemeshow.statistic)},
              {"df", r.hosmerLemeshow.df},
-             {"p_value", number(r.hosmerLemeshow.pValue)},
+             {"p_value", jsonNumber(r.hosmerLemeshow.pValue)},
              {"groups_requested", run.request.options.groups},
              {"groups_formed", r.hosmerLemeshow.groups.size()},
              {"groups", groupsJson(r.hosmerLemeshow.groups)}};
@@ -177,7 +171,8 @@ json validationToJson(const ValidationRun& run) {
           {"cohort", cohortJson(run)},
           {"discrimination", discriminationJson(r.discrimination)},
           {"overall",
-           {{"brier", number(r.overall.brier)}, {"brier_scaled", number(r.overall.brierScaled)}}},
+           {{"brier", jsonNumber(r.overall.brier)},
+            {"brier_scaled", jsonNumber(r.overall.brierScaled)}}},
           {"calibration", calibrationJson(r.calibration)},
           {"hosmer_lemeshow", hl},
           {"decision_curve", decisionCurveJson(r.decisionCurve)},

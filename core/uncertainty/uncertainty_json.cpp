@@ -2,22 +2,16 @@
 
 #include <cmath>
 
+#include "core/metrics/json_values.h"
+
 namespace calivera {
 namespace {
 
 using nlohmann::json;
 
-json number(double value) {
-  return std::isfinite(value) ? json(value) : json(nullptr);
-}
-
-json interval(const Interval& ci) {
-  return json::array({number(ci.lo), number(ci.hi)});
-}
-
 json estimate(const BootstrapEstimate& e) {
-  return {{"estimate", number(e.estimate)},
-          {"ci", interval(e.ci)},
+  return {{"estimate", jsonNumber(e.estimate)},
+          {"ci", jsonInterval(e.ci)},
           {"replicates_used", e.replicatesUsed}};
 }
 
@@ -25,8 +19,8 @@ json band(const std::vector<BandPoint>& points, const char* xName) {
   json out = json::array();
   for (const auto& p : points) {
     out.push_back({{xName, p.x},
-                   {"estimate", number(p.estimate)},
-                   {"ci", interval(p.ci)},
+                   {"estimate", jsonNumber(p.estimate)},
+                   {"ci", jsonInterval(p.ci)},
                    {"replicates_used", p.replicatesUsed}});
   }
   return out;
@@ -65,31 +59,31 @@ json toJson(const ModelComparison& c) {
     json nb = json::array();
     for (const auto& p : pair.netBenefit) {
       nb.push_back({{"threshold", p.threshold},
-                    {"net_benefit_first", number(p.netBenefitFirst)},
-                    {"net_benefit_second", number(p.netBenefitSecond)},
-                    {"difference", number(p.difference)},
-                    {"ci", interval(p.ci)}});
+                    {"net_benefit_first", jsonNumber(p.netBenefitFirst)},
+                    {"net_benefit_second", jsonNumber(p.netBenefitSecond)},
+                    {"difference", jsonNumber(p.difference)},
+                    {"ci", jsonInterval(p.ci)}});
     }
     pairs.push_back({{"first", c.models[t.first]},
                      {"second", c.models[t.second]},
-                     {"auc_first", number(t.aucFirst)},
-                     {"auc_second", number(t.aucSecond)},
-                     {"auc_difference", number(t.difference)},
-                     {"auc_difference_se", number(t.se)},
-                     {"auc_difference_ci", interval(t.differenceCi)},
-                     {"z", number(t.z)},
-                     {"p_value", number(t.pValue)},
-                     {"auc_correlation", number(t.correlation)},
+                     {"auc_first", jsonNumber(t.aucFirst)},
+                     {"auc_second", jsonNumber(t.aucSecond)},
+                     {"auc_difference", jsonNumber(t.difference)},
+                     {"auc_difference_se", jsonNumber(t.se)},
+                     {"auc_difference_ci", jsonInterval(t.differenceCi)},
+                     {"z", jsonNumber(t.z)},
+                     {"p_value", jsonNumber(t.pValue)},
+                     {"auc_correlation", jsonNumber(t.correlation)},
                      {"net_benefit_difference", nb}});
   }
   json covariance = json::array();
   for (const auto& row : c.aucCovariance) {
     json r = json::array();
-    for (double v : row) r.push_back(number(v));
+    for (double v : row) r.push_back(jsonNumber(v));
     covariance.push_back(r);
   }
   json aucs = json::array();
-  for (double a : c.aucs) aucs.push_back(number(a));
+  for (double a : c.aucs) aucs.push_back(jsonNumber(a));
   return {{"models", c.models},
           {"aucs", aucs},
           {"auc_covariance", covariance},
@@ -102,30 +96,30 @@ json toJson(const ModelComparison& c) {
 json headlineMetricsJson(const ValidationResult& r) {
   const auto& d = r.discrimination;
   const auto& cal = r.calibration;
-  return {{"auc", number(d.auc)},
-          {"auc_se", number(d.aucSe)},
-          {"auc_ci", interval(d.aucCi)},
-          {"brier", number(r.overall.brier)},
-          {"brier_scaled", number(r.overall.brierScaled)},
-          {"calibration_intercept", number(cal.intercept)},
-          {"calibration_intercept_ci", interval(cal.interceptCi)},
-          {"calibration_slope", number(cal.slope)},
-          {"calibration_slope_ci", interval(cal.slopeCi)},
-          {"oe_ratio", number(cal.oeRatio)},
-          {"oe_ci", interval(cal.oeCi)},
-          {"ici", number(cal.ici)},
-          {"e50", number(cal.e50)},
-          {"e90", number(cal.e90)},
-          {"emax", number(cal.emax)},
+  return {{"auc", jsonNumber(d.auc)},
+          {"auc_se", jsonNumber(d.aucSe)},
+          {"auc_ci", jsonInterval(d.aucCi)},
+          {"brier", jsonNumber(r.overall.brier)},
+          {"brier_scaled", jsonNumber(r.overall.brierScaled)},
+          {"calibration_intercept", jsonNumber(cal.intercept)},
+          {"calibration_intercept_ci", jsonInterval(cal.interceptCi)},
+          {"calibration_slope", jsonNumber(cal.slope)},
+          {"calibration_slope_ci", jsonInterval(cal.slopeCi)},
+          {"oe_ratio", jsonNumber(cal.oeRatio)},
+          {"oe_ci", jsonInterval(cal.oeCi)},
+          {"ici", jsonNumber(cal.ici)},
+          {"e50", jsonNumber(cal.e50)},
+          {"e90", jsonNumber(cal.e90)},
+          {"emax", jsonNumber(cal.emax)},
           {"hosmer_lemeshow",
-           {{"statistic", number(r.hosmerLemeshow.statistic)},
+           {{"statistic", jsonNumber(r.hosmerLemeshow.statistic)},
             {"df", r.hosmerLemeshow.df},
-            {"p_value", number(r.hosmerLemeshow.pValue)}}},
+            {"p_value", jsonNumber(r.hosmerLemeshow.pValue)}}},
           {"calibration_curve",
            [&] {
              json curve = json::array();
              for (const auto& p : cal.curve) {
-               curve.push_back({{"risk", p.risk}, {"observed", number(p.observed)}});
+               curve.push_back({{"risk", p.risk}, {"observed", jsonNumber(p.observed)}});
              }
              return curve;
            }()},
@@ -154,9 +148,9 @@ json toJson(const SampleSizeAssessment& a) {
         {{"criterion", c.criterion},
          {"target_ci_width", c.targetCiWidth},
          {"target_se", c.targetSe},
-         {"required_n", number(c.requiredN)},
-         {"required_events", number(c.requiredEvents)},
-         {"achieved_ci_width", c.achievedCiWidth ? number(*c.achievedCiWidth) : json(nullptr)},
+         {"required_n", jsonNumber(c.requiredN)},
+         {"required_events", jsonNumber(c.requiredEvents)},
+         {"achieved_ci_width", c.achievedCiWidth ? jsonNumber(*c.achievedCiWidth) : json(nullptr)},
          {"met", c.met},
          {"note", c.note}});
   }
@@ -166,7 +160,7 @@ json toJson(const SampleSizeAssessment& a) {
           {"prevalence", a.prevalence},
           {"rules_of_thumb", rules},
           {"criteria", criteria},
-          {"required_n", number(a.requiredN)},
+          {"required_n", jsonNumber(a.requiredN)},
           {"driving_criterion", a.drivingCriterion},
           {"adequate", a.adequate},
           {"verdict", a.verdict},
@@ -177,10 +171,10 @@ json toJson(const OptimismResult& o) {
   json measures = json::array();
   for (const auto& m : o.measures) {
     measures.push_back({{"measure", m.measure},
-                        {"apparent", number(m.apparent)},
-                        {"mean_optimism", number(m.meanOptimism)},
-                        {"optimism_sd", number(m.optimismSd)},
-                        {"corrected", number(m.corrected)},
+                        {"apparent", jsonNumber(m.apparent)},
+                        {"mean_optimism", jsonNumber(m.meanOptimism)},
+                        {"optimism_sd", jsonNumber(m.optimismSd)},
+                        {"corrected", jsonNumber(m.corrected)},
                         {"replicates_used", m.replicatesUsed}});
   }
   return {{"method", "bootstrap optimism correction (Efron 1983; Harrell, Lee & Mark 1996)"},
@@ -189,7 +183,7 @@ json toJson(const OptimismResult& o) {
           {"n", o.n},
           {"events", o.events},
           {"measures", measures},
-          {"shrinkage_factor", number(o.shrinkageFactor)},
+          {"shrinkage_factor", jsonNumber(o.shrinkageFactor)},
           {"warnings", o.warnings}};
 }
 
@@ -197,18 +191,18 @@ json toJson(const ClosedTestResult& c) {
   json steps = json::array();
   for (const auto& s : c.steps) {
     steps.push_back({{"hypothesis", s.hypothesis},
-                     {"lr_statistic", number(s.lrStatistic)},
+                     {"lr_statistic", jsonNumber(s.lrStatistic)},
                      {"df", s.df},
-                     {"p_value", number(s.pValue)},
+                     {"p_value", jsonNumber(s.pValue)},
                      {"rejected", s.rejected}});
   }
   return {{"method", "closed testing procedure (Vergouwe et al., Stat Med 2017)"},
           {"alpha", c.alpha},
           {"deviance",
-           {{"original", number(c.devianceOriginal)},
-            {"intercept", number(c.devianceIntercept)},
-            {"recalibrate", number(c.devianceRecalibrated)},
-            {"refit", number(c.devianceRefit)}}},
+           {{"original", jsonNumber(c.devianceOriginal)},
+            {"intercept", jsonNumber(c.devianceIntercept)},
+            {"recalibrate", jsonNumber(c.devianceRecalibrated)},
+            {"refit", jsonNumber(c.devianceRefit)}}},
           {"steps", steps},
           {"suggested", updateMethodName(c.suggested)},
           {"warnings", c.warnings}};

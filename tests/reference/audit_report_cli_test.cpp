@@ -147,7 +147,7 @@ TEST(AuditReportCli, BirthwtSuppressionHidesSmallCountsAndTheirComplements) {
   EXPECT_TRUE(contains(text, formatFixed(json["discrimination"]["auc"].get<double>(), 3)));
 
   // The threshold table: a row with any count from 1 to 10 shows none of its four counts.
-  const std::size_t table = text.find("Table 6.");
+  const std::size_t table = text.find(". At the selected thresholds");
   ASSERT_NE(table, std::string::npos);
   const std::string tableText = text.substr(table, text.find("Warnings", table) - table);
   int hiddenRows = 0;
@@ -184,7 +184,7 @@ TEST(AuditReportCli, BirthwtSuppressionHidesSmallCountsAndTheirComplements) {
   EXPECT_GE(hiddenRows, 1) << "birthwt at 0.6 leaves fewer than 11 flagged";
 
   // Hosmer-Lemeshow rows hold n = events + non-events: never exactly one hidden cell of three.
-  const std::size_t hl = text.find("Table 5.");
+  const std::size_t hl = text.find(". Risk groups (Hosmer-Lemeshow)");
   ASSERT_NE(hl, std::string::npos);
   std::istringstream lines(text.substr(hl, table - hl));
   for (std::string line; std::getline(lines, line);) {

@@ -161,8 +161,8 @@ void CalibrationChart::setCurveBand(const std::vector<BandPoint>& band) {
     delete band_;
   }
   bandPoints_ = band;
-  band_ = makeBandArea(band, QStringLiteral("Smoothed curve, bootstrap 95% band"),
-                       roleColor(SeriesRole::Model));
+  band_ = makeBandArea(band, QStringLiteral("Bootstrap 95% band"), roleColor(SeriesRole::Model),
+                       PlotWindow{axisMax_, 0.0, axisMax_});
   addOnAxesOf(this, band_, marker_);
 }
 
@@ -171,7 +171,10 @@ void CalibrationChart::addComparison(const QString& name, const Calibration& cal
   line->setName(name);
   line->setPen(comparisonPen(comparisons_.size()));
   QList<QPointF> pts;
-  for (const auto& p : calibration.curve) pts.append(QPointF(p.risk, p.observed));
+  for (const auto& p : calibration.curve) {
+    // Kept inside the plot: vector output does not clip series.
+    if (p.risk <= axisMax_) pts.append(QPointF(p.risk, std::clamp(p.observed, 0.0, axisMax_)));
+  }
   line->replace(pts);
   addOnAxesOf(this, line, marker_);
   comparisons_.push_back({name, calibration.curve});

@@ -3,6 +3,7 @@
 #include <QtCharts/QAreaSeries>
 #include <QtCharts/QChart>
 #include <QtCharts/QLineSeries>
+#include <algorithm>
 #include <array>
 #include <cmath>
 
@@ -32,21 +33,26 @@ QPen comparisonPen(std::size_t index) {
   return pen;
 }
 
-QAreaSeries* makeBandArea(const std::vector<BandPoint>& band, const QString& name,
-                          const QColor& color) {
-  auto* upper = new QLineSeries;
-  auto* lower = new QLineSeries;
+void setBandPoints(QAreaSeries* area, const std::vector<BandPoint>& band,
+                   const PlotWindow& window) {
   QList<QPointF> top, bottom;
   for (const BandPoint& p : band) {
-    if (!std::isfinite(p.ci.lo) || !std::isfinite(p.ci.hi)) continue;
-    top.append(QPointF(p.x, p.ci.hi));
-    bottom.append(QPointF(p.x, p.ci.lo));
+    if (!std::isfinite(p.ci.lo) || !std::isfinite(p.ci.hi) || p.x > window.xMax) continue;
+    top.append(QPointF(p.x, std::clamp(p.ci.hi, window.yMin, window.yMax)));
+    bottom.append(QPointF(p.x, std::clamp(p.ci.lo, window.yMin, window.yMax)));
   }
-  upper->replace(top);
-  lower->replace(bottom);
+  area->upperSeries()->replace(top);
+  area->lowerSeries()->replace(bottom);
+}
+
+QAreaSeries* makeBandArea(const std::vector<BandPoint>& band, const QString& name,
+                          const QColor& color, const PlotWindow& window) {
+  auto* upper = new QLineSeries;
+  auto* lower = new QLineSeries;
   auto* area = new QAreaSeries(upper, lower);
   upper->setParent(area);  // the area does not own its boundary lines
   lower->setParent(area);
+  setBandPoints(area, band, window);
   area->setName(name);
   QColor fill = color;
   fill.setAlpha(55);

@@ -74,11 +74,18 @@ RecordedCharts recordReportCharts(const AuditDocument& doc) {
   recorded.size = kChartSize;
   {
     charts::RocChart chart(r.discrimination);
+    for (const auto& overlay : doc.comparisons) {
+      chart.addComparison(QString::fromStdString(overlay.name), overlay.chartData.discrimination);
+    }
     chart.setThreshold(snapshot);
     recorded.drawings[ChartKind::Roc] = record(chart);
   }
   {
     charts::CalibrationChart chart(r.calibration, r.distribution);
+    if (!doc.calibrationBand.empty()) chart.setCurveBand(doc.calibrationBand);
+    for (const auto& overlay : doc.comparisons) {
+      chart.addComparison(QString::fromStdString(overlay.name), overlay.chartData.calibration);
+    }
     chart.setThreshold(snapshot);
     recorded.drawings[ChartKind::Calibration] = record(chart);
   }
@@ -88,6 +95,10 @@ RecordedCharts recordReportCharts(const AuditDocument& doc) {
       chart.setReasonableRange(doc.reasonableThresholds->lo, doc.reasonableThresholds->hi);
     } else {
       chart.clearReasonableRange();
+    }
+    if (!doc.netBenefitBand.empty()) chart.setNetBenefitBand(doc.netBenefitBand);
+    for (const auto& overlay : doc.comparisons) {
+      chart.addComparison(QString::fromStdString(overlay.name), overlay.chartData.decisionCurve);
     }
     chart.setThreshold(snapshot);
     recorded.drawings[ChartKind::DecisionCurve] = record(chart);
