@@ -12,14 +12,17 @@
 #include <QFile>
 #include <QImage>
 #include <QLabel>
+#include <QListWidget>
 #include <QProgressBar>
 #include <QScrollBar>
 #include <QSlider>
 #include <QSortFilterProxyModel>
+#include <QSpinBox>
 #include <QTabWidget>
 #include <QTableView>
 #include <QTemporaryDir>
 #include <QTextBrowser>
+#include <QTimer>
 #include <QtTest>
 #include <cmath>
 #include <fstream>
@@ -38,6 +41,7 @@
 #include "ui/charts/distribution_chart.h"
 #include "ui/charts/predictor_charts.h"
 #include "ui/charts/roc_chart.h"
+#include "ui/dialogs/uncertainty_dialog.h"
 #include "ui/models/table_export.h"
 #include "ui/state/study_file.h"
 #include "ui/views/chart_panel.h"
@@ -661,6 +665,39 @@ class MainWindowTest : public QObject {
     const auto results = w.study().uncertainty;
     w.setThreshold(0.25);
     QCOMPARE(w.study().uncertainty, results);
+  }
+
+  // The menu action's dialog: subgroup columns offered from the cohort (not the outcome, not an
+  // identifier with thousands of values), a compared model added, the run started from Run.
+  void dialogStartsTheRun() {
+    if (!QFile::exists(kSampleStudy)) QSKIP("sample data not present");
+    MainWindow w;
+    w.show();
+    openSample(w);
+    QStringList offered;
+    QTimer::singleShot(0, &w, [&]() {
+      auto* dialog = w.findChild<UncertaintyDialog*>("uncertaintyDialog");
+      QVERIFY(dialog != nullptr);
+      auto* list = dialog->findChild<QListWidget*>("subgroupColumnList");
+      for (int i = 0; i < list->count(); ++i) offered << list->item(i)->text();
+      dialog->findChild<QSpinBox*>("bootstrapReplicatesSpin")->setValue(20);
+      dialog->findChild<QSpinBox*>("bootstrapSeedSpin")->setValue(3);
+      dialog->addCompareModel(secondModel());
+      dialog->setSubgroupChecked("urgency", true);
+      dialog->accept();
+    });
+    child<QAction>(w, "actionUncertainty")->trigger();
+    waitForJob(w);
+    QVERIFY(offered.contains("site"));
+    QVERIFY(offered.contains("sex"));
+    QVERIFY(!offered.contains("patient_ref"));
+    QVERIFY(!offered.contains("complication_30d"));
+    const UncertaintySettings& s = w.study().uncertaintySettings;
+    QCOMPARE(s.bootstrapReplicates, 20);
+    QCOMPARE(s.seed, std::uint64_t{3});
+    QCOMPARE(s.subgroupColumns, std::vector<std::string>{"urgency"});
+    QVERIFY(w.study().uncertainty && w.study().uncertainty->comparison);
+    QCOMPARE(w.study().uncertainty->subgroups[0].column, std::string("urgency"));
   }
 
   void sameSeedGivesIdenticalIntervals() {
