@@ -10,10 +10,8 @@
 #include "app/cli/arguments.h"
 #include "app/cli/data_options.h"
 #include "app/cli/local_cohort.h"
-#include "core/model/linear_predictor.h"
 #include "core/model/model_io.h"
-#include "core/uncertainty/model_update.h"
-#include "core/uncertainty/optimism.h"
+#include "core/uncertainty/internal_validation.h"
 #include "core/uncertainty/uncertainty_json.h"
 #include "core/util/atomic_file.h"
 #include "core/util/errors.h"
@@ -69,27 +67,15 @@ int runInternalCommand(const std::vector<std::string>& words) {
   const std::string modelPath = args.required("--model");
   const Model model = readModelFile(modelPath);
   LocalCohort cohort = loadLocalCohort(args, model);
-  const bool recordedFirth =
-      model.development.method && model.development.method->find("Firth") != std::string::npos;
-  options.fit.firth = args.has("--firth") || recordedFirth;
-
-  std::vector<std::string> warnings;
-  if (model.development.dataSha256 && *model.development.dataSha256 != cohort.sha256) {
-    warnings.push_back("the model file records other development data (sha256 " +
-                       *model.development.dataSha256 +
-                       "); optimism correction is meant for the data a model was fitted on");
-  }
-  const Eigen::MatrixXd design = designMatrix(model, cohort.table, cohort.selection.rows);
-  Eigen::MatrixXd X(design.rows(), design.cols() + 1);
-  X.col(0).setOnes();
-  X.rightCols(design.cols()) = design;
-  const Eigen::VectorXd y = Eigen::Map<const Eigen::VectorXd>(
-      cohort.outcome.data(), static_cast<Eigen::Index>(cohort.outcome.size()));
-  const OptimismResult result = bootstrapOptimism(X, y, options);
-  warnings.insert(warnings.end(), result.warnings.begin(), result.warnings.end());
+  options.fit.firth = args.has("--firth");
+  const UpdateData data{&cohort.table, cohort.selection.rows, cohort.outcome, cohort.sha256,
+                        cohort.path};
+  const InternalValidation internal = internalValidation(model, data, options);
+  const OptimismResult& result = internal.optimism;
+  const std::vector<std::string>& warnings = internal.warnings;
 
   printExclusions(std::cout, cohort);
-  std::cout << "model: " << modelPath << (options.fit.firth ? " (refitted with Firth)" : "")
+  std::cout << "model: " << modelPath << (internal.firth ? " (refitted with Firth)" : "")
             << "\nbootstrap: " << result.run.replicates << " replicates, seed " << result.run.seed
             << ", " << result.run.threads << " threads, " << result.run.failed << " failed\n";
   std::cout << "  measure                  apparent   optimism  corrected\n";
@@ -107,17 +93,7 @@ int runInternalCommand(const std::vector<std::string>& words) {
   report["data_sha256"] = cohort.sha256;
   report["warnings"] = warnings;
   if (const auto shrunkPath = args.value("--shrunk-out")) {
-    if (!(result.shrinkageFactor > 0.0)) {
-      throw AnalysisError(
-          "no shrunk model written: the corrected calibration slope is not positive");
-    }
-    UpdateData data{&cohort.table, cohort.selection.rows, cohort.outcome, cohort.sha256,
-                    cohort.path};
-    UpdateOptions fitOptions;
-    fitOptions.firth = options.fit.firth;
-    const UpdatedModel fitted = updateModel(model, data, UpdateMethod::Refit, fitOptions);
-    const Model shrunk = shrinkModel(fitted.model, result.shrinkageFactor, cohort.table,
-                                     cohort.selection.rows, cohort.outcome);
+    const Model shrunk = shrunkModel(model, data, result.shrinkageFactor, internal.firth);
     writeModelFile(*shrunkPath, shrunk);
     report["shrunk_model"] = *shrunkPath;
     std::cout << "wrote " << *shrunkPath << '\n';

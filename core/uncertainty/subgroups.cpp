@@ -69,8 +69,19 @@ SubgroupAnalysis validateSubgroups(const std::string& column,
   analysis.column = column;
   ValidationOptions levelOptions = options;
   levelOptions.progress = nullptr;
-  for (const std::string& level : levels) {
+  const ProgressCallback& whole = bootstrapOptions.bootstrap.progress;
+  for (std::size_t k = 0; k < levels.size(); ++k) {
+    const std::string& level = levels[k];
     const std::vector<std::size_t>& index = members[level];
+    // Each level's bootstrap fills its own share of the bar (it restarted at 0 per level).
+    ValidationBootstrapOptions levelBootstrap = bootstrapOptions;
+    if (whole) {
+      const double from = static_cast<double>(k) / static_cast<double>(levels.size());
+      const double share = 1.0 / static_cast<double>(levels.size());
+      levelBootstrap.bootstrap.progress = [whole, from, share](double f) {
+        return whole(from + share * f);
+      };
+    }
     SubgroupResult result;
     result.level = level;
     result.n = index.size();
@@ -96,13 +107,14 @@ SubgroupAnalysis validateSubgroups(const std::string& column,
       result.metrics = validate(subset, levelOptions);
       if (bootstrapOptions.bootstrap.replicates > 0) {
         result.bootstrap =
-            bootstrapValidation(subset, levelOptions, *result.metrics, bootstrapOptions);
+            bootstrapValidation(subset, levelOptions, *result.metrics, levelBootstrap);
       }
     } catch (const AnalysisError& error) {
       result.warnings.push_back(std::string("no metrics: ") + error.what());
     }
     analysis.levels.push_back(std::move(result));
   }
+  reportProgress(whole, 1.0);
   return analysis;
 }
 

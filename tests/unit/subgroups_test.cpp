@@ -70,6 +70,22 @@ TEST(Subgroups, EachLevelEqualsValidatingItsSubsetAlone) {
   EXPECT_EQ(total, 3000u);  // nobody dropped, missing labels included
 }
 
+TEST(Subgroups, ProgressRunsOnceFromZeroToOneOverAllLevels) {
+  const Simulated s = simulate(3000);
+  ValidationBootstrapOptions bootstrap;
+  bootstrap.bootstrap.replicates = 20;
+  bootstrap.bootstrap.threads = 1;
+  std::vector<double> seen;
+  bootstrap.bootstrap.progress = [&](double f) {
+    seen.push_back(f);
+    return true;
+  };
+  validateSubgroups("site", s.labels, s.input, {}, bootstrap);
+  ASSERT_FALSE(seen.empty());
+  for (std::size_t i = 1; i < seen.size(); ++i) EXPECT_GE(seen[i], seen[i - 1] - 1e-12) << i;
+  EXPECT_DOUBLE_EQ(seen.back(), 1.0);
+}
+
 TEST(Subgroups, SmallOrOneClassLevelsAreWarnedNotDropped) {
   ValidationInput input;
   std::vector<std::string> labels;

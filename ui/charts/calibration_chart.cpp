@@ -10,6 +10,7 @@
 #include "ui/charts/chart_style.h"
 #include "ui/charts/chart_text.h"
 #include "ui/charts/histogram_series.h"
+#include "ui/charts/overlay_series.h"
 
 namespace calivera::ui::charts {
 
@@ -139,13 +140,54 @@ QString CalibrationChart::describeAt(QPointF value) const {
                fixed(g.observedCi.hi, 4));
     }
   }
-  if (curve_.empty()) return {};
+  if (curve_.empty()) return describeOverlays(value, tolerance);
   auto it = std::lower_bound(curve_.begin(), curve_.end(), value.x(),
                              [](const CalibrationCurvePoint& p, double r) { return p.risk < r; });
   if (it == curve_.end()) --it;
-  if (std::abs(it->observed - value.y()) > tolerance * 2) return {};
-  return QStringLiteral("Smoothed curve: predicted %1, observed %2")
-      .arg(fixed(it->risk, 4), fixed(it->observed, 4));
+  if (std::abs(it->observed - value.y()) > tolerance * 2) return describeOverlays(value, tolerance);
+  QString text = QStringLiteral("Smoothed curve: predicted %1, observed %2")
+                     .arg(fixed(it->risk, 4), fixed(it->observed, 4));
+  if (const BandPoint* b = nearestBandPoint(bandPoints_, it->risk, tolerance)) {
+    text += QStringLiteral("\nSmoothed curve, bootstrap 95% band at %1: %2 to %3")
+                .arg(fixed(b->x, 3), fixed(b->ci.lo, 4), fixed(b->ci.hi, 4));
+  }
+  const QString overlays = describeOverlays(value, tolerance);
+  return overlays.isEmpty() ? text : text + QStringLiteral("\n") + overlays;
+}
+
+void CalibrationChart::setCurveBand(const std::vector<BandPoint>& band) {
+  if (band_ != nullptr) {
+    removeSeries(band_);
+    delete band_;
+  }
+  bandPoints_ = band;
+  band_ = makeBandArea(band, QStringLiteral("Smoothed curve, bootstrap 95% band"),
+                       roleColor(SeriesRole::Model));
+  addOnAxesOf(this, band_, marker_);
+}
+
+void CalibrationChart::addComparison(const QString& name, const Calibration& calibration) {
+  auto* line = new QLineSeries;
+  line->setName(name);
+  line->setPen(comparisonPen(comparisons_.size()));
+  QList<QPointF> pts;
+  for (const auto& p : calibration.curve) pts.append(QPointF(p.risk, p.observed));
+  line->replace(pts);
+  addOnAxesOf(this, line, marker_);
+  comparisons_.push_back({name, calibration.curve});
+}
+
+// The overlaid curves near `value`: "name: predicted p, observed o" per curve within reach.
+QString CalibrationChart::describeOverlays(QPointF value, double tolerance) const {
+  QStringList lines;
+  for (const Comparison& c : comparisons_) {
+    const double observed = interpolateCurve(c.curve, value.x());
+    if (std::isfinite(observed) && std::abs(observed - value.y()) <= tolerance * 2) {
+      lines.append(QStringLiteral("%1: predicted %2, observed %3")
+                       .arg(c.name, fixed(value.x(), 4), fixed(observed, 4)));
+    }
+  }
+  return lines.join(QChar('\n'));
 }
 
 }  // namespace calivera::ui::charts

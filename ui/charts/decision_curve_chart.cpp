@@ -9,6 +9,7 @@
 
 #include "ui/charts/chart_style.h"
 #include "ui/charts/chart_text.h"
+#include "ui/charts/overlay_series.h"
 
 namespace calivera::ui::charts {
 
@@ -32,6 +33,7 @@ DecisionCurveChart::DecisionCurveChart(const std::vector<DecisionCurvePoint>& cu
   y->applyNiceNumbers();
   yMin_ = y->min();
   yMax_ = y->max();
+  yAxis_ = y;
   addAxis(x, Qt::AlignBottom);
   addAxis(y, Qt::AlignLeft);
   auto attach = [&](QAbstractSeries* s) { addOnAxes(this, s, x, y); };
@@ -49,29 +51,21 @@ DecisionCurveChart::DecisionCurveChart(const std::vector<DecisionCurvePoint>& cu
   attach(range);
   range_ = range;
 
-  auto clampY = [&](double v) { return std::clamp(v, yMin_, yMax_); };
   auto* none = new QLineSeries;
   none->setName(QStringLiteral("Treat none"));
   none->setPen(rolePen(SeriesRole::TreatNone));
   none->append(0, 0);
   none->append(xMax_, 0);
-  auto* all = new QLineSeries;
-  all->setName(QStringLiteral("Treat all"));
-  all->setPen(rolePen(SeriesRole::TreatAll));
-  auto* model = new QLineSeries;
-  model->setName(QStringLiteral("Model"));
-  model->setPen(rolePen(SeriesRole::Model));
-  QList<QPointF> allPts, modelPts;
-  for (const auto& p : curve_) {
-    // Stop treat-all where it leaves the plot instead of drawing a flat line along the floor.
-    if (p.netBenefitTreatAll >= yMin_) allPts.append(QPointF(p.threshold, p.netBenefitTreatAll));
-    modelPts.append(QPointF(p.threshold, clampY(p.netBenefit)));
-  }
-  all->replace(allPts);
-  model->replace(modelPts);
+  treatAll_ = new QLineSeries;
+  treatAll_->setName(QStringLiteral("Treat all"));
+  treatAll_->setPen(rolePen(SeriesRole::TreatAll));
+  model_ = new QLineSeries;
+  model_->setName(QStringLiteral("Model"));
+  model_->setPen(rolePen(SeriesRole::Model));
+  drawCurves();
   attach(none);
-  attach(all);
-  attach(model);
+  attach(treatAll_);
+  attach(model_);
 
   marker_ = new QLineSeries;
   marker_->setName(QStringLiteral("Threshold"));
@@ -118,12 +112,82 @@ QString DecisionCurveChart::describeAt(QPointF value) const {
       std::abs(std::prev(it)->threshold - value.x()) < std::abs(it->threshold - value.x())) {
     --it;
   }
-  return QStringLiteral(
-             "Threshold %1\nNet benefit: model %2, treat everyone %3, treat no one 0\n"
-             "Interventions avoided per 100 patients vs treat everyone: %4\n"
-             "(click to use this threshold)")
-      .arg(fixed(it->threshold, 3), fixed(it->netBenefit, 4), fixed(it->netBenefitTreatAll, 4),
-           fixed(it->interventionsAvoidedPer100, 1));
+  QString text =
+      QStringLiteral(
+          "Threshold %1\nNet benefit: model %2, treat everyone %3, treat no one 0\n"
+          "Interventions avoided per 100 patients vs treat everyone: %4")
+          .arg(fixed(it->threshold, 3), fixed(it->netBenefit, 4), fixed(it->netBenefitTreatAll, 4),
+               fixed(it->interventionsAvoidedPer100, 1));
+  if (const BandPoint* b = nearestBandPoint(bandPoints_, it->threshold, 1e-9)) {
+    text += QStringLiteral("\nModel, bootstrap 95% band: %1 to %2")
+                .arg(fixed(b->ci.lo, 4), fixed(b->ci.hi, 4));
+  }
+  for (const Comparison& c : comparisons_) {
+    const auto match = std::find_if(
+        c.curve.begin(), c.curve.end(),
+        [&](const DecisionCurvePoint& p) { return std::abs(p.threshold - it->threshold) < 1e-9; });
+    if (match != c.curve.end()) {
+      text += QStringLiteral("\n%1: net benefit %2").arg(c.name, fixed(match->netBenefit, 4));
+    }
+  }
+  return text + QStringLiteral("\n(click to use this threshold)");
+}
+
+void DecisionCurveChart::drawCurves() {
+  QList<QPointF> allPts, modelPts;
+  for (const auto& p : curve_) {
+    // Stop treat-all where it leaves the plot instead of drawing a flat line along the floor.
+    if (p.netBenefitTreatAll >= yMin_) allPts.append(QPointF(p.threshold, p.netBenefitTreatAll));
+    modelPts.append(QPointF(p.threshold, std::clamp(p.netBenefit, yMin_, yMax_)));
+  }
+  treatAll_->replace(allPts);
+  model_->replace(modelPts);
+  for (Comparison& c : comparisons_) {
+    QList<QPointF> pts;
+    for (const auto& p : c.curve)
+      pts.append(QPointF(p.threshold, std::clamp(p.netBenefit, yMin_, yMax_)));
+    c.series->replace(pts);
+  }
+}
+
+void DecisionCurveChart::setYRange(double lo, double hi) {
+  yAxis_->setRange(lo, hi);
+  yAxis_->applyNiceNumbers();
+  yMin_ = yAxis_->min();
+  yMax_ = yAxis_->max();
+  const double marked = markedThreshold();
+  marker_->replace({QPointF(marked, yMin_), QPointF(marked, yMax_)});
+  // The shaded range keeps its thresholds and spans the new height.
+  if (range_ != nullptr) setReasonableRange(rangeUpper_->at(0).x(), rangeUpper_->at(1).x());
+  drawCurves();
+}
+
+void DecisionCurveChart::setNetBenefitBand(const std::vector<BandPoint>& band) {
+  if (band_ != nullptr) {
+    removeSeries(band_);
+    delete band_;
+  }
+  bandPoints_ = band;
+  band_ =
+      makeBandArea(band, QStringLiteral("Model, bootstrap 95% band"), roleColor(SeriesRole::Model));
+  addOnAxesOf(this, band_, model_);
+  double lo = yMin_, hi = yMax_;
+  for (const BandPoint& p : band) {
+    if (p.x > xMax_ || !std::isfinite(p.ci.lo) || !std::isfinite(p.ci.hi)) continue;
+    lo = std::min(lo, p.ci.lo);
+    hi = std::max(hi, p.ci.hi);
+  }
+  setYRange(std::max(lo, -hi), hi);
+}
+
+void DecisionCurveChart::addComparison(const QString& name,
+                                       const std::vector<DecisionCurvePoint>& curve) {
+  auto* line = new QLineSeries;
+  line->setName(name);
+  line->setPen(comparisonPen(comparisons_.size()));
+  comparisons_.push_back({name, curve, line});
+  drawCurves();
+  addOnAxesOf(this, line, model_);
 }
 
 }  // namespace calivera::ui::charts

@@ -8,6 +8,7 @@
 
 #include "ui/charts/chart_style.h"
 #include "ui/charts/chart_text.h"
+#include "ui/charts/overlay_series.h"
 
 namespace calivera::ui::charts {
 
@@ -59,10 +60,12 @@ QPointF RocChart::operatingPoint() const {
   return operatingPoint_->at(0);
 }
 
-const RocPoint* RocChart::nearest(QPointF value, double maxDistance) const {
+namespace {
+
+const RocPoint* nearestOf(const std::vector<RocPoint>& points, QPointF value, double maxDistance) {
   const RocPoint* best = nullptr;
   double bestDistance = maxDistance;
-  for (const RocPoint& p : points_) {
+  for (const RocPoint& p : points) {
     const double d = std::hypot(p.fpr - value.x(), p.tpr - value.y());
     if (d < bestDistance) {
       bestDistance = d;
@@ -72,6 +75,24 @@ const RocPoint* RocChart::nearest(QPointF value, double maxDistance) const {
   return best;
 }
 
+}  // namespace
+
+const RocPoint* RocChart::nearest(QPointF value, double maxDistance) const {
+  return nearestOf(points_, value, maxDistance);
+}
+
+void RocChart::addComparison(const QString& name, const Discrimination& discrimination) {
+  auto* curve = new QLineSeries;
+  curve->setName(QStringLiteral("%1 (AUC %2)").arg(name, fixed(discrimination.auc, 3)));
+  curve->setPen(comparisonPen(comparisons_.size()));
+  QList<QPointF> pts;
+  pts.reserve(static_cast<qsizetype>(discrimination.roc.size()));
+  for (const RocPoint& p : discrimination.roc) pts.append(QPointF(p.fpr, p.tpr));
+  curve->replace(pts);
+  addOnAxesOf(this, curve, operatingPoint_);
+  comparisons_.push_back({name, discrimination.roc});
+}
+
 std::optional<double> RocChart::thresholdAt(QPointF value) const {
   const RocPoint* p = nearest(value, 0.08);
   if (p == nullptr) return std::nullopt;
@@ -79,11 +100,21 @@ std::optional<double> RocChart::thresholdAt(QPointF value) const {
 }
 
 QString RocChart::describeAt(QPointF value) const {
-  const RocPoint* p = nearest(value, 0.04);
-  if (p == nullptr) return {};
-  return QStringLiteral(
-             "Threshold %1\nSensitivity %2\n1 − specificity %3\n(click to use this threshold)")
-      .arg(fixed(std::clamp(p->threshold, 0.0, 1.0), 4), fixed(p->tpr, 4), fixed(p->fpr, 4));
+  if (const RocPoint* p = nearest(value, 0.04)) {
+    return QStringLiteral(
+               "Threshold %1\nSensitivity %2\n1 − specificity %3\n(click to use this threshold)")
+        .arg(fixed(std::clamp(p->threshold, 0.0, 1.0), 4), fixed(p->tpr, 4), fixed(p->fpr, 4));
+  }
+  // Off the main curve: the overlaid curves near the pointer, each at its own model's threshold.
+  QStringList lines;
+  for (const Comparison& c : comparisons_) {
+    if (const RocPoint* p = nearestOf(c.points, value, 0.04)) {
+      lines.append(QStringLiteral("%1: threshold %2, sensitivity %3, 1 − specificity %4")
+                       .arg(c.name, fixed(std::clamp(p->threshold, 0.0, 1.0), 4), fixed(p->tpr, 4),
+                            fixed(p->fpr, 4)));
+    }
+  }
+  return lines.join(QChar('\n'));
 }
 
 }  // namespace calivera::ui::charts
