@@ -28,6 +28,12 @@ class QSortFilterProxyModel;
 class QSpinBox;
 class QCheckBox;
 
+namespace calivera::ui::charts {
+class CalibrationChart;
+class DecisionCurveChart;
+class RocChart;
+}  // namespace calivera::ui::charts
+
 namespace calivera::ui {
 
 class BackgroundJob;
@@ -102,6 +108,9 @@ class MainWindow : public QMainWindow {
                      const QString& studyPathOnSuccess);
   void applyPipeline(PipelineOutput& output, const QString& studyPathOnSuccess);
   void rebuildViews();
+  // Bootstrap bands and the further models' curves from study_.uncertainty, when present.
+  void addUncertaintyLayers(charts::RocChart& roc, charts::CalibrationChart& calibration,
+                            charts::DecisionCurveChart& decision) const;
   void applyThreshold();
   void highlightThresholdRow();
   void updateStatus();
