@@ -112,6 +112,7 @@ class MainWindow : public QMainWindow {
   void addUncertaintyLayers(charts::RocChart& roc, charts::CalibrationChart& calibration,
                             charts::DecisionCurveChart& decision) const;
   void applyThreshold();
+  void nudgeThreshold(int steps);  // steps of the threshold grid (arrow keys, menu)
   void highlightThresholdRow();
   void updateStatus();
   void updateActions();

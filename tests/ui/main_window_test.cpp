@@ -741,6 +741,58 @@ class MainWindowTest : public QObject {
     QCOMPARE(w.study().uncertainty->subgroups[0].column, std::string("urgency"));
   }
 
+  // A compared model with a column the study's model does not use, missing for some patients:
+  // the comparison runs on fewer patients and says so, on the tab and in the overlay's name.
+  void comparisonOnFewerPatientsIsNoted() {
+    const QString data = path("with_extra.csv");
+    {
+      QFile in(cohort_);
+      QVERIFY(in.open(QIODevice::ReadOnly));
+      QFile out(data);
+      QVERIFY(out.open(QIODevice::WriteOnly));
+      const QList<QByteArray> lines = in.readAll().split('\n');
+      for (int i = 0; i < lines.size(); ++i) {
+        if (lines[i].isEmpty()) continue;
+        out.write(lines[i] + (i == 0 ? ",extra\n" : (i % 10 == 0 ? ",NA\n" : ",1.5\n")));
+      }
+    }
+    Model other = demoModel();
+    other.name = "With extra";
+    Term extra;
+    extra.name = "extra";
+    extra.variable = "extra";
+    extra.estimate.coefficient = 0.1;
+    other.terms.push_back(extra);
+    const QString otherPath = path("with_extra_model.json");
+    writeModelFile(otherPath.toStdString(), other);
+    StudyState s = readStudyFile(study_.toStdString());
+    s.data = InputFileRecord{data.toStdString(), sha256OfFileForTest(data)};
+    const QString saved = path("with_extra.cvstudy");
+    writeStudyFile(saved.toStdString(), s);
+
+    MainWindow w;
+    w.show();
+    QVERIFY(w.openStudy(saved));
+    waitForJob(w);
+    QVERIFY(w.study().result != nullptr);
+    UncertaintySettings settings;
+    settings.compareModels = {InputFileRecord{otherPath.toStdString(), {}}};
+    QVERIFY(w.runUncertainty(settings));
+    waitForJob(w);
+    const UncertaintyResults& u = *w.study().uncertainty;
+    QVERIFY(u.comparisonRows < w.study().result->cohort.n);
+    const QString note = text(w, "comparisonNote");
+    QVERIFY2(note.contains("fewer than the validation"), qPrintable(note));
+    QVERIFY(note.contains(QString("Compared on %1 patients").arg(u.comparisonRows)));
+    QVERIFY(note.contains("no intervals"));  // no bootstrap asked for
+    auto* roc = dynamic_cast<charts::RocChart*>(child<ChartPanel>(w, "rocView")->linkedChart());
+    bool named = false;
+    for (QAbstractSeries* series : roc->series()) {
+      named = named || series->name().contains(QString("(on %1 patients)").arg(u.comparisonRows));
+    }
+    QVERIFY(named);
+  }
+
   void sameSeedGivesIdenticalIntervals() {
     if (!QFile::exists(kSampleStudy)) QSKIP("sample data not present");
     MainWindow w;
