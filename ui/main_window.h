@@ -121,6 +121,8 @@ class MainWindow : public QMainWindow {
   void onCopyTable();
   void onExportReport();
   void onUncertainty();
+  void onInternalValidation();  // main_window_model_tools.cpp
+  void onUpdateModel();
 
   StudyState study_;
   QString studyPath_;
@@ -167,6 +169,8 @@ class MainWindow : public QMainWindow {
   QAction* actionRun_ = nullptr;
   QAction* actionCancel_ = nullptr;
   QAction* actionUncertainty_ = nullptr;
+  QAction* actionInternal_ = nullptr;
+  QAction* actionUpdate_ = nullptr;
   QAction* actionExportCharts_ = nullptr;
   QAction* actionExportTable_ = nullptr;
   QAction* actionExportReport_ = nullptr;
