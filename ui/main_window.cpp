@@ -206,6 +206,13 @@ void MainWindow::buildMenus() {
   actionMap_ = add(model, QStringLiteral("actionMapVariables"),
                    tr("&Map model variables to cohort columns…"), QKeySequence(),
                    &MainWindow::onMapVariables);
+  model->addSeparator();
+  actionInternal_ = add(model, QStringLiteral("actionInternalValidation"),
+                        tr("&Internal validation (bootstrap optimism)…"), QKeySequence(),
+                        &MainWindow::onInternalValidation);
+  actionUpdate_ = add(model, QStringLiteral("actionUpdateModel"),
+                      tr("&Update the model on this cohort…"), QKeySequence(),
+                      &MainWindow::onUpdateModel);
 
   QMenu* analysis = menuBar()->addMenu(tr("&Analysis"));
   analysis->setObjectName(QStringLiteral("menuAnalysis"));
@@ -393,6 +400,9 @@ void MainWindow::updateActions() {
   actionMap_->setEnabled(!busy && study_.model.has_value() && table_ != nullptr);
   actionCancel_->setEnabled(busy);
   actionUncertainty_->setEnabled(!busy && study_.result != nullptr && cohort_ != nullptr);
+  for (QAction* a : {actionInternal_, actionUpdate_}) {
+    a->setEnabled(!busy && study_.model.has_value() && cohort_ != nullptr);
+  }
   actionSave_->setEnabled(study_.data.has_value());
   actionSaveAs_->setEnabled(study_.data.has_value());
   actionExportCharts_->setEnabled(study_.result != nullptr);

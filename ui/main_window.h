@@ -131,6 +131,8 @@ class MainWindow : public QMainWindow {
   void onCopyTable();
   void onExportReport();
   void onUncertainty();
+  void onInternalValidation();  // main_window_model_tools.cpp
+  void onUpdateModel();
 
   StudyState study_;
   QString studyPath_;
@@ -177,6 +179,8 @@ class MainWindow : public QMainWindow {
   QAction* actionRun_ = nullptr;
   QAction* actionCancel_ = nullptr;
   QAction* actionUncertainty_ = nullptr;
+  QAction* actionInternal_ = nullptr;
+  QAction* actionUpdate_ = nullptr;
   QAction* actionExportCharts_ = nullptr;
   QAction* actionExportTable_ = nullptr;
   QAction* actionExportReport_ = nullptr;
