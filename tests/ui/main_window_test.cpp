@@ -969,8 +969,15 @@ class MainWindowTest : public QObject {
     tabs->setCurrentWidget(child<QWidget>(w, "subgroupView"));
     save(&w, "subgroups_tab");
     tabs->setCurrentIndex(1);
-    child<QTextBrowser>(w, "summaryPanel")->verticalScrollBar()->setValue(0);
-    save(&w, "summary_sample_size");
+    auto* summary = child<QTextBrowser>(w, "summaryPanel");
+    summary->moveCursor(QTextCursor::End);
+    QVERIFY(summary->find("Bootstrap:", QTextDocument::FindBackward));
+    QTextCursor cursor = summary->textCursor();
+    cursor.clearSelection();
+    summary->setTextCursor(cursor);
+    summary->verticalScrollBar()->setValue(summary->verticalScrollBar()->value() +
+                                           summary->viewport()->height() / 2 - 30);
+    save(&w, "summary_intervals");
   }
 };
 
