@@ -97,6 +97,10 @@ MainWindow::MainWindow(QWidget* parent) : QMainWindow(parent) {
   tabs_->addTab(comparisonView_, tr("&Comparison"));
   subgroupView_ = new SubgroupView;
   connect(subgroupView_, &SubgroupView::thresholdPicked, this, &MainWindow::setThreshold);
+  connect(subgroupView_->chartPanel(), &ChartPanel::exportRequested, this,
+          &MainWindow::onExportChart);
+  connect(subgroupView_->chartPanel(), &ChartPanel::nudgeRequested, this,
+          &MainWindow::nudgeThreshold);
   tabs_->addTab(subgroupView_, tr("S&ubgroups"));
   layout->addWidget(tabs_, 1);
 
@@ -135,6 +139,10 @@ MainWindow::MainWindow(QWidget* parent) : QMainWindow(parent) {
 }
 
 MainWindow::~MainWindow() = default;
+
+void MainWindow::nudgeThreshold(int steps) {
+  if (threshold_.nudge(steps)) setThreshold(threshold_.threshold());
+}
 
 void MainWindow::buildBanner(QWidget* host) {
   banner_ = new QLabel(cautionText(), host);
@@ -223,15 +231,11 @@ void MainWindow::buildMenus() {
   QAction* up = analysis->addAction(tr("Raise threshold by 0.005"));
   up->setObjectName(QStringLiteral("actionThresholdUp"));
   up->setShortcut(QKeySequence(Qt::CTRL | Qt::Key_Up));
-  connect(up, &QAction::triggered, this, [this]() {
-    if (threshold_.nudge(1)) setThreshold(threshold_.threshold());
-  });
+  connect(up, &QAction::triggered, this, [this]() { nudgeThreshold(1); });
   QAction* down = analysis->addAction(tr("Lower threshold by 0.005"));
   down->setObjectName(QStringLiteral("actionThresholdDown"));
   down->setShortcut(QKeySequence(Qt::CTRL | Qt::Key_Down));
-  connect(down, &QAction::triggered, this, [this]() {
-    if (threshold_.nudge(-1)) setThreshold(threshold_.threshold());
-  });
+  connect(down, &QAction::triggered, this, [this]() { nudgeThreshold(-1); });
 
   QMenu* edit = menuBar()->addMenu(tr("&Edit"));
   edit->setObjectName(QStringLiteral("menuEdit"));
@@ -303,9 +307,7 @@ QWidget* MainWindow::buildLinkedViewsTab() {
   for (ChartPanel* panel : {roc_, calibration_, decision_, distribution_}) {
     connect(panel, &ChartPanel::thresholdPicked, this, &MainWindow::setThreshold);
     connect(panel, &ChartPanel::exportRequested, this, &MainWindow::onExportChart);
-    connect(panel, &ChartPanel::nudgeRequested, this, [this](int steps) {
-      if (threshold_.nudge(steps)) setThreshold(threshold_.threshold());
-    });
+    connect(panel, &ChartPanel::nudgeRequested, this, &MainWindow::nudgeThreshold);
   }
   confusion_ = new ConfusionPanel;
   // A scroll area gives the word-wrapped labels their full height for the panel's width.

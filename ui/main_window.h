@@ -28,6 +28,12 @@ class QSortFilterProxyModel;
 class QSpinBox;
 class QCheckBox;
 
+namespace calivera::ui::charts {
+class CalibrationChart;
+class DecisionCurveChart;
+class RocChart;
+}  // namespace calivera::ui::charts
+
 namespace calivera::ui {
 
 class BackgroundJob;
@@ -102,7 +108,11 @@ class MainWindow : public QMainWindow {
                      const QString& studyPathOnSuccess);
   void applyPipeline(PipelineOutput& output, const QString& studyPathOnSuccess);
   void rebuildViews();
+  // Bootstrap bands and the further models' curves from study_.uncertainty, when present.
+  void addUncertaintyLayers(charts::RocChart& roc, charts::CalibrationChart& calibration,
+                            charts::DecisionCurveChart& decision) const;
   void applyThreshold();
+  void nudgeThreshold(int steps);  // steps of the threshold grid (arrow keys, menu)
   void highlightThresholdRow();
   void updateStatus();
   void updateActions();
