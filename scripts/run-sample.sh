@@ -11,15 +11,17 @@ data=sample_data/local_cohort.csv
 model=sample_data/published_model.json
 outcome=complication_30d
 if [ -n "${DISPLAY:-}${WAYLAND_DISPLAY:-}" ] || [ -n "${QT_QPA_PLATFORM:-}" ]; then
-  exec build/bin/calivera --data "$data" --model "$model" --outcome "$outcome"
+  # The sample study: cohort, model, settings, a rival model to compare, bootstrap and subgroups.
+  exec build/bin/calivera resources/sample_study_full.cvstudy
 fi
 echo "No display found: running the sample validation headless (set DISPLAY to open the workstation)."
 mkdir -p out
-build/bin/calivera validate --data "$data" --outcome "$outcome" --model "$model" \
+uncertainty=(--bootstrap 200 --seed 2026 --compare sample_data/quick_model.json --subgroup site)
+build/bin/calivera validate --data "$data" --outcome "$outcome" --model "$model" "${uncertainty[@]}" \
   --thresholds 0.05,0.10,0.15,0.20,0.30 --json out/sample_validation.json --csv-dir out/tables \
   --pdf out/sample_report.pdf --title "Sample study: Ashcombe score at Kestrel Bay (synthetic)" \
   >/dev/null
-build/bin/calivera validate --data "$data" --outcome "$outcome" --model "$model" \
+build/bin/calivera validate --data "$data" --outcome "$outcome" --model "$model" "${uncertainty[@]}" \
   --thresholds 0.05,0.10,0.15,0.20,0.30
 echo
 echo "Written: out/sample_validation.json, out/tables/*.csv, out/sample_report.pdf"

@@ -97,6 +97,10 @@ MainWindow::MainWindow(QWidget* parent) : QMainWindow(parent) {
   tabs_->addTab(comparisonView_, tr("&Comparison"));
   subgroupView_ = new SubgroupView;
   connect(subgroupView_, &SubgroupView::thresholdPicked, this, &MainWindow::setThreshold);
+  connect(subgroupView_->chartPanel(), &ChartPanel::exportRequested, this,
+          &MainWindow::onExportChart);
+  connect(subgroupView_->chartPanel(), &ChartPanel::nudgeRequested, this,
+          &MainWindow::nudgeThreshold);
   tabs_->addTab(subgroupView_, tr("S&ubgroups"));
   layout->addWidget(tabs_, 1);
 
@@ -135,6 +139,10 @@ MainWindow::MainWindow(QWidget* parent) : QMainWindow(parent) {
 }
 
 MainWindow::~MainWindow() = default;
+
+void MainWindow::nudgeThreshold(int steps) {
+  if (threshold_.nudge(steps)) setThreshold(threshold_.threshold());
+}
 
 void MainWindow::buildBanner(QWidget* host) {
   banner_ = new QLabel(cautionText(), host);
@@ -198,6 +206,13 @@ void MainWindow::buildMenus() {
   actionMap_ = add(model, QStringLiteral("actionMapVariables"),
                    tr("&Map model variables to cohort columns…"), QKeySequence(),
                    &MainWindow::onMapVariables);
+  model->addSeparator();
+  actionInternal_ = add(model, QStringLiteral("actionInternalValidation"),
+                        tr("&Internal validation (bootstrap optimism)…"), QKeySequence(),
+                        &MainWindow::onInternalValidation);
+  actionUpdate_ = add(model, QStringLiteral("actionUpdateModel"),
+                      tr("&Update the model on this cohort…"), QKeySequence(),
+                      &MainWindow::onUpdateModel);
 
   QMenu* analysis = menuBar()->addMenu(tr("&Analysis"));
   analysis->setObjectName(QStringLiteral("menuAnalysis"));
@@ -216,15 +231,11 @@ void MainWindow::buildMenus() {
   QAction* up = analysis->addAction(tr("Raise threshold by 0.005"));
   up->setObjectName(QStringLiteral("actionThresholdUp"));
   up->setShortcut(QKeySequence(Qt::CTRL | Qt::Key_Up));
-  connect(up, &QAction::triggered, this, [this]() {
-    if (threshold_.nudge(1)) setThreshold(threshold_.threshold());
-  });
+  connect(up, &QAction::triggered, this, [this]() { nudgeThreshold(1); });
   QAction* down = analysis->addAction(tr("Lower threshold by 0.005"));
   down->setObjectName(QStringLiteral("actionThresholdDown"));
   down->setShortcut(QKeySequence(Qt::CTRL | Qt::Key_Down));
-  connect(down, &QAction::triggered, this, [this]() {
-    if (threshold_.nudge(-1)) setThreshold(threshold_.threshold());
-  });
+  connect(down, &QAction::triggered, this, [this]() { nudgeThreshold(-1); });
 
   QMenu* edit = menuBar()->addMenu(tr("&Edit"));
   edit->setObjectName(QStringLiteral("menuEdit"));
@@ -296,9 +307,7 @@ QWidget* MainWindow::buildLinkedViewsTab() {
   for (ChartPanel* panel : {roc_, calibration_, decision_, distribution_}) {
     connect(panel, &ChartPanel::thresholdPicked, this, &MainWindow::setThreshold);
     connect(panel, &ChartPanel::exportRequested, this, &MainWindow::onExportChart);
-    connect(panel, &ChartPanel::nudgeRequested, this, [this](int steps) {
-      if (threshold_.nudge(steps)) setThreshold(threshold_.threshold());
-    });
+    connect(panel, &ChartPanel::nudgeRequested, this, &MainWindow::nudgeThreshold);
   }
   confusion_ = new ConfusionPanel;
   // A scroll area gives the word-wrapped labels their full height for the panel's width.
@@ -391,6 +400,9 @@ void MainWindow::updateActions() {
   actionMap_->setEnabled(!busy && study_.model.has_value() && table_ != nullptr);
   actionCancel_->setEnabled(busy);
   actionUncertainty_->setEnabled(!busy && study_.result != nullptr && cohort_ != nullptr);
+  for (QAction* a : {actionInternal_, actionUpdate_}) {
+    a->setEnabled(!busy && study_.model.has_value() && cohort_ != nullptr);
+  }
   actionSave_->setEnabled(study_.data.has_value());
   actionSaveAs_->setEnabled(study_.data.has_value());
   actionExportCharts_->setEnabled(study_.result != nullptr);

@@ -28,6 +28,12 @@ class QSortFilterProxyModel;
 class QSpinBox;
 class QCheckBox;
 
+namespace calivera::ui::charts {
+class CalibrationChart;
+class DecisionCurveChart;
+class RocChart;
+}  // namespace calivera::ui::charts
+
 namespace calivera::ui {
 
 class BackgroundJob;
@@ -102,7 +108,11 @@ class MainWindow : public QMainWindow {
                      const QString& studyPathOnSuccess);
   void applyPipeline(PipelineOutput& output, const QString& studyPathOnSuccess);
   void rebuildViews();
+  // Bootstrap bands and the further models' curves from study_.uncertainty, when present.
+  void addUncertaintyLayers(charts::RocChart& roc, charts::CalibrationChart& calibration,
+                            charts::DecisionCurveChart& decision) const;
   void applyThreshold();
+  void nudgeThreshold(int steps);  // steps of the threshold grid (arrow keys, menu)
   void highlightThresholdRow();
   void updateStatus();
   void updateActions();
@@ -121,6 +131,8 @@ class MainWindow : public QMainWindow {
   void onCopyTable();
   void onExportReport();
   void onUncertainty();
+  void onInternalValidation();  // main_window_model_tools.cpp
+  void onUpdateModel();
 
   StudyState study_;
   QString studyPath_;
@@ -167,6 +179,8 @@ class MainWindow : public QMainWindow {
   QAction* actionRun_ = nullptr;
   QAction* actionCancel_ = nullptr;
   QAction* actionUncertainty_ = nullptr;
+  QAction* actionInternal_ = nullptr;
+  QAction* actionUpdate_ = nullptr;
   QAction* actionExportCharts_ = nullptr;
   QAction* actionExportTable_ = nullptr;
   QAction* actionExportReport_ = nullptr;

@@ -120,10 +120,13 @@ void MainWindow::rebuildViews() {
     hlModel_->setTable({}, {}, {});
     confusion_->clear();
   } else {
-    roc_->setLinkedChart(new charts::RocChart(r->discrimination));
-    calibration_->setLinkedChart(new charts::CalibrationChart(r->calibration, r->distribution));
+    auto* roc = new charts::RocChart(r->discrimination);
+    auto* calibration = new charts::CalibrationChart(r->calibration, r->distribution);
     auto* decision = new charts::DecisionCurveChart(r->decisionCurve, r->cohort);
     decision->setReasonableRange(study_.analysis.reasonableLo, study_.analysis.reasonableHi);
+    addUncertaintyLayers(*roc, *calibration, *decision);
+    roc_->setLinkedChart(roc);
+    calibration_->setLinkedChart(calibration);
     decision_->setLinkedChart(decision);
     distribution_->setLinkedChart(new charts::DistributionChart(r->distribution));
     fillThresholdTable(*thresholdModel_, r->thresholds, r->decisionCurve);
@@ -168,6 +171,28 @@ void MainWindow::rebuildViews() {
   predictorView_->setData(study_.model ? &*study_.model : nullptr, cohort_, study_.columnMapping,
                           study_.predictorView, study_.heldValues);
   applyThreshold();
+}
+
+void MainWindow::addUncertaintyLayers(charts::RocChart& roc, charts::CalibrationChart& calibration,
+                                      charts::DecisionCurveChart& decision) const {
+  const UncertaintyResults* u = study_.uncertainty.get();
+  if (u == nullptr) return;
+  if (u->bootstrap) {
+    calibration.setCurveBand(u->bootstrap->calibrationCurve);
+    decision.setNetBenefitBand(u->bootstrap->netBenefit);
+  }
+  if (!u->comparison) return;
+  // Further models only (the study's own model is the main curve); comparedResults[0] is the
+  // study's model on the comparison rows.
+  const bool fewer = study_.result && u->comparisonRows < study_.result->cohort.n;
+  for (std::size_t m = 1; m < u->comparedResults.size() && m < u->comparison->models.size(); ++m) {
+    QString name = toQ(u->comparison->models[m]);
+    if (fewer) name += tr(" (on %1 patients)").arg(u->comparisonRows);
+    const ValidationResult& other = u->comparedResults[m];
+    roc.addComparison(name, other.discrimination);
+    calibration.addComparison(name, other.calibration);
+    decision.addComparison(name, other.decisionCurve);
+  }
 }
 
 void MainWindow::setThreshold(double threshold) {

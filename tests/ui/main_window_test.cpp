@@ -12,14 +12,19 @@
 #include <QFile>
 #include <QImage>
 #include <QLabel>
+#include <QListWidget>
 #include <QProgressBar>
 #include <QScrollBar>
 #include <QSlider>
 #include <QSortFilterProxyModel>
+#include <QSpinBox>
 #include <QTabWidget>
 #include <QTableView>
 #include <QTemporaryDir>
 #include <QTextBrowser>
+#include <QTimer>
+#include <QtCharts/QAreaSeries>
+#include <QtCharts/QLineSeries>
 #include <QtTest>
 #include <cmath>
 #include <fstream>
@@ -38,6 +43,7 @@
 #include "ui/charts/distribution_chart.h"
 #include "ui/charts/predictor_charts.h"
 #include "ui/charts/roc_chart.h"
+#include "ui/dialogs/uncertainty_dialog.h"
 #include "ui/models/table_export.h"
 #include "ui/state/study_file.h"
 #include "ui/views/chart_panel.h"
@@ -137,6 +143,26 @@ const QString kSampleStudy = QStringLiteral(CALIVERA_SOURCE_DIR "/resources/samp
 const QString kSampleCohort = QStringLiteral(CALIVERA_SOURCE_DIR "/sample_data/local_cohort.csv");
 const QString kSampleModel =
     QStringLiteral(CALIVERA_SOURCE_DIR "/sample_data/published_model.json");
+
+// A chart's band holds the finite bootstrap bounds, in order: upper = ci.hi, lower = ci.lo.
+void compareBand(QAreaSeries* area, const std::vector<BandPoint>& band) {
+  QVERIFY(area != nullptr);
+  std::vector<BandPoint> finite;
+  for (const BandPoint& p : band) {
+    if (std::isfinite(p.ci.lo) && std::isfinite(p.ci.hi)) finite.push_back(p);
+  }
+  QVERIFY(!finite.empty());
+  const QList<QPointF> upper = area->upperSeries()->points();
+  const QList<QPointF> lower = area->lowerSeries()->points();
+  QCOMPARE(static_cast<std::size_t>(upper.size()), finite.size());
+  QCOMPARE(static_cast<std::size_t>(lower.size()), finite.size());
+  for (std::size_t i = 0; i < finite.size(); ++i) {
+    const auto k = static_cast<qsizetype>(i);
+    QCOMPARE(upper[k].x(), finite[i].x);
+    QCOMPARE(upper[k].y(), finite[i].ci.hi);
+    QCOMPARE(lower[k].y(), finite[i].ci.lo);
+  }
+}
 
 // Both bootstraps' intervals, replicate for replicate the same seed: bit-identical.
 void compareBootstrap(const ValidationBootstrap& a, const ValidationBootstrap& b) {
@@ -582,6 +608,23 @@ class MainWindowTest : public QObject {
     QVERIFY(
         summary.contains(QString("n ≥ %1").arg(ref.sampleSize.criteria[0].requiredN, 0, 'f', 0)));
 
+    // Bands on the linked views: core's percentile bounds, point for point.
+    auto* calibrationChart = dynamic_cast<charts::CalibrationChart*>(
+        child<ChartPanel>(w, "calibrationView")->linkedChart());
+    auto* decisionChart = dynamic_cast<charts::DecisionCurveChart*>(
+        child<ChartPanel>(w, "decisionCurveView")->linkedChart());
+    QVERIFY(calibrationChart->curveBand() != nullptr);
+    QVERIFY(decisionChart->netBenefitBand() != nullptr);
+    compareBand(calibrationChart->curveBand(), ref.bootstrap->calibrationCurve);
+    compareBand(decisionChart->netBenefitBand(), ref.bootstrap->netBenefit);
+    // Overlays: the further model on ROC, calibration and decision curve.
+    auto* rocChart =
+        dynamic_cast<charts::RocChart*>(child<ChartPanel>(w, "rocView")->linkedChart());
+    QCOMPARE(rocChart->comparisonCount(), std::size_t{1});
+    QCOMPARE(calibrationChart->comparisonCount(), std::size_t{1});
+    QCOMPARE(decisionChart->comparisonCount(), std::size_t{1});
+    QCOMPARE(u.comparedResults[1].discrimination.auc, ref.comparedResults[1].discrimination.auc);
+
     // Subgroup table: every level's values as core computed them.
     QCOMPARE(u.subgroups.size(), std::size_t{1});
     const SubgroupAnalysis& sites = ref.subgroups[0];
@@ -615,6 +658,8 @@ class MainWindowTest : public QObject {
     auto* cal = dynamic_cast<charts::CalibrationChart*>(view->chartPanel()->linkedChart());
     QVERIFY(cal != nullptr);
     QVERIFY(cal->title().contains(QString::fromStdString(sites.levels[1].level)));
+    QCOMPARE(cal->comparisonCount(), sites.levels.size() - 1);  // the other sites overlaid
+    compareBand(cal->curveBand(), sites.levels[1].bootstrap->calibrationCurve);
 
     // Comparison: the paired DeLong difference of core, and the AUC of each model.
     QVERIFY(ref.comparison && u.comparison);
@@ -661,6 +706,91 @@ class MainWindowTest : public QObject {
     const auto results = w.study().uncertainty;
     w.setThreshold(0.25);
     QCOMPARE(w.study().uncertainty, results);
+  }
+
+  // The menu action's dialog: subgroup columns offered from the cohort (not the outcome, not an
+  // identifier with thousands of values), a compared model added, the run started from Run.
+  void dialogStartsTheRun() {
+    if (!QFile::exists(kSampleStudy)) QSKIP("sample data not present");
+    MainWindow w;
+    w.show();
+    openSample(w);
+    QStringList offered;
+    QTimer::singleShot(0, &w, [&]() {
+      auto* dialog = w.findChild<UncertaintyDialog*>("uncertaintyDialog");
+      QVERIFY(dialog != nullptr);
+      auto* list = dialog->findChild<QListWidget*>("subgroupColumnList");
+      for (int i = 0; i < list->count(); ++i) offered << list->item(i)->text();
+      dialog->findChild<QSpinBox*>("bootstrapReplicatesSpin")->setValue(20);
+      dialog->findChild<QSpinBox*>("bootstrapSeedSpin")->setValue(3);
+      dialog->addCompareModel(secondModel());
+      dialog->setSubgroupChecked("urgency", true);
+      dialog->accept();
+    });
+    child<QAction>(w, "actionUncertainty")->trigger();
+    waitForJob(w);
+    QVERIFY(offered.contains("site"));
+    QVERIFY(offered.contains("sex"));
+    QVERIFY(!offered.contains("patient_ref"));
+    QVERIFY(!offered.contains("complication_30d"));
+    const UncertaintySettings& s = w.study().uncertaintySettings;
+    QCOMPARE(s.bootstrapReplicates, 20);
+    QCOMPARE(s.seed, std::uint64_t{3});
+    QCOMPARE(s.subgroupColumns, std::vector<std::string>{"urgency"});
+    QVERIFY(w.study().uncertainty && w.study().uncertainty->comparison);
+    QCOMPARE(w.study().uncertainty->subgroups[0].column, std::string("urgency"));
+  }
+
+  // A compared model with a column the study's model does not use, missing for some patients:
+  // the comparison runs on fewer patients and says so, on the tab and in the overlay's name.
+  void comparisonOnFewerPatientsIsNoted() {
+    const QString data = path("with_extra.csv");
+    {
+      QFile in(cohort_);
+      QVERIFY(in.open(QIODevice::ReadOnly));
+      QFile out(data);
+      QVERIFY(out.open(QIODevice::WriteOnly));
+      const QList<QByteArray> lines = in.readAll().split('\n');
+      for (int i = 0; i < lines.size(); ++i) {
+        if (lines[i].isEmpty()) continue;
+        out.write(lines[i] + (i == 0 ? ",extra\n" : (i % 10 == 0 ? ",NA\n" : ",1.5\n")));
+      }
+    }
+    Model other = demoModel();
+    other.name = "With extra";
+    Term extra;
+    extra.name = "extra";
+    extra.variable = "extra";
+    extra.estimate.coefficient = 0.1;
+    other.terms.push_back(extra);
+    const QString otherPath = path("with_extra_model.json");
+    writeModelFile(otherPath.toStdString(), other);
+    StudyState s = readStudyFile(study_.toStdString());
+    s.data = InputFileRecord{data.toStdString(), sha256OfFileForTest(data)};
+    const QString saved = path("with_extra.cvstudy");
+    writeStudyFile(saved.toStdString(), s);
+
+    MainWindow w;
+    w.show();
+    QVERIFY(w.openStudy(saved));
+    waitForJob(w);
+    QVERIFY(w.study().result != nullptr);
+    UncertaintySettings settings;
+    settings.compareModels = {InputFileRecord{otherPath.toStdString(), {}}};
+    QVERIFY(w.runUncertainty(settings));
+    waitForJob(w);
+    const UncertaintyResults& u = *w.study().uncertainty;
+    QVERIFY(u.comparisonRows < w.study().result->cohort.n);
+    const QString note = text(w, "comparisonNote");
+    QVERIFY2(note.contains("fewer than the validation"), qPrintable(note));
+    QVERIFY(note.contains(QString("Compared on %1 patients").arg(u.comparisonRows)));
+    QVERIFY(note.contains("no intervals"));  // no bootstrap asked for
+    auto* roc = dynamic_cast<charts::RocChart*>(child<ChartPanel>(w, "rocView")->linkedChart());
+    bool named = false;
+    for (QAbstractSeries* series : roc->series()) {
+      named = named || series->name().contains(QString("(on %1 patients)").arg(u.comparisonRows));
+    }
+    QVERIFY(named);
   }
 
   void sameSeedGivesIdenticalIntervals() {
@@ -839,8 +969,15 @@ class MainWindowTest : public QObject {
     tabs->setCurrentWidget(child<QWidget>(w, "subgroupView"));
     save(&w, "subgroups_tab");
     tabs->setCurrentIndex(1);
-    child<QTextBrowser>(w, "summaryPanel")->verticalScrollBar()->setValue(0);
-    save(&w, "summary_sample_size");
+    auto* summary = child<QTextBrowser>(w, "summaryPanel");
+    summary->moveCursor(QTextCursor::End);
+    QVERIFY(summary->find("Bootstrap:", QTextDocument::FindBackward));
+    QTextCursor cursor = summary->textCursor();
+    cursor.clearSelection();
+    summary->setTextCursor(cursor);
+    summary->verticalScrollBar()->setValue(summary->verticalScrollBar()->value() +
+                                           summary->viewport()->height() / 2 - 30);
+    save(&w, "summary_intervals");
   }
 };
 

@@ -8,6 +8,7 @@
 #include <random>
 
 #include "core/util/errors.h"
+#include "ui/charts/chart_text.h"
 #include "ui/models/record_table_model.h"
 #include "ui/models/result_tables.h"
 #include "ui/models/table_export.h"
@@ -59,6 +60,13 @@ class UiLogicTest : public QObject {
     // Treating everyone is the model that flags everyone: its NB equals treat-all.
     const ThresholdSnapshot s = snapshotFromCounts(0.10, everyoneFlagged);
     QCOMPARE(s.netBenefit, s.netBenefitTreatAll);
+  }
+
+  void roundedNegativeZeroHasNoSign() {
+    QCOMPARE(fixed(-0.00001, 4), QString("0.0000"));
+    QCOMPARE(fixed(-0.4, 0), QString("0"));
+    QCOMPARE(fixed(-0.00005, 4), QString("-0.0001"));
+    QCOMPARE(fixed(-12.5, 1), QString("-12.5"));
   }
 
   void undefinedProportionsAreNaN() {

@@ -1,7 +1,8 @@
 // Benchmark of the workstation (figures printed, not a test): time to open the sample study and
 // show every view, and the cost of a threshold move at 1,000,000 simulated patients — the update of
 // every linked view (markers, confusion and natural-frequency panel, table highlight, predictor
-// view), and the same plus a full repaint of the linked-views page. Run offscreen:
+// view), and the same plus a full repaint of the linked-views page; the uncertainty run (bootstrap
+// and subgroups) on the sample study and a threshold move with its results shown. Run offscreen:
 //   QT_QPA_PLATFORM=offscreen build/bin/calivera_bench_workstation [patients]
 #include <QApplication>
 #include <QElapsedTimer>
@@ -95,6 +96,28 @@ int main(int argc, char** argv) {
                 static_cast<double>(t.nsecsElapsed()) / 1e6,
                 w.study().result ? w.study().result->cohort.n : 0,
                 w.study().result ? "" : " FAILED");
+    UncertaintySettings u;
+    u.bootstrapReplicates = 200;
+    u.subgroupColumns = {"site"};
+    t.restart();
+    w.runUncertainty(u);
+    waitFor(w);
+    const bool ok = w.study().uncertainty && w.study().uncertainty->bootstrap;
+    std::printf(
+        "bootstrap (200 resamples, all cores) and subgroups by site on the sample study, shown: "
+        "%.0f ms%s\n",
+        static_cast<double>(t.nsecsElapsed()) / 1e6,
+        ok ? "" : qPrintable(" FAILED: " + w.messageText()));
+    std::vector<double> update;
+    for (int i = 0; i < 100; ++i) {
+      w.setThreshold(0.02 + 0.9 * i / 99.0);
+      update.push_back(w.lastThresholdUpdateMs());
+    }
+    const Stats s = stats(update);
+    std::printf(
+        "threshold move on the sample study with bands, overlays and subgroups shown: mean %.2f "
+        "ms, max %.2f ms\n",
+        s.mean, s.max);
   }
 
   QTemporaryDir dir;

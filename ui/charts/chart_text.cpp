@@ -1,5 +1,6 @@
 #include "ui/charts/chart_text.h"
 
+#include <algorithm>
 #include <cmath>
 
 namespace calivera::ui {
@@ -7,7 +8,13 @@ namespace calivera::ui {
 QString fixed(double value, int decimals) {
   if (std::isnan(value)) return QStringLiteral("not defined");
   if (std::isinf(value)) return value > 0 ? QStringLiteral("∞") : QStringLiteral("−∞");
-  return QString::number(value, 'f', decimals);
+  QString text = QString::number(value, 'f', decimals);
+  // A tiny negative number rounds to "-0.000", which reads as a sign that means something.
+  if (text.startsWith(QLatin1Char('-')) &&
+      std::all_of(text.begin() + 1, text.end(), [](QChar c) { return c == '0' || c == '.'; })) {
+    text.remove(0, 1);
+  }
+  return text;
 }
 
 QString withInterval(double value, double lo, double hi, int decimals) {

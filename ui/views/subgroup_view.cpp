@@ -9,6 +9,7 @@
 #include <QVBoxLayout>
 
 #include "ui/charts/calibration_chart.h"
+#include "ui/charts/overlay_series.h"
 #include "ui/models/record_table_model.h"
 #include "ui/models/uncertainty_tables.h"
 #include "ui/views/chart_panel.h"
@@ -124,6 +125,15 @@ void SubgroupView::showLevel(int level) {
   chart->setTitle(
       QStringLiteral("%1 = %2: %3")
           .arg(QString::fromStdString(a->column), QString::fromStdString(r.level), chart->title()));
+  if (r.bootstrap) chart->setCurveBand(r.bootstrap->calibrationCurve);
+  // The other levels' smoothed curves, for comparison (each its own colour and dash pattern).
+  std::size_t overlays = 0;
+  for (std::size_t i = 0; i < a->levels.size() && overlays < charts::kComparisonStyles; ++i) {
+    const SubgroupResult& other = a->levels[i];
+    if (static_cast<int>(i) == level || !other.metrics) continue;
+    chart->addComparison(QString::fromStdString(other.level), other.metrics->calibration);
+    ++overlays;
+  }
   chart_->setLinkedChart(chart);
   if (snapshot_) chart->setThreshold(*snapshot_);
   const QModelIndex index = proxy_->mapFromSource(model_->index(level, 0));

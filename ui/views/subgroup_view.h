@@ -2,7 +2,8 @@
 // The Subgroups tab: performance per level of each subgroup column the user chose
 // (core/uncertainty/subgroups.h): a table per column (n, events, prevalence, AUC, calibration
 // intercept and slope with CIs, O/E, ICI, warnings when a level is too small to judge) and the
-// calibration chart of the selected level, with the other levels' smoothed curves overlaid.
+// calibration chart of the selected level (its bootstrap band when there is one), with the other
+// levels' smoothed curves overlaid (at most charts::kComparisonStyles of them).
 
 #include <QWidget>
 #include <memory>

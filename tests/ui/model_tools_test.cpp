@@ -1,0 +1,192 @@
+// The Model menu's tools on birthwt (r-cran-mass, tests/reference/data/birthwt.csv) with a model
+// fitted there by core: the internal-validation dialog shows exactly core's optimism correction
+// for the same seed and keeps its result on Cancel; the update dialog shows core's closed test
+// and saves the chosen update, and logistic recalibration re-validated on the same patients
+// gives calibration slope 1 and intercept 0.
+#include <QAction>
+#include <QCheckBox>
+#include <QLabel>
+#include <QSpinBox>
+#include <QTableView>
+#include <QTemporaryDir>
+#include <QtTest>
+
+#include "core/fit/cohort_fit.h"
+#include "core/metrics/validation_run.h"
+#include "core/model/model_io.h"
+#include "core/uncertainty/internal_validation.h"
+#include "ui/async/background_job.h"
+#include "ui/charts/chart_text.h"
+#include "ui/dialogs/internal_validation_dialog.h"
+#include "ui/dialogs/model_update_dialog.h"
+#include "ui/main_window.h"
+
+using namespace calivera;
+using namespace calivera::ui;
+
+namespace {
+
+const QString kBirthwt = QStringLiteral(CALIVERA_SOURCE_DIR "/tests/reference/data/birthwt.csv");
+
+template <class T>
+T* child(QObject& root, const char* name) {
+  T* found = root.findChild<T*>(QString::fromLatin1(name));
+  if (found == nullptr) qFatal("no child named %s", name);
+  return found;
+}
+
+QString cell(QObject& root, const char* table, int row, int column) {
+  return child<QTableView>(root, table)->model()->index(row, column).data().toString();
+}
+
+ValidationRun validateOnBirthwt(const QString& modelPath) {
+  ValidationRequest request;
+  request.dataPath = kBirthwt.toStdString();
+  request.outcome = OutcomeSpec{"low", std::nullopt};
+  request.modelPath = modelPath.toStdString();
+  return runValidation(request);
+}
+
+UpdateData dataOf(const MainWindow& w) {
+  UpdateData data;
+  data.table = w.cohort()->table.get();
+  data.rows = w.cohort()->rows;
+  data.outcome = w.cohort()->outcome();
+  data.dataSha256 = w.study().data->sha256;
+  data.dataName = "birthwt.csv";
+  return data;
+}
+
+}  // namespace
+
+class ModelToolsTest : public QObject {
+  Q_OBJECT
+
+ private slots:
+  void initTestCase() {
+    QVERIFY(dir_.isValid());
+    const Table table = readCsvFile(kBirthwt.toStdString(), CsvOptions{}).table;
+    CohortFitSpec spec;
+    spec.outcome = OutcomeSpec{"low", std::nullopt};
+    spec.predictors = {"age", "lwt", "race", "smoke", "ptl", "ht", "ui"};
+    spec.modelName = "birthwt model";
+    modelPath_ = dir_.filePath("fitted.json");
+    writeModelFile(modelPath_.toStdString(), fitCohortModel(table, spec).model);
+    ImportSettings import;
+    import.outcomeColumn = "low";
+    QVERIFY(window_.openInputs(kBirthwt, modelPath_, import));
+    QTRY_VERIFY_WITH_TIMEOUT(!window_.job()->isRunning(), 60000);
+    QVERIFY(window_.study().result != nullptr);
+    QVERIFY(window_.findChild<QAction*>("actionInternalValidation")->isEnabled());
+    QVERIFY(window_.findChild<QAction*>("actionUpdateModel")->isEnabled());
+  }
+
+  void internalValidationShowsCoresOptimismCorrection() {
+    InternalValidationDialog dialog(*window_.study().model, window_.cohort(),
+                                    *window_.study().data);
+    child<QSpinBox>(dialog, "internalReplicates")->setValue(60);
+    child<QSpinBox>(dialog, "internalSeed")->setValue(17);
+    child<QCheckBox>(dialog, "internalIncludeIci")->setChecked(false);
+    dialog.startRun();
+    dialog.job()->waitForFinished();
+    QVERIFY(dialog.result() != nullptr);
+
+    OptimismOptions options;
+    options.bootstrap.replicates = 60;
+    options.bootstrap.seed = 17;
+    options.includeIci = false;
+    const InternalValidation core =
+        internalValidation(*window_.study().model, dataOf(window_), options);
+    const auto& measures = core.optimism.measures;
+    QCOMPARE(child<QTableView>(dialog, "internalTable")->model()->rowCount(),
+             static_cast<int>(measures.size()));
+    for (std::size_t i = 0; i < measures.size(); ++i) {
+      const int row = static_cast<int>(i);
+      QCOMPARE(cell(dialog, "internalTable", row, 0), QString::fromStdString(measures[i].measure));
+      QCOMPARE(cell(dialog, "internalTable", row, 1), fixed(measures[i].apparent, 4));
+      QCOMPARE(cell(dialog, "internalTable", row, 3), fixed(measures[i].corrected, 4));
+    }
+    // A model fitted on 189 patients with 9 coefficients is optimistic: the corrected AUC is
+    // below the apparent one and the shrinkage factor below 1.
+    QVERIFY(measures[0].corrected < measures[0].apparent);
+    QVERIFY(core.optimism.shrinkageFactor < 1.0);
+    QCOMPARE(dialog.result()->optimism.shrinkageFactor, core.optimism.shrinkageFactor);
+
+    // The shrunk model is written in the background and its mean risk equals the event rate.
+    QSignalSpy saved(&dialog, &InternalValidationDialog::modelSaved);
+    const QString shrunkPath = dir_.filePath("shrunk.json");
+    QVERIFY(dialog.startSaveShrunkModel(shrunkPath));
+    dialog.job()->waitForFinished();
+    QCOMPARE(saved.count(), 1);
+    const ValidationRun run = validateOnBirthwt(shrunkPath);
+    QVERIFY(std::abs(run.result.calibration.oeRatio - 1.0) < 1e-6);
+
+    // Cancel keeps the result already shown.
+    const double before = dialog.result()->optimism.shrinkageFactor;
+    child<QSpinBox>(dialog, "internalReplicates")->setValue(100000);
+    dialog.startRun();
+    dialog.job()->cancel();
+    dialog.job()->waitForFinished();
+    QVERIFY(dialog.result() != nullptr);
+    QCOMPARE(dialog.result()->optimism.shrinkageFactor, before);
+    QVERIFY(child<QLabel>(dialog, "internalStatus")->text().contains("Cancelled"));
+  }
+
+  void updateDialogShowsTheClosedTestAndSavesTheChosenUpdate() {
+    ModelUpdateDialog dialog(*window_.study().model, window_.cohort(), *window_.study().data);
+    dialog.startRun();
+    dialog.job()->waitForFinished();
+    QVERIFY(dialog.result() != nullptr);
+    const ClosedTestResult core =
+        closedTest(*window_.study().model, dataOf(window_), 0.05, UpdateOptions{});
+    QCOMPARE(child<QTableView>(dialog, "updateClosedTestTable")->model()->rowCount(),
+             static_cast<int>(core.steps.size()));
+    for (std::size_t i = 0; i < core.steps.size(); ++i) {
+      QCOMPARE(cell(dialog, "updateClosedTestTable", static_cast<int>(i), 1),
+               fixed(core.steps[i].lrStatistic, 3));
+    }
+    QCOMPARE(dialog.result()->closed.suggested, core.suggested);
+    // The model was fitted on these patients: no update is needed.
+    QCOMPARE(core.suggested, UpdateMethod::None);
+
+    dialog.chooseMethod(UpdateMethod::Recalibrate);
+    const QString path = dir_.filePath("recalibrated.json");
+    QCOMPARE(dialog.saveChosenModel(path, false), QString());
+    const Model updated = readModelFile(path.toStdString());
+    QVERIFY(updated.provenance && updated.provenance->find("updated from") != std::string::npos);
+    const ValidationRun run = validateOnBirthwt(path);
+    QVERIFY(std::abs(run.result.calibration.slope - 1.0) < 1e-6);
+    QVERIFY(std::abs(run.result.calibration.intercept) < 1e-6);
+    // A file that cannot be written gives the reason and no signal.
+    QSignalSpy saved(&dialog, &ModelUpdateDialog::modelSaved);
+    QVERIFY(!dialog.saveChosenModel(dir_.filePath("no/such/folder/m.json"), false).isEmpty());
+    QCOMPARE(saved.count(), 0);
+  }
+
+  // With CALIVERA_SCREENSHOT_DIR set: both dialogs after a run, as PNG (docs/screenshots).
+  void screenshots() {
+    const QByteArray folder = qgetenv("CALIVERA_SCREENSHOT_DIR");
+    if (folder.isEmpty()) QSKIP("CALIVERA_SCREENSHOT_DIR not set");
+    InternalValidationDialog internal(*window_.study().model, window_.cohort(),
+                                      *window_.study().data);
+    internal.startRun();
+    internal.job()->waitForFinished();
+    internal.show();
+    QVERIFY(QTest::qWaitForWindowExposed(&internal));
+    QVERIFY(internal.grab().save(QString::fromUtf8(folder) + "/internal_validation_dialog.png"));
+    ModelUpdateDialog update(*window_.study().model, window_.cohort(), *window_.study().data);
+    update.startRun();
+    update.job()->waitForFinished();
+    update.show();
+    QVERIFY(QTest::qWaitForWindowExposed(&update));
+    QVERIFY(update.grab().save(QString::fromUtf8(folder) + "/model_update_dialog.png"));
+  }
+
+ private:
+  QTemporaryDir dir_;
+  QString modelPath_;
+  MainWindow window_;
+};
+
+QTEST_MAIN(ModelToolsTest)
+#include "model_tools_test.moc"
