@@ -161,8 +161,7 @@ void CalibrationChart::setCurveBand(const std::vector<BandPoint>& band) {
     delete band_;
   }
   bandPoints_ = band;
-  band_ = makeBandArea(band, QStringLiteral("Bootstrap 95% band"), roleColor(SeriesRole::Model),
-                       PlotWindow{axisMax_, 0.0, axisMax_});
+  band_ = makeBandArea(band, QStringLiteral("Bootstrap 95% band"), roleColor(SeriesRole::Model));
   addOnAxesOf(this, band_, marker_);
 }
 

@@ -142,7 +142,6 @@ void DecisionCurveChart::drawCurves() {
   }
   treatAll_->replace(allPts);
   model_->replace(modelPts);
-  if (band_ != nullptr) setBandPoints(band_, bandPoints_, PlotWindow{xMax_, yMin_, yMax_});
   for (Comparison& c : comparisons_) {
     QList<QPointF> pts;
     for (const auto& p : c.curve)
@@ -169,8 +168,7 @@ void DecisionCurveChart::setNetBenefitBand(const std::vector<BandPoint>& band) {
     delete band_;
   }
   bandPoints_ = band;
-  band_ = makeBandArea(band, QStringLiteral("Bootstrap 95% band"), roleColor(SeriesRole::Model),
-                       PlotWindow{xMax_, yMin_, yMax_});
+  band_ = makeBandArea(band, QStringLiteral("Bootstrap 95% band"), roleColor(SeriesRole::Model));
   addOnAxesOf(this, band_, model_);
   double lo = yMin_, hi = yMax_;
   for (const BandPoint& p : band) {

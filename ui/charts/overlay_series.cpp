@@ -33,26 +33,21 @@ QPen comparisonPen(std::size_t index) {
   return pen;
 }
 
-void setBandPoints(QAreaSeries* area, const std::vector<BandPoint>& band,
-                   const PlotWindow& window) {
-  QList<QPointF> top, bottom;
-  for (const BandPoint& p : band) {
-    if (!std::isfinite(p.ci.lo) || !std::isfinite(p.ci.hi) || p.x > window.xMax) continue;
-    top.append(QPointF(p.x, std::clamp(p.ci.hi, window.yMin, window.yMax)));
-    bottom.append(QPointF(p.x, std::clamp(p.ci.lo, window.yMin, window.yMax)));
-  }
-  area->upperSeries()->replace(top);
-  area->lowerSeries()->replace(bottom);
-}
-
 QAreaSeries* makeBandArea(const std::vector<BandPoint>& band, const QString& name,
-                          const QColor& color, const PlotWindow& window) {
+                          const QColor& color) {
   auto* upper = new QLineSeries;
   auto* lower = new QLineSeries;
+  QList<QPointF> top, bottom;
+  for (const BandPoint& p : band) {
+    if (!std::isfinite(p.ci.lo) || !std::isfinite(p.ci.hi)) continue;
+    top.append(QPointF(p.x, p.ci.hi));
+    bottom.append(QPointF(p.x, p.ci.lo));
+  }
+  upper->replace(top);
+  lower->replace(bottom);
   auto* area = new QAreaSeries(upper, lower);
   upper->setParent(area);  // the area does not own its boundary lines
   lower->setParent(area);
-  setBandPoints(area, band, window);
   area->setName(name);
   QColor fill = color;
   fill.setAlpha(55);
@@ -62,6 +57,17 @@ QAreaSeries* makeBandArea(const std::vector<BandPoint>& band, const QString& nam
   border.setWidthF(0.6);
   area->setPen(border);
   return area;
+}
+
+std::vector<BandPoint> clampedBand(const std::vector<BandPoint>& band, const PlotWindow& window) {
+  std::vector<BandPoint> out;
+  for (BandPoint p : band) {
+    if (p.x > window.xMax) continue;
+    p.ci.lo = std::clamp(p.ci.lo, window.yMin, window.yMax);  // NaN stays NaN
+    p.ci.hi = std::clamp(p.ci.hi, window.yMin, window.yMax);
+    out.push_back(p);
+  }
+  return out;
 }
 
 void addOnAxesOf(QChart* chart, QAbstractSeries* series, QAbstractSeries* reference) {

@@ -24,20 +24,19 @@ namespace calivera::ui::charts {
 inline constexpr std::size_t kComparisonStyles = 5;
 QPen comparisonPen(std::size_t index);
 
-// The plotted window a band or overlay is drawn inside. Values are clamped to it (and points
-// beyond xMax left out) because the vector output (SVG, PDF) does not clip series to the plot.
+// A shaded band: upper line at ci.hi, lower line at ci.lo, one point per BandPoint whose interval
+// is finite (a grid point no replicate covered is left out), in the given order, values as given.
+QAreaSeries* makeBandArea(const std::vector<BandPoint>& band, const QString& name,
+                          const QColor& color);
+
+// A plotted window, for output that does not clip series to the plot (QSvgGenerator, hence the
+// PDF report): clampedBand() keeps a band inside it. On screen the view clips by itself.
 struct PlotWindow {
   double xMax = 1.0;
   double yMin = 0.0, yMax = 1.0;
 };
-
-// A shaded band: upper line at ci.hi, lower line at ci.lo, one point per BandPoint whose interval
-// is finite (a grid point no replicate covered is left out), in the given order, clamped to
-// `window`.
-QAreaSeries* makeBandArea(const std::vector<BandPoint>& band, const QString& name,
-                          const QColor& color, const PlotWindow& window);
-// Redraws an area made by makeBandArea for a new window.
-void setBandPoints(QAreaSeries* area, const std::vector<BandPoint>& band, const PlotWindow& window);
+// The band with its bounds clamped to [yMin, yMax] and points beyond xMax left out.
+std::vector<BandPoint> clampedBand(const std::vector<BandPoint>& band, const PlotWindow& window);
 
 // Adds `series` to the chart on the axes `reference` is attached to.
 void addOnAxesOf(QChart* chart, QAbstractSeries* series, QAbstractSeries* reference);

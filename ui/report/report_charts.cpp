@@ -10,6 +10,7 @@
 #include <memory>
 
 #include "ui/charts/charts.h"
+#include "ui/charts/overlay_series.h"
 
 namespace calivera::ui::report {
 namespace {
@@ -82,7 +83,11 @@ RecordedCharts recordReportCharts(const AuditDocument& doc) {
   }
   {
     charts::CalibrationChart chart(r.calibration, r.distribution);
-    if (!doc.calibrationBand.empty()) chart.setCurveBand(doc.calibrationBand);
+    // SVG output does not clip series to the plot: the report's bands are clamped to it.
+    const double top = chart.axisMax();
+    if (!doc.calibrationBand.empty()) {
+      chart.setCurveBand(charts::clampedBand(doc.calibrationBand, {top, 0.0, top}));
+    }
     for (const auto& overlay : doc.comparisons) {
       chart.addComparison(QString::fromStdString(overlay.name), overlay.chartData.calibration);
     }
@@ -96,7 +101,11 @@ RecordedCharts recordReportCharts(const AuditDocument& doc) {
     } else {
       chart.clearReasonableRange();
     }
-    if (!doc.netBenefitBand.empty()) chart.setNetBenefitBand(doc.netBenefitBand);
+    if (!doc.netBenefitBand.empty()) {
+      chart.setNetBenefitBand(doc.netBenefitBand);  // sets the axis range, then clamped into it
+      chart.setNetBenefitBand(
+          charts::clampedBand(doc.netBenefitBand, {1.0, chart.yMin(), chart.yMax()}));
+    }
     for (const auto& overlay : doc.comparisons) {
       chart.addComparison(QString::fromStdString(overlay.name), overlay.chartData.decisionCurve);
     }
