@@ -652,6 +652,20 @@ class MainWindowTest : public QObject {
       QCOMPARE(u.subgroups[0].levels[static_cast<std::size_t>(r)].metrics->discrimination.auc,
                m.discrimination.auc);
     }
+    // Sortable (numbers as numbers) and exportable like the other result tables.
+    table->sortByColumn(aucCol, Qt::AscendingOrder);
+    for (int r = 1; r < table->model()->rowCount(); ++r) {
+      QVERIFY(cellText(table, r - 1, aucCol).toDouble() <= cellText(table, r, aucCol).toDouble());
+    }
+    const QString csv = path("subgroups.csv");
+    QCOMPARE(writeTableCsv(*table->model(), csv), QString());
+    QFile csvFile(csv);
+    QVERIFY(csvFile.open(QIODevice::ReadOnly));
+    const QList<QByteArray> csvLines = csvFile.readAll().split('\n');
+    QVERIFY(csvLines.first().startsWith("Level,Patients,Events,Prevalence,AUC"));
+    QCOMPARE(csvLines.size() - 2, static_cast<int>(sites.levels.size()));
+    table->sortByColumn(-1, Qt::AscendingOrder);  // back to level order for the checks below
+
     // The chart shows the selected level's calibration.
     auto* view = child<SubgroupView>(w, "subgroupView");
     view->showLevel(1);

@@ -12,6 +12,7 @@
 #include "ui/models/record_table_model.h"
 #include "ui/models/result_tables.h"
 #include "ui/models/table_export.h"
+#include "ui/models/uncertainty_tables.h"
 #include "ui/state/predictor_space.h"
 #include "ui/state/readings.h"
 #include "ui/state/study_file.h"
@@ -186,6 +187,30 @@ class UiLogicTest : public QObject {
     } catch (const InputError& e) {
       QVERIFY2(QString(e.what()).contains("b.cvstudy: field 'uncertainty.bootstrap'"), e.what());
     }
+  }
+
+  // A level without metrics (one outcome class) keeps its counts, shows "not defined" for every
+  // measure and says why; bootstrap columns appear only when some level has a bootstrap.
+  void subgroupTableShowsLevelsWithoutMetrics() {
+    SubgroupAnalysis a;
+    a.column = "site";
+    SubgroupResult level;
+    level.level = "North";
+    level.n = 12;
+    level.events = 0;
+    level.tooSmall = true;
+    level.warnings = {"no metrics: one outcome class"};
+    a.levels.push_back(level);
+    RecordTableModel model;
+    fillSubgroupTable(model, a);
+    QCOMPARE(model.rowCount(), 1);
+    QCOMPARE(model.columnCount(), 15);
+    QCOMPARE(model.cell(0, 0).text, QString("North"));
+    QCOMPARE(model.cell(0, 1).text, QString("12"));
+    QCOMPARE(model.cell(0, 3).text, QString("0.0000"));
+    QCOMPARE(model.cell(0, 4).text, QString("not defined"));
+    QCOMPARE(model.cell(0, 13).text, QString("too small to judge"));
+    QCOMPARE(model.cell(0, 14).text, QString("no metrics: one outcome class"));
   }
 
   void studyFileErrorsNameTheField() {
