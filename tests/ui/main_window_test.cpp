@@ -45,6 +45,7 @@
 #include "ui/charts/roc_chart.h"
 #include "ui/dialogs/uncertainty_dialog.h"
 #include "ui/models/table_export.h"
+#include "ui/report/report_export_dialog.h"
 #include "ui/state/study_file.h"
 #include "ui/views/chart_panel.h"
 #include "ui/views/predictor_view.h"
@@ -715,6 +716,15 @@ class MainWindowTest : public QObject {
     // The compared model's SHA-256 is recorded in the settings.
     QCOMPARE(w.study().uncertaintySettings.compareModels[0].sha256,
              sha256OfFileForTest(secondModel()));
+
+    // The report exported from the workstation carries the same uncertainty results.
+    ReportExportRequest reportRequest;
+    reportRequest.thresholds = {0.1, 0.2};
+    const AuditReportInput reportInput = auditInputFromStudy(w.study(), reportRequest);
+    QVERIFY(reportInput.uncertainty && reportInput.uncertainty->bootstrap);
+    compareBootstrap(*reportInput.uncertainty->bootstrap, *ref.bootstrap);
+    QCOMPARE(reportInput.uncertainty->subgroups.size(), std::size_t{1});
+    QCOMPARE(reportInput.uncertainty->comparison->pairs[0].auc.difference, t.difference);
 
     // Moving the threshold recomputes nothing.
     const auto results = w.study().uncertainty;

@@ -62,6 +62,9 @@ AuditReportInput auditInputFromStudy(const StudyState& study, const ReportExport
         "Model fitted with", study.fit.firth ? "Firth penalized likelihood" : "maximum likelihood");
   }
   input.result = *study.result;
+  // The study's sample-size assessment, bootstrap intervals, comparison and subgroups (kept in
+  // step with the result: a new cohort or model clears them).
+  if (study.uncertainty) input.uncertainty = *study.uncertainty;
   return input;
 }
 
