@@ -12,6 +12,7 @@
 #include "app/cli/validate_uncertainty.h"
 #include "core/metrics/validation_run.h"
 #include "core/report/audit_run.h"
+#include "core/report/uncertainty_tables.h"
 #include "core/report/validation_json.h"
 #include "core/report/validation_summary.h"
 #include "core/report/validation_tables.h"
@@ -39,7 +40,8 @@ constexpr const char* kHelp =
     "  --thresholds T       FROM:TO:STEP or a list T1,T2,... strictly inside (0, 1)\n"
     "                       (0.01:0.99:0.01); a patient is flagged when risk >= threshold\n"
     "  --json FILE          write the full report as JSON instead of the summary on stdout\n"
-    "  --csv-dir DIR        also write every table as CSV into DIR\n"
+    "  --csv-dir DIR        also write every table as CSV into DIR (with the sample-size,\n"
+    "                       bootstrap, comparison and subgroup tables when computed)\n"
     "  --pdf FILE           also write the audit report as PDF (aggregates only; with\n"
     "                       SOURCE_DATE_EPOCH set, byte-identical for the same inputs)\n"
     "  --title TEXT         the report's title\n"
@@ -148,7 +150,7 @@ int validateBody(const std::vector<std::string>& words) {
                                     paper)
                               : std::string();
 #endif
-  if (const auto dir = arguments.value("--csv-dir")) writeValidationTables(*dir, run);
+  if (const auto dir = arguments.value("--csv-dir")) writeValidationTables(*dir, run, uncertainty);
 #ifdef CALIVERA_HAVE_UI
   if (pdfPath) writeFileAtomically(*pdfPath, pdf);
 #endif

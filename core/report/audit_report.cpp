@@ -467,6 +467,14 @@ void addAbout(const AuditReportInput& input, const AuditDocument& doc, const Dis
         std::to_string(plan.below()) +
         " are left out of the charts, and risk-distribution bins "
         "with hidden counts are drawn empty.";
+    if (input.uncertainty) {
+      text +=
+          " The same rule covers the subgroup counts (a subgroup with a hidden count has its "
+          "measures withheld) and the number of patients the model comparison rests on; a "
+          "net-benefit difference at a threshold where a model's confusion counts include a "
+          "count below " +
+          std::to_string(plan.below()) + " is withheld, and the charts leave those points out.";
+    }
     if (!doc.suppressionApplied) text += " No count in this report needed to be hidden.";
     blocks.push_back(reportParagraph(text));
   } else {

@@ -346,9 +346,8 @@ std::vector<std::string> uncertaintyWarnings(const UncertaintyResults& results,
                                              const DisclosurePlan& plan) {
   std::vector<std::string> warnings;
   if (results.bootstrap) {
-    for (const std::string& w : results.bootstrap->warnings) {
-      warnings.push_back("Bootstrap: " + suppressedText(w, plan));
-    }
+    // Counts of replicates and band points, not of patients: nothing to suppress.
+    for (const std::string& w : results.bootstrap->warnings) warnings.push_back("Bootstrap: " + w);
   }
   if (results.comparison) {
     for (const std::string& w : results.comparison->warnings) {

@@ -4,56 +4,12 @@
 #include <filesystem>
 #include <sstream>
 
+#include "core/report/csv_text.h"
 #include "core/util/atomic_file.h"
 #include "core/util/errors.h"
 
 namespace calivera {
 namespace {
-
-// One CSV being built: fields separated by commas, text fields quoted when needed.
-class CsvText {
- public:
-  explicit CsvText(const std::vector<std::string>& header) {
-    out_.precision(10);
-    for (const std::string& h : header) field(h);
-    end();
-  }
-  CsvText& num(double value) {
-    separate();
-    if (std::isfinite(value)) out_ << value;
-    return *this;
-  }
-  CsvText& count(std::size_t value) {
-    separate();
-    out_ << value;
-    return *this;
-  }
-  CsvText& field(const std::string& text) {
-    separate();
-    if (text.find_first_of(",\"\n\r") == std::string::npos) {
-      out_ << text;
-    } else {
-      out_ << '"';
-      for (const char c : text) out_ << (c == '"' ? "\"\"" : std::string(1, c));
-      out_ << '"';
-    }
-    return *this;
-  }
-  CsvText& ci(const Interval& i) { return num(i.lo).num(i.hi); }
-  void end() {
-    out_ << '\n';
-    first_ = true;
-  }
-  std::string str() const { return out_.str(); }
-
- private:
-  void separate() {
-    if (!first_) out_ << ',';
-    first_ = false;
-  }
-  std::ostringstream out_;
-  bool first_ = true;
-};
 
 std::string thresholdsCsv(const std::vector<ThresholdRow>& rows) {
   CsvText csv({"threshold",
@@ -192,12 +148,12 @@ std::vector<std::pair<std::string, std::string>> validationTables(const Validati
           {"warnings.csv", warningsCsv(run)}};
 }
 
-void writeValidationTables(const std::string& directory, const ValidationRun& run) {
+void writeTables(const std::string& directory,
+                 const std::vector<std::pair<std::string, std::string>>& tables) {
   namespace fs = std::filesystem;
   std::error_code error;
   fs::create_directories(directory, error);
   if (error) throw InputError(directory + ": cannot create folder (" + error.message() + ")");
-  const auto tables = validationTables(run);
   std::vector<fs::path> written;
   try {
     for (const auto& [name, text] : tables) {
@@ -209,6 +165,10 @@ void writeValidationTables(const std::string& directory, const ValidationRun& ru
     for (const fs::path& path : written) fs::remove(path, error);
     throw;
   }
+}
+
+void writeValidationTables(const std::string& directory, const ValidationRun& run) {
+  writeTables(directory, validationTables(run));
 }
 
 }  // namespace calivera

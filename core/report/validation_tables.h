@@ -20,4 +20,8 @@ std::vector<std::pair<std::string, std::string>> validationTables(const Validati
 // call already wrote are removed again and the error propagates (InputError naming the path).
 void writeValidationTables(const std::string& directory, const ValidationRun& run);
 
+// The same for any list of (file name, CSV text).
+void writeTables(const std::string& directory,
+                 const std::vector<std::pair<std::string, std::string>>& tables);
+
 }  // namespace calivera

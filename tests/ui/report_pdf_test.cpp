@@ -2,7 +2,8 @@
 // date rewrite, paper sizes, atomic writing, table continuation and the caution on every page.
 // The document comes from simulated data: these tests check properties of the rendering, never a
 // statistic (the reference checks of the numbers run the command line on open datasets, in
-// tests/reference/audit_report_test.cpp).
+// tests/reference/audit_report_test.cpp). The uncertainty layout test runs core on birthwt
+// (Debian r-cran-mass) for a realistic document and checks only what is drawn and printed.
 #include <QApplication>
 #include <QDir>
 #include <QFile>
@@ -13,7 +14,9 @@
 #include <cmath>
 #include <random>
 
+#include "core/report/audit_run.h"
 #include "core/util/errors.h"
+#include "tests/unit/birthwt_run.h"
 #include "ui/report/audit_pdf_writer.h"
 #include "ui/report/report_charts.h"
 #include "ui/report/report_export_dialog.h"
@@ -230,6 +233,64 @@ class ReportPdfTest : public QObject {
     const QString text = pdfText(path);
     QVERIFY(text.contains(QStringLiteral("Small-cell suppression was applied")));
     QVERIFY(text.contains(QStringLiteral("<5")));
+  }
+
+  // A real run with the uncertainty layer (birthwt from Debian r-cran-mass, models fitted by core,
+  // runUncertainty): the charts carry the bands and the overlay, the sections render.
+  void uncertaintySectionsRenderAndChartsDrawBandsAndOverlays() {
+    QTemporaryDir dir;
+    const std::string full = dir.filePath(QStringLiteral("full.json")).toStdString();
+    const std::string small = dir.filePath(QStringLiteral("small.json")).toStdString();
+    testing::writeBirthwtModel(full, {"age", "lwt", "race", "smoke", "ht", "ui"}, "full model");
+    testing::writeBirthwtModel(small, {"lwt"}, "weight only");
+    const ValidationRun run = testing::birthwtRun(full);
+    UncertaintyRequest request;
+    request.bootstrapReplicates = 20;
+    request.seed = 4;
+    request.threads = 1;
+    request.compareModelPaths = {small};
+    request.subgroupColumns = {"smoke"};
+    const UncertaintyResults uncertainty = runUncertainty(run, request);
+    AuditReportInput input = auditInputFromRun(run, "Uncertainty layout", 0, uncertainty);
+    input.createdAt = "2026-12-02 00:00:00 UTC";
+    const AuditDocument doc = buildAuditDocument(input);
+    QCOMPARE(doc.comparisons.size(), std::size_t{1});
+    QVERIFY(!doc.netBenefitBand.empty() && !doc.calibrationBand.empty());
+
+    const RecordedCharts recorded = recordReportCharts(doc);
+    AuditDocument plain = doc;
+    plain.comparisons.clear();
+    plain.netBenefitBand.clear();
+    plain.calibrationBand.clear();
+    const RecordedCharts without = recordReportCharts(plain);
+    for (const ChartKind kind :
+         {ChartKind::Roc, ChartKind::Calibration, ChartKind::DecisionCurve}) {
+      const QByteArray& svg = recorded.drawings.at(kind);
+      QVERIFY2(svg.contains("weight only"), "the overlay is named in the legend");
+      QVERIFY(!without.drawings.at(kind).contains("weight only"));
+      QVERIFY(svg.size() > without.drawings.at(kind).size());
+    }
+    QVERIFY(recorded.drawings.at(ChartKind::Calibration).contains("Bootstrap 95% band"));
+    QVERIFY(recorded.drawings.at(ChartKind::DecisionCurve).contains("Bootstrap 95% band"));
+    QVERIFY(recorded.drawings.at(ChartKind::Roc)
+                .contains("AUC " + QByteArray::number(uncertainty.comparison->aucs[1], 'f', 3)));
+
+    const QString path = dir.filePath(QStringLiteral("uncertainty.pdf"));
+    writeAuditReportPdf(input, path.toStdString(), PaperSize::A4);
+    const QString text = pdfText(path);
+    for (const char* part :
+         {"Is the cohort large enough?", "Bootstrap 95% CI", "Comparison with other models",
+          "Subgroups by 'smoke'", "Bootstrap percentile intervals and bands"}) {
+      QVERIFY2(text.contains(QString::fromUtf8(part)), part);
+    }
+    QVERIFY(!text.contains(dir.path()));  // file names, never folders
+    // The caution and the page numbers stay on every page with the longer report.
+    const QStringList pages = text.split(QChar('\f'), Qt::SkipEmptyParts);
+    for (int i = 0; i < pages.size(); ++i) {
+      if (pages[i].trimmed().isEmpty()) continue;
+      QVERIFY(pages[i].contains(QStringLiteral("do not replace clinical")));
+      QVERIFY(pages[i].contains(QStringLiteral("Page %1 of").arg(i + 1)));
+    }
   }
 
   void workstationExportRunsInTheBackgroundAndRefusesUncomputedThresholds() {

@@ -3,15 +3,19 @@
 // fitCohortModel, compared with a second fitted model, subgroups by smoke and race, and a seeded
 // bootstrap, all from core's runUncertainty. Every number the document prints is checked against
 // the UncertaintyResults it came from, formatted as the report formats it; with suppression,
-// small subgroup counts and the metrics of their levels must be hidden.
+// small subgroup counts and the metrics of their levels must be hidden. The CSV tables
+// (core/report/uncertainty_tables.h) must hold the same results, read back from their text.
 #include <gtest/gtest.h>
 
 #include <algorithm>
+#include <filesystem>
+#include <map>
 #include <set>
 
 #include "core/report/audit_format.h"
 #include "core/report/audit_run.h"
 #include "core/report/audit_suppression.h"
+#include "core/report/uncertainty_tables.h"
 #include "tests/unit/birthwt_run.h"
 #include "tests/unit/cli_run.h"
 
@@ -282,6 +286,217 @@ TEST(AuditUncertainty, WithoutUncertaintyTheReportHasNoneOfItsSections) {
   EXPECT_TRUE(doc.netBenefitBand.empty());
   EXPECT_EQ(tableCaptioned(doc, "Performance summary").header.size(), 3u);
   EXPECT_EQ(tableCaptioned(doc, "At the selected thresholds").caption.rfind("Table 6. ", 0), 0u);
+}
+
+// A CSV table as rows of fields (quotes as RFC 4180 writes them), header first.
+std::vector<std::vector<std::string>> parseCsv(const std::string& text) {
+  std::vector<std::vector<std::string>> rows(1);
+  std::string field;
+  bool quoted = false;
+  for (std::size_t i = 0; i < text.size(); ++i) {
+    const char c = text[i];
+    if (quoted) {
+      if (c == '"' && i + 1 < text.size() && text[i + 1] == '"') {
+        field += '"';
+        ++i;
+      } else if (c == '"') {
+        quoted = false;
+      } else {
+        field += c;
+      }
+    } else if (c == '"') {
+      quoted = true;
+    } else if (c == ',') {
+      rows.back().push_back(field);
+      field.clear();
+    } else if (c == '\n') {
+      rows.back().push_back(field);
+      field.clear();
+      rows.emplace_back();
+    } else {
+      field += c;
+    }
+  }
+  rows.pop_back();  // after the last line break
+  return rows;
+}
+
+// One table keyed by header: rows[i]["name"].
+std::vector<std::map<std::string, std::string>> csvTable(const std::string& name) {
+  for (const auto& [file, text] : uncertaintyTables(fixture().uncertainty)) {
+    if (file != name) continue;
+    const auto rows = parseCsv(text);
+    std::vector<std::map<std::string, std::string>> out;
+    for (std::size_t r = 1; r < rows.size(); ++r) {
+      EXPECT_EQ(rows[r].size(), rows[0].size()) << name << " row " << r;
+      std::map<std::string, std::string>& row = out.emplace_back();
+      for (std::size_t k = 0; k < rows[0].size() && k < rows[r].size(); ++k) {
+        row[rows[0][k]] = rows[r][k];
+      }
+    }
+    return out;
+  }
+  ADD_FAILURE() << "no table " << name;
+  return {};
+}
+
+// The CSV writes 10 significant digits; an undefined value is an empty field.
+void expectValue(const std::string& field, double value, const std::string& what) {
+  if (!std::isfinite(value)) {
+    EXPECT_EQ(field, "") << what;
+    return;
+  }
+  ASSERT_FALSE(field.empty()) << what;
+  EXPECT_NEAR(std::stod(field), value, 1e-9 * std::max(1.0, std::abs(value))) << what;
+}
+
+TEST(UncertaintyTables, EveryComputedPartHasItsTable) {
+  std::vector<std::string> names;
+  for (const auto& table : uncertaintyTables(fixture().uncertainty)) names.push_back(table.first);
+  EXPECT_EQ(names, (std::vector<std::string>{"sample_size.csv", "bootstrap_intervals.csv",
+                                             "calibration_band.csv", "net_benefit_band.csv",
+                                             "compared_models.csv", "model_comparison_auc.csv",
+                                             "model_comparison_net_benefit.csv", "subgroups.csv"}));
+  UncertaintyResults sizeOnly;
+  sizeOnly.sampleSize = fixture().uncertainty.sampleSize;
+  ASSERT_EQ(uncertaintyTables(sizeOnly).size(), 1u);
+}
+
+TEST(UncertaintyTables, BootstrapAndBandTablesHoldTheBootstrapResults) {
+  const ValidationBootstrap& b = *fixture().uncertainty.bootstrap;
+  const auto rows = csvTable("bootstrap_intervals.csv");
+  ASSERT_EQ(rows.size(), 8u);
+  std::size_t checked = 0;
+  const auto check = [&](const std::string& name, const BootstrapEstimate& e) {
+    const auto row = std::find_if(rows.begin(), rows.end(),
+                                  [&](const auto& r) { return r.at("statistic") == name; });
+    ASSERT_NE(row, rows.end()) << name;
+    expectValue(row->at("estimate"), e.estimate, name);
+    expectValue(row->at("ci_lo"), e.ci.lo, name);
+    expectValue(row->at("ci_hi"), e.ci.hi, name);
+    EXPECT_EQ(row->at("replicates_used"), std::to_string(e.replicatesUsed));
+    EXPECT_EQ(row->at("replicates"), "40");
+    EXPECT_EQ(row->at("seed"), "5");
+    EXPECT_EQ(row->at("failed"), std::to_string(b.run.failed));
+    ++checked;
+  };
+  check("auc", b.auc);
+  check("brier", b.brier);
+  check("brier_scaled", b.brierScaled);
+  check("calibration_intercept", b.calibrationIntercept);
+  check("calibration_slope", b.calibrationSlope);
+  check("oe_ratio", b.oeRatio);
+  check("ici", b.ici);
+  check("e90", b.e90);
+  EXPECT_EQ(checked, 8u);
+  for (const auto& [file, band, x] :
+       {std::tuple{"net_benefit_band.csv", &b.netBenefit, "threshold"},
+        std::tuple{"calibration_band.csv", &b.calibrationCurve, "risk"}}) {
+    const auto table = csvTable(file);
+    ASSERT_EQ(table.size(), band->size()) << file;
+    for (std::size_t i = 0; i < table.size(); ++i) {
+      auto row = table[i];
+      expectValue(row[x], (*band)[i].x, file);
+      expectValue(row["estimate"], (*band)[i].estimate, file);
+      expectValue(row["ci_lo"], (*band)[i].ci.lo, file);
+      expectValue(row["ci_hi"], (*band)[i].ci.hi, file);
+      EXPECT_EQ(row["replicates_used"], std::to_string((*band)[i].replicatesUsed));
+    }
+  }
+}
+
+TEST(UncertaintyTables, ComparisonTablesHoldTheComparison) {
+  const UncertaintyResults& u = fixture().uncertainty;
+  const ModelComparison& c = *u.comparison;
+  auto models = csvTable("compared_models.csv");
+  ASSERT_EQ(models.size(), 2u);
+  EXPECT_EQ(models[1]["file"], "small.json");
+  EXPECT_EQ(models[1]["sha256"], u.comparedModels[0].sha256);
+  for (std::size_t m = 0; m < 2; ++m) {
+    expectValue(models[m]["auc"], c.aucs[m], "auc");
+    expectValue(models[m]["auc_ci_lo"], u.comparedResults[m].discrimination.aucCi.lo, "lo");
+    EXPECT_EQ(models[m]["comparison_rows"], "189");
+  }
+  auto auc = csvTable("model_comparison_auc.csv");
+  ASSERT_EQ(auc.size(), 1u);
+  const PairedAucTest& t = c.pairs[0].auc;
+  EXPECT_EQ(auc[0]["first"], "full model");
+  EXPECT_EQ(auc[0]["second"], "weight and smoking");
+  expectValue(auc[0]["auc_difference"], t.difference, "difference");
+  expectValue(auc[0]["se"], t.se, "se");
+  expectValue(auc[0]["ci_lo"], t.differenceCi.lo, "ci_lo");
+  expectValue(auc[0]["ci_hi"], t.differenceCi.hi, "ci_hi");
+  expectValue(auc[0]["z"], t.z, "z");
+  expectValue(auc[0]["p_value"], t.pValue, "p");
+  expectValue(auc[0]["correlation"], t.correlation, "correlation");
+  const auto nb = csvTable("model_comparison_net_benefit.csv");
+  const auto& points = c.pairs[0].netBenefit;
+  ASSERT_EQ(nb.size(), points.size());
+  for (std::size_t i = 0; i < nb.size(); ++i) {
+    auto row = nb[i];
+    expectValue(row["threshold"], points[i].threshold, "threshold");
+    expectValue(row["net_benefit_first"], points[i].netBenefitFirst, "first");
+    expectValue(row["net_benefit_second"], points[i].netBenefitSecond, "second");
+    expectValue(row["difference"], points[i].difference, "difference");
+    expectValue(row["ci_lo"], points[i].ci.lo, "lo");
+    expectValue(row["ci_hi"], points[i].ci.hi, "hi");
+  }
+}
+
+TEST(UncertaintyTables, SubgroupAndSampleSizeTablesHoldTheirResults) {
+  const UncertaintyResults& u = fixture().uncertainty;
+  const auto subgroups = csvTable("subgroups.csv");
+  std::size_t r = 0;
+  for (const SubgroupAnalysis& analysis : u.subgroups) {
+    for (const SubgroupResult& level : analysis.levels) {
+      ASSERT_LT(r, subgroups.size());
+      auto row = subgroups[r++];
+      EXPECT_EQ(row["column"], analysis.column);
+      EXPECT_EQ(row["level"], level.level);
+      EXPECT_EQ(row["n"], std::to_string(level.n));
+      EXPECT_EQ(row["events"], std::to_string(level.events));
+      EXPECT_EQ(row["too_small"], level.tooSmall ? "yes" : "no");
+      const ValidationResult& m = *level.metrics;
+      expectValue(row["auc"], m.discrimination.auc, level.level);
+      expectValue(row["calibration_slope"], m.calibration.slope, level.level);
+      expectValue(row["slope_ci_hi"], m.calibration.slopeCi.hi, level.level);
+      expectValue(row["oe_ratio"], m.calibration.oeRatio, level.level);
+      expectValue(row["auc_bootstrap_lo"], level.bootstrap->auc.ci.lo, level.level);
+      EXPECT_NE(row["warnings"].find("too small"), std::string::npos);
+    }
+  }
+  EXPECT_EQ(r, subgroups.size());
+  const SampleSizeAssessment& a = u.sampleSize;
+  const auto size = csvTable("sample_size.csv");
+  ASSERT_EQ(size.size(), a.rules.size() + a.criteria.size() + 1);
+  for (std::size_t i = 0; i < a.criteria.size(); ++i) {
+    auto row = size[a.rules.size() + i];
+    EXPECT_EQ(row["kind"], "criterion");
+    EXPECT_EQ(row["name"], a.criteria[i].criterion);
+    expectValue(row["required_n"], a.criteria[i].requiredN, a.criteria[i].criterion);
+    expectValue(row["achieved_ci_width"], *a.criteria[i].achievedCiWidth, a.criteria[i].criterion);
+  }
+  auto verdict = size.back();
+  EXPECT_EQ(verdict["kind"], "verdict");
+  EXPECT_EQ(verdict["name"], a.verdict);
+  EXPECT_EQ(verdict["met"], "no");
+}
+
+TEST(UncertaintyTables, AFailedWriteLeavesNoTable) {
+  const testing::TempDir dir("uncertainty_tables");
+  const std::filesystem::path folder = std::filesystem::path(dir.file("tables"));
+  // A folder where the last table goes makes that write fail after the others succeeded.
+  std::filesystem::create_directories(folder / "subgroups.csv");
+  EXPECT_ANY_THROW(writeValidationTables(folder.string(), fixture().run, fixture().uncertainty));
+  std::vector<std::string> left;
+  for (const auto& entry : std::filesystem::directory_iterator(folder)) {
+    left.push_back(entry.path().filename().string());
+  }
+  EXPECT_EQ(left, std::vector<std::string>{"subgroups.csv"});
+  std::filesystem::remove(folder / "subgroups.csv");
+  writeValidationTables(folder.string(), fixture().run, fixture().uncertainty);
+  EXPECT_TRUE(std::filesystem::exists(folder / "subgroups.csv"));
+  EXPECT_TRUE(std::filesystem::exists(folder / "thresholds.csv"));
 }
 
 }  // namespace

@@ -3,10 +3,12 @@
 // JSON keys, reproducibility across --threads, and exit status 2 with no output file on bad input.
 #include <gtest/gtest.h>
 
+#include <cstdio>
 #include <cstdlib>
 #include <filesystem>
 #include <fstream>
 #include <nlohmann/json.hpp>
+#include <sstream>
 
 #include "core/model/model_io.h"
 
@@ -108,6 +110,63 @@ TEST_F(UncertaintyCommands, ValidateAddsSampleSizeBootstrapComparisonAndSubgroup
   EXPECT_EQ(v1["comparison"]["pairs"].size(), 1u);
   EXPECT_TRUE(v1["comparison"]["pairs"][0]["p_value"].is_number());
 }
+
+#ifdef CALIVERA_HAVE_UI
+// The PDF's text as poppler's pdftotext (an outside reader) extracts it.
+std::string pdfText(const std::string& path) {
+  FILE* pipe = ::popen(("pdftotext -layout '" + path + "' -").c_str(), "r");
+  std::string text;
+  if (pipe == nullptr) return text;
+  char buffer[4096];
+  for (std::size_t got; (got = std::fread(buffer, 1, sizeof buffer, pipe)) > 0;) {
+    text.append(buffer, got);
+  }
+  ::pclose(pipe);
+  return text;
+}
+
+TEST_F(UncertaintyCommands, ValidatePdfAndCsvCarryTheUncertaintySections) {
+  ASSERT_EQ(
+      run("fit --data " + kData + " --outcome low --predictors lwt --out " + path("small.json")),
+      0);
+  ASSERT_EQ(
+      run("validate --data " + kData + " --outcome low --model " + path("fitted.json") +
+          " --compare " + path("small.json") + " --subgroup smoke --bootstrap 20 --seed 2" +
+          " --json " + path("v.json") + " --pdf " + path("v.pdf") + " --csv-dir " + path("tables")),
+      0);
+  const std::string text = pdfText(path("v.pdf"));
+  for (const char* part :
+       {"Is the cohort large enough? (sample size)", "Sample size: rules of thumb",
+        "precision-based minimum", "Bootstrap 95% CI", "Comparison with other models",
+        "Paired DeLong test", "Subgroups by 'smoke'", "too small to judge", "small.json"}) {
+    EXPECT_NE(text.find(part), std::string::npos) << part;
+  }
+  EXPECT_EQ(text.find(dir_.string()), std::string::npos);  // file names, never folders
+  // Each subgroup row starts with the level, its n and its events, as the JSON has them.
+  const auto v = json("v.json");
+  ASSERT_EQ(v["subgroups"].size(), 2u);
+  for (const auto& level : v["subgroups"]) {
+    const std::vector<std::string> expected{level["level"].get<std::string>(),
+                                            std::to_string(level["n"].get<int>()),
+                                            std::to_string(level["events"].get<int>())};
+    bool found = false;
+    std::istringstream lines(text.substr(text.find("Subgroups by 'smoke'")));
+    for (std::string line; std::getline(lines, line) && !found;) {
+      std::istringstream words(line);
+      std::vector<std::string> tokens;
+      for (std::string word; tokens.size() < 3 && words >> word;) tokens.push_back(word);
+      found = tokens == expected;
+    }
+    EXPECT_TRUE(found) << expected[0];
+  }
+  for (const char* table :
+       {"sample_size.csv", "bootstrap_intervals.csv", "net_benefit_band.csv",
+        "calibration_band.csv", "compared_models.csv", "model_comparison_auc.csv",
+        "model_comparison_net_benefit.csv", "subgroups.csv", "thresholds.csv"}) {
+    EXPECT_TRUE(fs::exists(dir_ / "tables" / table)) << table;
+  }
+}
+#endif
 
 }  // namespace
 }  // namespace calivera
