@@ -608,6 +608,9 @@ class MainWindowTest : public QObject {
                                        QString::number(ref.bootstrap->auc.ci.hi, 'f', 3))),
              qPrintable(summary));
     QVERIFY(summary.contains("50 resamples"));
+    for (const auto& warning : ref.bootstrap->warnings) {
+      QVERIFY(summary.contains(QString::fromStdString(warning)));
+    }
     QVERIFY(summary.contains("seed 7"));
     QVERIFY(
         summary.contains(QString("n ≥ %1").arg(ref.sampleSize.criteria[0].requiredN, 0, 'f', 0)));

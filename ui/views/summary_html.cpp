@@ -151,6 +151,9 @@ QString summaryHtml(const StudyState& study) {
   std::vector<std::string> warnings = sampleSizeWarnings(r.cohort);
   warnings.insert(warnings.end(), study.modelWarnings.begin(), study.modelWarnings.end());
   warnings.insert(warnings.end(), r.warnings.begin(), r.warnings.end());
+  if (b != nullptr) {
+    for (const auto& w : b->warnings) warnings.push_back("Bootstrap: " + w);
+  }
   if (!warnings.empty()) {
     html += QStringLiteral("<h3>Warnings</h3><ul>");
     for (const auto& w : warnings) html += QStringLiteral("<li>%1</li>").arg(esc(w));
