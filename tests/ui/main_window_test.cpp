@@ -8,12 +8,15 @@
 
 #include <QAction>
 #include <QComboBox>
+#include <QDialogButtonBox>
 #include <QDoubleSpinBox>
 #include <QFile>
 #include <QImage>
 #include <QLabel>
+#include <QLineEdit>
 #include <QListWidget>
 #include <QProgressBar>
+#include <QPushButton>
 #include <QScrollBar>
 #include <QSlider>
 #include <QSortFilterProxyModel>
@@ -749,7 +752,15 @@ class MainWindowTest : public QObject {
       dialog->findChild<QSpinBox*>("bootstrapSeedSpin")->setValue(3);
       dialog->addCompareModel(secondModel());
       dialog->setSubgroupChecked("urgency", true);
-      dialog->accept();
+      auto* sizes = dialog->findChild<QLineEdit*>("sizeThresholdsEdit");
+      auto* ok =
+          dialog->findChild<QDialogButtonBox*>("uncertaintyButtons")->button(QDialogButtonBox::Ok);
+      sizes->setText("0.1, abc");
+      ok->click();  // refused, with the reason
+      QVERIFY(dialog->isVisible());
+      QVERIFY(dialog->findChild<QLabel*>("uncertaintyError")->text().contains("abc"));
+      sizes->setText("0.1, 0.2");
+      ok->click();
     });
     child<QAction>(w, "actionUncertainty")->trigger();
     waitForJob(w);
@@ -763,6 +774,15 @@ class MainWindowTest : public QObject {
     QCOMPARE(s.subgroupColumns, std::vector<std::string>{"urgency"});
     QVERIFY(w.study().uncertainty && w.study().uncertainty->comparison);
     QCOMPARE(w.study().uncertainty->subgroups[0].column, std::string("urgency"));
+    QCOMPARE(s.sizeThresholds, (std::vector<double>{0.1, 0.2}));
+    // The net-benefit criteria, with the achieved width of the bootstrap interval.
+    const SampleSizeAssessment& size = w.study().uncertainty->sampleSize;
+    QCOMPARE(size.criteria.size(), std::size_t{5});
+    QCOMPARE(size.criteria[3].criterion, std::string("net benefit t=0.1"));
+    QVERIFY(size.criteria[3].achievedCiWidth.has_value());
+    const QString summary = child<QTextBrowser>(w, "summaryPanel")->toPlainText();
+    QVERIFY(summary.contains("Riley size: net benefit t=0.2"));
+    QVERIFY(summary.contains(QString::number(*size.criteria[3].achievedCiWidth, 'f', 3)));
   }
 
   // A compared model with a column the study's model does not use, missing for some patients:
@@ -987,6 +1007,14 @@ class MainWindowTest : public QObject {
     if (second->count() > 2) {
       view->choose(first, second->itemText(2));
       save(&w, "predictor_boundary");
+    }
+    {
+      UncertaintySettings current = w.study().uncertaintySettings;
+      current.sizeThresholds = {0.1, 0.2};
+      UncertaintyDialog dialog(current, *w.table(), w.study().import.outcomeColumn, &w);
+      dialog.show();
+      QVERIFY(QTest::qWaitForWindowExposed(&dialog));
+      save(&dialog, "uncertainty_dialog");
     }
     tabs->setCurrentWidget(child<QWidget>(w, "comparisonView"));
     save(&w, "comparison_tab");

@@ -160,6 +160,7 @@ class UiLogicTest : public QObject {
     s.uncertaintySettings.threads = 3;
     s.uncertaintySettings.compareModels = {InputFileRecord{model, "def"}};
     s.uncertaintySettings.subgroupColumns = {"site", "sex"};
+    s.uncertaintySettings.sizeThresholds = {0.1, 0.25};
     const std::string path = dir.filePath("u.cvstudy").toStdString();
     writeStudyFile(path, s);
     const StudyState r = readStudyFile(path);
@@ -171,6 +172,7 @@ class UiLogicTest : public QObject {
     QCOMPARE(u.compareModels[0].path, model);
     QCOMPARE(u.compareModels[0].sha256, std::string("def"));
     QCOMPARE(u.subgroupColumns, s.uncertaintySettings.subgroupColumns);
+    QCOMPARE(u.sizeThresholds, s.uncertaintySettings.sizeThresholds);
     // The compared model is checked like the other inputs ("def" is not its SHA-256).
     const auto checks = checkInputs(r);
     QCOMPARE(checks.size(), std::size_t{1});

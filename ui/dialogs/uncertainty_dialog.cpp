@@ -7,6 +7,7 @@
 #include <QGroupBox>
 #include <QHBoxLayout>
 #include <QLabel>
+#include <QLineEdit>
 #include <QListWidget>
 #include <QPushButton>
 #include <QSpinBox>
@@ -37,6 +38,23 @@ std::vector<std::string> UncertaintyDialog::subgroupCandidates(const Table& tabl
       if (distinct.size() > kMaxLevels) break;
     }
     if (distinct.size() <= kMaxLevels) out.push_back(c.name);
+  }
+  return out;
+}
+
+std::vector<double> UncertaintyDialog::parseThresholds(const QString& text, QString* error) {
+  std::vector<double> out;
+  for (const QString& part : text.split(QLatin1Char(','), Qt::SkipEmptyParts)) {
+    bool ok = false;
+    const double t = part.trimmed().toDouble(&ok);
+    if (!ok || !(t > 0.0 && t < 1.0)) {
+      if (error != nullptr) {
+        *error = tr("Sample-size thresholds: \"%1\" is not a number between 0 and 1.")
+                     .arg(part.trimmed());
+      }
+      return {};
+    }
+    out.push_back(t);
   }
   return out;
 }
@@ -76,6 +94,16 @@ UncertaintyDialog::UncertaintyDialog(const UncertaintySettings& current, const T
   form->addRow(tr("Bootstrap &replicates:"), replicates_);
   form->addRow(tr("&Seed:"), seed_);
   form->addRow(tr("&Threads:"), threads_);
+  sizeThresholds_ = new QLineEdit;
+  sizeThresholds_->setObjectName(QStringLiteral("sizeThresholdsEdit"));
+  sizeThresholds_->setPlaceholderText(tr("none, e.g. 0.1, 0.2"));
+  sizeThresholds_->setToolTip(
+      tr("Thresholds at which the sample-size check also asks for a precise standardized net "
+         "benefit (Riley et al. 2021); its achieved width needs the bootstrap"));
+  QStringList thresholds;
+  for (double t : current.sizeThresholds) thresholds << QString::number(t, 'g', 6);
+  sizeThresholds_->setText(thresholds.join(QStringLiteral(", ")));
+  form->addRow(tr("Net-benefit thresholds for the sample-size &check:"), sizeThresholds_);
   layout->addLayout(form);
 
   auto* compareBox = new QGroupBox(tr("Compare with further model files (same patients)"));
@@ -118,7 +146,22 @@ UncertaintyDialog::UncertaintyDialog(const UncertaintySettings& current, const T
   auto* box = new QDialogButtonBox(QDialogButtonBox::Ok | QDialogButtonBox::Cancel);
   box->setObjectName(QStringLiteral("uncertaintyButtons"));
   box->button(QDialogButtonBox::Ok)->setText(tr("&Run"));
-  connect(box, &QDialogButtonBox::accepted, this, &QDialog::accept);
+  error_ = new QLabel;
+  error_->setObjectName(QStringLiteral("uncertaintyError"));
+  error_->setWordWrap(true);
+  error_->setStyleSheet(QStringLiteral("color: #a04000"));
+  error_->hide();
+  layout->addWidget(error_);
+  connect(box, &QDialogButtonBox::accepted, this, [this]() {
+    QString error;
+    parseThresholds(sizeThresholds_->text(), &error);
+    if (!error.isEmpty()) {
+      error_->setText(error);
+      error_->show();
+      return;
+    }
+    accept();
+  });
   connect(box, &QDialogButtonBox::rejected, this, &QDialog::reject);
   layout->addWidget(box);
   resize(560, 560);
@@ -130,6 +173,7 @@ UncertaintySettings UncertaintyDialog::settings() const {
   s.seed = static_cast<std::uint64_t>(seed_->value());
   s.threads = static_cast<unsigned>(threads_->value());
   s.compareModels = compare_;
+  s.sizeThresholds = parseThresholds(sizeThresholds_->text(), nullptr);
   for (int i = 0; i < subgroups_->count(); ++i) {
     if (subgroups_->item(i)->checkState() == Qt::Checked) {
       s.subgroupColumns.push_back(subgroups_->item(i)->text().toStdString());

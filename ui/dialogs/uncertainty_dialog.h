@@ -10,6 +10,8 @@
 #include "core/data/table.h"
 #include "ui/state/study_state.h"
 
+class QLabel;
+class QLineEdit;
 class QListWidget;
 class QSpinBox;
 
@@ -32,6 +34,8 @@ class UncertaintyDialog : public QDialog {
   static constexpr std::size_t kMaxLevels = 30;
   static std::vector<std::string> subgroupCandidates(const Table& table,
                                                      const std::string& outcomeColumn);
+  // "0.1, 0.2" -> {0.1, 0.2}; empty text -> none. Error: a message naming the bad entry.
+  static std::vector<double> parseThresholds(const QString& text, QString* error);
 
  private:
   void onAddModel();
@@ -41,6 +45,8 @@ class UncertaintyDialog : public QDialog {
   QSpinBox* replicates_ = nullptr;
   QSpinBox* seed_ = nullptr;
   QSpinBox* threads_ = nullptr;
+  QLineEdit* sizeThresholds_ = nullptr;
+  QLabel* error_ = nullptr;
   QListWidget* models_ = nullptr;
   QListWidget* subgroups_ = nullptr;
 };

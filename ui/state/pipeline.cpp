@@ -118,9 +118,11 @@ PipelineOutput runPipeline(const PipelineRequest& request, const ProgressCallbac
     }
   }
   // The sample-size assessment alone: cheap, and always shown before the results.
+  UncertaintySettings sizeOnly;
+  sizeOnly.sizeThresholds = s.uncertaintySettings.sizeThresholds;
   try {
     s.uncertainty = std::make_shared<const UncertaintyResults>(
-        computeUncertainty(*out.cohort, *s.result, UncertaintySettings{}, nullptr));
+        computeUncertainty(*out.cohort, *s.result, sizeOnly, nullptr));
   } catch (const AnalysisError& e) {
     out.notes.push_back(std::string("No sample-size assessment: ") + e.what());
   }

@@ -127,7 +127,8 @@ std::string studyToJson(const StudyState& study, const std::string& studyPath) {
                       {"seed", u.seed},
                       {"threads", u.threads},
                       {"compareModels", compare},
-                      {"subgroups", u.subgroupColumns}};
+                      {"subgroups", u.subgroupColumns},
+                      {"sizeThresholds", u.sizeThresholds}};
   return j.dump(2) + "\n";
 }
 
@@ -222,6 +223,11 @@ StudyState parseStudyJson(const std::string& text, const std::string& studyPath)
     }
     out.subgroupColumns =
         in.get<std::vector<std::string>>(u, "subgroups", "uncertainty.subgroups", {});
+    out.sizeThresholds =
+        in.get<std::vector<double>>(u, "sizeThresholds", "uncertainty.sizeThresholds", {});
+    for (double t : out.sizeThresholds) {
+      if (!(t > 0.0 && t < 1.0)) in.fail("uncertainty.sizeThresholds", "each must lie in (0, 1)");
+    }
   }
   return s;
 }

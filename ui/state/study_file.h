@@ -16,7 +16,8 @@
 //                  "apparent": false},
 //     "predictorView": {"predictors": [...], "held": {"age": "65"}},
 //     "uncertainty": {"bootstrap": 0 | B, "seed": 1, "threads": 0 (all cores),
-//                     "compareModels": [{...as data...}], "subgroups": ["site"]} }
+//                     "compareModels": [{...as data...}], "subgroups": ["site"],
+//                     "sizeThresholds": [0.1]} }
 // "uncertainty" is optional (studies saved before it existed open with everything off).
 
 #include <string>

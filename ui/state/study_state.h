@@ -54,6 +54,9 @@ struct UncertaintySettings {
   unsigned threads = 0;                        // 0: all hardware threads
   std::vector<InputFileRecord> compareModels;  // further model files compared with the study's
   std::vector<std::string> subgroupColumns;    // cohort columns
+  // Thresholds of the net-benefit sample-size criterion (Riley et al. 2021), each in (0, 1); its
+  // achieved CI width needs the bootstrap.
+  std::vector<double> sizeThresholds;
 
   bool anyRequested() const {
     return bootstrapReplicates > 0 || !compareModels.empty() || !subgroupColumns.empty();
