@@ -276,6 +276,24 @@ TEST(AuditUncertainty, SuppressionHidesSmallSubgroupCountsAndWithholdsTheirMetri
   EXPECT_LT(doc.netBenefitBand.size(), u.bootstrap->netBenefit.size());
 }
 
+TEST(AuditUncertainty, ComparisonOnFewerPatientsSaysHowManyFewerUnlessThatIsHidden) {
+  // The comparison's row count as core reports it when a compared model needs a column that some
+  // rows lack (birthwt has none missing, so the count is set here: the wording is under test).
+  const Fixture& f = fixture();
+  UncertaintyResults fewer = f.uncertainty;
+  fewer.comparisonRows = 180;
+  AuditReportInput input = auditInputFromRun(f.run, "Fewer", 0, fewer);
+  EXPECT_NE(allText(buildAuditDocument(input))
+                .find("The comparison rests on 180 patients complete in every column a compared "
+                      "model uses, 9 fewer than the validation"),
+            std::string::npos);
+  input.settings.suppressBelow = 11;  // 9 fewer is a small count, and 180 would reveal it
+  const std::string hidden = allText(buildAuditDocument(input));
+  EXPECT_NE(hidden.find("rests on fewer patients than the validation (how many is hidden"),
+            std::string::npos);
+  EXPECT_EQ(hidden.find("180"), std::string::npos);
+}
+
 TEST(AuditUncertainty, WithoutUncertaintyTheReportHasNoneOfItsSections) {
   const Fixture& f = fixture();
   AuditReportInput input = auditInputFromRun(f.run, "Plain", 0);

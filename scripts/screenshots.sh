@@ -1,0 +1,22 @@
+#!/usr/bin/env bash
+# Renders what users see into docs/: the workstation's main window and each view, the model tool
+# dialogs (offscreen, 1280x800, from the Qt tests' screenshot slots) and the sample PDF audit
+# report's pages. Run after scripts/build.sh; look at the PNGs before committing them.
+set -euo pipefail
+cd "$(dirname "$0")/.."
+export QT_QPA_PLATFORM=offscreen
+export CALIVERA_SCREENSHOT_DIR="$PWD/docs/screenshots"
+mkdir -p "$CALIVERA_SCREENSHOT_DIR" docs/report
+build/bin/main_window_test screenshots >/dev/null
+build/bin/model_tools_test screenshots >/dev/null
+report=$(mktemp -d)
+trap 'rm -rf "$report"' EXIT
+SOURCE_DATE_EPOCH=1764547200 build/bin/calivera validate --data sample_data/local_cohort.csv --outcome complication_30d \
+  --model sample_data/published_model.json --bootstrap 200 --seed 2026 \
+  --compare sample_data/quick_model.json --subgroup site --thresholds 0.05,0.10,0.15,0.20,0.30 \
+  --suppress-below 11 --pdf "$report/sample_report.pdf" \
+  --title "Ashcombe 30-day Complication Score on the Kestrel Bay cohort (invented demo data)" \
+  >/dev/null
+rm -f docs/report/sample_page_*.png
+pdftoppm -r 60 -png "$report/sample_report.pdf" docs/report/sample_page
+ls docs/screenshots docs/report
