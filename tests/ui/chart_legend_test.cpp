@@ -1,6 +1,7 @@
-// Chart details a reader relies on: the decision curve drops its range entry when no range was
-// chosen, axis labels are distinct, and the calibration histogram stays within the plotted risk
-// range.
+// Chart details a reader relies on: on screen, every legend label is shown whole (wrapping onto
+// more rows on a narrow chart) and helper series stay out of it; the decision curve drops its range
+// entry when no range was chosen, axis labels are distinct, and the calibration histogram stays
+// within the plotted risk range.
 #include <QtCharts/QAreaSeries>
 #include <QtCharts/QLegend>
 #include <QtCharts/QLegendMarker>
@@ -10,6 +11,8 @@
 
 #include "ui/charts/calibration_chart.h"
 #include "ui/charts/decision_curve_chart.h"
+#include "ui/views/chart_panel.h"
+#include "ui/views/legend_strip.h"
 
 using namespace calivera;
 using namespace calivera::ui;
@@ -59,6 +62,36 @@ class ChartLegendTest : public QObject {
     // Ticks every 0.05 printed with two decimals (one decimal printed 0.1 and 0.2 twice).
     QCOMPARE(x->tickCount(), 7);
     QCOMPARE(x->labelFormat(), QString("%.2f"));
+  }
+
+  void screenLegendWrapsInsteadOfEliding() {
+    Calibration c;
+    CalibrationGroup g;
+    g.meanRisk = 0.2;
+    g.observedProportion = 0.2;
+    g.observedCi = {0.15, 0.25};
+    c.groups = {g, g};
+    c.curve = {{0.05, 0.05}, {0.35, 0.33}};
+    RiskHistogram h;
+    h.binEdges = {0.0, 0.5, 1.0};
+    h.eventCounts = {1, 1};
+    h.nonEventCounts = {3, 3};
+    auto* chart = new charts::CalibrationChart(c, h);
+    chart->addComparison(QStringLiteral("A rival score with a rather long descriptive name"), c);
+    ChartPanel panel(QStringLiteral("testPanel"));
+    panel.setLinkedChart(chart);
+    const LegendStrip* strip = panel.legendStrip();
+    const QStringList labels = strip->labels();
+    // Every named series once, whole; the unnamed CI bars (hidden from the legend) not at all.
+    QVERIFY(labels.contains("Loess curve"));
+    QVERIFY(labels.contains("A rival score with a rather long descriptive name"));
+    for (const QString& l : labels) QVERIFY2(!l.contains(QChar(0x2026)), qPrintable(l));
+    QCOMPARE(labels.count("Loess curve"), 1);
+    QVERIFY(!labels.contains(QString()));
+    QVERIFY(!chart->legend()->isVisible());  // the strip replaces Qt's one-row legend
+    QVERIFY(strip->rowsForWidth(440) > strip->rowsForWidth(2400));
+    QCOMPARE(strip->rowsForWidth(2400), 1);
+    QVERIFY(strip->heightForWidth(440) > strip->heightForWidth(2400));
   }
 
   void calibrationHistogramStopsAtTheAxis() {

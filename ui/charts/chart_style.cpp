@@ -112,8 +112,19 @@ void addOnAxes(QChart* chart, QAbstractSeries* series, QAbstractAxis* x, QAbstra
   series->attachAxis(y);
 }
 
+namespace {
+// Marker visibility cannot tell a hidden entry from a legend that is itself hidden (the
+// workstation draws its own legend strip), so the series carries the choice.
+constexpr char kHiddenFromLegend[] = "caliveraHiddenFromLegend";
+}  // namespace
+
 void hideFromLegend(QChart* chart, QAbstractSeries* series) {
   for (QLegendMarker* marker : chart->legend()->markers(series)) marker->setVisible(false);
+  series->setProperty(kHiddenFromLegend, true);
+}
+
+bool isHiddenFromLegend(const QAbstractSeries* series) {
+  return series->property(kHiddenFromLegend).toBool();
 }
 
 }  // namespace calivera::ui::charts

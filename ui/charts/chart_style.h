@@ -54,5 +54,6 @@ void addOnAxes(QChart* chart, QAbstractSeries* series, QAbstractAxis* x, QAbstra
 
 // Hides the legend entry of a helper series (error bars, hit areas).
 void hideFromLegend(QChart* chart, QAbstractSeries* series);
+bool isHiddenFromLegend(const QAbstractSeries* series);
 
 }  // namespace calivera::ui::charts

@@ -5,9 +5,11 @@
 #include <QMenu>
 #include <QMouseEvent>
 #include <QToolTip>
+#include <QtCharts/QLegend>
 
 #include "ui/charts/chart_render.h"
 #include "ui/charts/chart_style.h"
+#include "ui/views/legend_strip.h"
 
 namespace calivera::ui {
 
@@ -17,6 +19,8 @@ ChartPanel::ChartPanel(const QString& objectName, QWidget* parent) : QChartView(
   setMouseTracking(true);
   setMinimumSize(320, 240);
   setFocusPolicy(Qt::StrongFocus);
+  legend_ = new LegendStrip(this);
+  legend_->setObjectName(objectName + QStringLiteral("Legend"));
   auto* placeholder = new QChart;
   charts::applyChartStyle(placeholder, tr("Run the validation to see this view"));
   setChart(placeholder);
@@ -33,6 +37,36 @@ void ChartPanel::setLinkedChart(charts::LinkedChart* chart) {
   }
   linked_ = chart;
   delete previous;  // setChart does not delete the chart it replaces
+  this->chart()->legend()->setVisible(false);
+  legend_->setChart(chart);
+  placeLegend();
+}
+
+void ChartPanel::resizeEvent(QResizeEvent* event) {
+  QChartView::resizeEvent(event);
+  placeLegend();
+}
+
+void ChartPanel::placeLegend() {
+  const QRect inside = contentsRect();
+  const int h = legend_->heightForWidth(inside.width());
+  // The strip sits in a bottom margin of the view, so the plot never runs under it.
+  setViewportMargins(0, 0, 0, h);
+  legend_->setGeometry(inside.left(), inside.bottom() + 1 - h, inside.width(), h);
+  legend_->setVisible(h > 0);
+}
+
+template <class Export>
+QString ChartPanel::withExportLegend(Export exportChart) {
+  if (linked_ == nullptr) return tr("there is no chart to export yet");
+  QLegend* legend = linked_->legend();
+  const Qt::Alignment alignment = legend->alignment();
+  legend->setAlignment(Qt::AlignRight);
+  legend->setVisible(true);
+  const QString error = exportChart();
+  legend->setVisible(false);
+  legend->setAlignment(alignment);
+  return error;
 }
 
 QPointF ChartPanel::valueAt(QPoint widgetPos) const {
@@ -96,13 +130,12 @@ QSize ChartPanel::exportSize() const {
 }
 
 QString ChartPanel::exportPng(const QString& path) {
-  if (linked_ == nullptr) return tr("there is no chart to export yet");
-  return charts::exportChartPng(*linked_, path, exportSize());
+  return withExportLegend([&] { return charts::exportChartPng(*linked_, path, exportSize()); });
 }
 
 QString ChartPanel::exportSvg(const QString& path) {
-  if (linked_ == nullptr) return tr("there is no chart to export yet");
-  return charts::exportChartSvg(*linked_, path, exportSize(), linked_->title());
+  return withExportLegend(
+      [&] { return charts::exportChartSvg(*linked_, path, exportSize(), linked_->title()); });
 }
 
 }  // namespace calivera::ui

@@ -1,13 +1,16 @@
 #pragma once
 // Shows one LinkedChart: tooltips with exact values under the mouse, a click sets the threshold
 // (where the chart supports it), arrow keys nudge it, and a context menu exports the chart as PNG
-// or SVG.
+// or SVG. The legend is a wrapping strip under the plot (legend_strip.h); exported files carry
+// the chart's own legend beside the plot instead, where a wide export has room for it.
 
 #include <QtCharts/QChartView>
 
 #include "ui/charts/linked_chart.h"
 
 namespace calivera::ui {
+
+class LegendStrip;
 
 class ChartPanel : public QChartView {
   Q_OBJECT
@@ -25,6 +28,7 @@ class ChartPanel : public QChartView {
 
   // Chart coordinates of a widget position (for tests and the click handler).
   QPointF valueAt(QPoint widgetPos) const;
+  const LegendStrip* legendStrip() const { return legend_; }
 
  signals:
   void thresholdPicked(double threshold);
@@ -36,10 +40,15 @@ class ChartPanel : public QChartView {
   void mousePressEvent(QMouseEvent* event) override;
   void contextMenuEvent(QContextMenuEvent* event) override;
   void keyPressEvent(QKeyEvent* event) override;
+  void resizeEvent(QResizeEvent* event) override;
 
  private:
   QSize exportSize() const;
+  void placeLegend();
+  template <class Export>
+  QString withExportLegend(Export exportChart);
   charts::LinkedChart* linked_ = nullptr;
+  LegendStrip* legend_ = nullptr;
 };
 
 }  // namespace calivera::ui
