@@ -7,9 +7,13 @@
 #include <QSvgRenderer>
 #include <QtCharts/QAbstractAxis>
 #include <QtCharts/QLegend>
+#include <QtCharts/QLineSeries>
+#include <QtCharts/QScatterSeries>
+#include <algorithm>
 #include <memory>
 
 #include "ui/charts/charts.h"
+#include "ui/charts/legend_painter.h"
 #include "ui/charts/overlay_series.h"
 
 namespace calivera::ui::report {
@@ -17,17 +21,15 @@ namespace {
 
 const QSizeF kChartSize(kReportChartWidth, kReportChartHeight);
 
+// The legend column beside the plot, in points: the labels wrap within it (legend_painter.h).
+constexpr double kLegendWidth = 135.0;
+
 // Print sizes: the screen fonts of the chart style are a little large for a half-page chart.
 void fitForPrint(QChart& chart) {
   QFont title = chart.titleFont();
   title.setPointSizeF(9);
   chart.setTitleFont(title);
-  QFont legend = chart.legend()->font();
-  legend.setPointSizeF(7);
-  chart.legend()->setFont(legend);
-  // A legend beside the plot gives each label a full line (a bottom legend truncates them) and
-  // leaves a near-square plot on the wide print rectangle.
-  chart.legend()->setAlignment(Qt::AlignRight);
+  chart.legend()->setVisible(false);  // drawn beside the chart by paintLegendColumn
   for (QAbstractAxis* axis : chart.axes()) {
     QFont labels = axis->labelsFont();
     labels.setPointSizeF(7);
@@ -36,10 +38,22 @@ void fitForPrint(QChart& chart) {
     axisTitle.setPointSizeF(7.5);
     axis->setTitleFont(axisTitle);
   }
+  // Screen pens are cosmetic (a width in device pixels), which a 1200 dpi PDF prints as
+  // hairlines with invisible dash patterns; in print they become widths in points.
+  for (QAbstractSeries* series : chart.series()) {
+    auto* line = qobject_cast<QLineSeries*>(series);
+    if (line == nullptr || qobject_cast<QScatterSeries*>(series) != nullptr) continue;
+    QPen pen = line->pen();
+    if (!pen.isCosmetic()) continue;
+    pen.setCosmetic(false);
+    pen.setWidthF(std::max(0.6, 0.55 * pen.widthF()));
+    line->setPen(pen);
+  }
 }
 
 QByteArray record(QChart& chart) {
   fitForPrint(chart);
+  const std::vector<charts::LegendEntry> legend = charts::legendEntries(chart);
   QByteArray svg;
   QBuffer buffer(&svg);
   buffer.open(QIODevice::WriteOnly);
@@ -50,7 +64,14 @@ QByteArray record(QChart& chart) {
   generator.setViewBox(QRectF(QPointF(0, 0), kChartSize));
   {
     QPainter painter(&generator);
-    charts::renderChart(chart, painter, QRectF(QPointF(0, 0), kChartSize));
+    const double plotWidth = kChartSize.width() - kLegendWidth;
+    charts::renderChart(chart, painter, QRectF(0, 0, plotWidth, kChartSize.height()));
+    QFont font = chart.titleFont();
+    font.setBold(false);
+    font.setPointSizeF(7);
+    painter.setRenderHint(QPainter::Antialiasing);
+    charts::paintLegendColumn(
+        painter, legend, QRectF(plotWidth, 20, kLegendWidth - 8, kChartSize.height() - 40), font);
   }
   return svg;
 }

@@ -1,16 +1,12 @@
 #pragma once
-// The legend of a chart on screen, drawn under the plot and wrapped onto as many rows as the
-// width needs. Qt Charts lays its own legend out on one row and elides every label when they do
-// not fit, which on a quarter-window chart left only "Hist…", "Loes…": unreadable. Each entry
-// shows the series' own line (colour and dash pattern), area fill or point shape, so no series
-// is told apart by colour alone. Entries come from the chart's legend markers, in series order;
-// series hidden with charts::hideFromLegend are left out.
+// The legend of a chart on screen, under the plot, wrapped onto as many rows as the width needs
+// (ui/charts/legend_painter.h says why Qt's own legend is not used).
 
-#include <QBrush>
-#include <QPen>
-#include <QString>
+#include <QStringList>
 #include <QWidget>
 #include <vector>
+
+#include "ui/charts/legend_painter.h"
 
 class QChart;
 
@@ -20,19 +16,10 @@ class LegendStrip : public QWidget {
   Q_OBJECT
 
  public:
-  enum class Sample { Line, Area, Point };
-  struct Entry {
-    QString label;
-    Sample sample = Sample::Line;
-    QPen pen;
-    QBrush brush;
-    int pointShape = 0;  // QScatterSeries::MarkerShape for Sample::Point
-  };
-
   explicit LegendStrip(QWidget* parent = nullptr);
 
   void setChart(const QChart* chart);  // nullptr: no entries
-  const std::vector<Entry>& entries() const { return entries_; }
+  const std::vector<charts::LegendEntry>& entries() const { return entries_; }
   QStringList labels() const;
   int rowsForWidth(int width) const;
 
@@ -44,10 +31,7 @@ class LegendStrip : public QWidget {
   void paintEvent(QPaintEvent* event) override;
 
  private:
-  int entryWidth(const Entry& e) const;
-  void drawSample(QPainter& painter, const Entry& e, const QRectF& box) const;
-
-  std::vector<Entry> entries_;
+  std::vector<charts::LegendEntry> entries_;
 };
 
 }  // namespace calivera::ui
