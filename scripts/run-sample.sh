@@ -19,7 +19,7 @@ mkdir -p out
 uncertainty=(--bootstrap 200 --seed 2026 --compare sample_data/quick_model.json --subgroup site)
 build/bin/calivera validate --data "$data" --outcome "$outcome" --model "$model" "${uncertainty[@]}" \
   --thresholds 0.05,0.10,0.15,0.20,0.30 --json out/sample_validation.json --csv-dir out/tables \
-  --pdf out/sample_report.pdf --title "Sample study: Ashcombe score at Kestrel Bay (synthetic)" \
+  --pdf out/sample_report.pdf --reasonable-range 0.05:0.30 --title "Sample study: Ashcombe score at Kestrel Bay (synthetic)" \
   >/dev/null
 build/bin/calivera validate --data "$data" --outcome "$outcome" --model "$model" "${uncertainty[@]}" \
   --thresholds 0.05,0.10,0.15,0.20,0.30

@@ -30,7 +30,7 @@ constexpr const char* kHelp =
     "                         [--groups G] [--thresholds FROM:TO:STEP | T1,T2,...]\n"
     "                         [--json REPORT.json] [--csv-dir DIR]\n"
     "                         [--pdf REPORT.pdf [--title TEXT] [--suppress-below N]\n"
-    "                          [--paper a4|letter]]\n\n"
+    "                          [--paper a4|letter] [--reasonable-range LO:HI]]\n\n"
     "Discrimination, calibration and clinical utility of predicted risks on a cohort.\n\n"
     "  --data FILE          cohort CSV (header row)\n"
     "  --outcome COL        outcome column (0/1, or see --event-value)\n"
@@ -47,7 +47,11 @@ constexpr const char* kHelp =
     "  --title TEXT         the report's title\n"
     "  --suppress-below N   in the report, show counts from 1 to N-1 as <N and hide the\n"
     "                       counts that would reveal them (off by default)\n"
-    "  --paper SIZE         a4 (default) or letter\n";
+    "  --paper SIZE         a4 (default) or letter\n"
+    "  --reasonable-range LO:HI\n"
+    "                       the clinically reasonable thresholds (your choice, not the\n"
+    "                       data's): shaded on the report's decision curve, and the range of\n"
+    "                       its net-benefit comparison\n";
 
 std::vector<double> parseThresholds(const std::string& text) {
   const std::string option = "--thresholds";
@@ -79,8 +83,9 @@ std::vector<double> parseThresholds(const std::string& text) {
 
 int validateBody(const std::vector<std::string>& words) {
   OptionSpec spec;
-  spec.valued = {"--data", "--outcome", "--model", "--risk",  "--groups",         "--thresholds",
-                 "--json", "--csv-dir", "--pdf",   "--title", "--suppress-below", "--paper"};
+  spec.valued = {"--data",           "--outcome", "--model",           "--risk", "--groups",
+                 "--thresholds",     "--json",    "--csv-dir",         "--pdf",  "--title",
+                 "--suppress-below", "--paper",   "--reasonable-range"};
   spec.flags = {"--help"};
   addDataOptions(spec);
   addUncertaintyOptions(spec);  // uncertainty: --bootstrap, --compare, --subgroup, ...
@@ -116,9 +121,21 @@ int validateBody(const std::vector<std::string>& words) {
     }
   }
   const auto pdfPath = arguments.value("--pdf");
-  if (!pdfPath &&
-      (arguments.has("--title") || arguments.has("--suppress-below") || arguments.has("--paper"))) {
-    throw InputError("--title, --suppress-below and --paper need --pdf");
+  if (!pdfPath && (arguments.has("--title") || arguments.has("--suppress-below") ||
+                   arguments.has("--paper") || arguments.has("--reasonable-range"))) {
+    throw InputError("--title, --suppress-below, --paper and --reasonable-range need --pdf");
+  }
+  std::optional<Interval> reasonable;
+  if (const auto r = arguments.value("--reasonable-range")) {
+    const std::size_t colon = r->find(':');
+    if (colon == std::string::npos)
+      throw InputError("--reasonable-range: give LO:HI, e.g. 0.05:0.30");
+    const double lo = parseNumber(r->substr(0, colon), "--reasonable-range");
+    const double hi = parseNumber(r->substr(colon + 1), "--reasonable-range");
+    if (!(lo > 0.0 && lo < hi && hi < 1.0)) {
+      throw InputError("--reasonable-range: need 0 < LO < HI < 1, got " + *r);
+    }
+    reasonable = Interval{lo, hi};
   }
   std::size_t suppressBelow = 0;
   if (const auto n = arguments.value("--suppress-below")) {
@@ -133,6 +150,7 @@ int validateBody(const std::vector<std::string>& words) {
       ui::report::parsePaperSize(arguments.value("--paper").value_or("a4"), "--paper");
 #else
   (void)suppressBelow;
+  (void)reasonable;
   if (pdfPath) throw InputError("--pdf: this build has no PDF report (built without the UI)");
 #endif
   const ValidationRun run = runValidation(request);
@@ -143,12 +161,13 @@ int validateBody(const std::vector<std::string>& words) {
   const auto jsonPath = arguments.value("--json");
   const std::string jsonText = jsonPath ? validationJsonText(run, uncertainty) : std::string();
 #ifdef CALIVERA_HAVE_UI
-  const std::string pdf = pdfPath
-                              ? ui::report::renderAuditReportPdf(
-                                    auditInputFromRun(run, arguments.value("--title").value_or(""),
-                                                      suppressBelow, uncertainty),
-                                    paper)
-                              : std::string();
+  std::string pdf;
+  if (pdfPath) {
+    AuditReportInput input =
+        auditInputFromRun(run, arguments.value("--title").value_or(""), suppressBelow, uncertainty);
+    input.settings.reasonableThresholds = reasonable;
+    pdf = ui::report::renderAuditReportPdf(input, paper);
+  }
 #endif
   if (const auto dir = arguments.value("--csv-dir")) writeValidationTables(*dir, run, uncertainty);
 #ifdef CALIVERA_HAVE_UI

@@ -166,6 +166,26 @@ TEST_F(UncertaintyCommands, ValidatePdfAndCsvCarryTheUncertaintySections) {
     EXPECT_TRUE(fs::exists(dir_ / "tables" / table)) << table;
   }
 }
+
+TEST_F(UncertaintyCommands, ReasonableRangeIsStatedInTheReportAndCheckedOnInput) {
+  const std::string base = "validate --data " + kData + " --outcome low --model " +
+                           path("fitted.json") + " --pdf " + path("r.pdf");
+  ASSERT_EQ(run(base + " --reasonable-range 0.10:0.40"), 0);
+  const std::string text = pdfText(path("r.pdf"));
+  EXPECT_NE(text.find("0.10 to 0.40"), std::string::npos);
+  EXPECT_EQ(text.find("no reasonable threshold range was set"), std::string::npos);
+  for (const char* bad : {"0.40:0.10", "0.1", "0:0.5", "a:b"}) {
+    EXPECT_EQ(run(base.substr(0, base.find(" --pdf")) + " --pdf " + path("bad.pdf") +
+                  " --reasonable-range " + bad),
+              2)
+        << bad;
+    EXPECT_FALSE(fs::exists(path("bad.pdf"))) << bad;
+  }
+  // Without --pdf the option has nothing to act on.
+  EXPECT_EQ(run("validate --data " + kData + " --outcome low --model " + path("fitted.json") +
+                " --reasonable-range 0.1:0.3"),
+            2);
+}
 #endif
 
 }  // namespace
