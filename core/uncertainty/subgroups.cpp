@@ -3,6 +3,7 @@
 #include <algorithm>
 #include <charconv>
 #include <map>
+#include <set>
 
 #include "core/util/errors.h"
 
@@ -30,6 +31,14 @@ std::vector<std::string> subgroupLabels(const Table& table, const std::string& c
     } else {
       labels.push_back(shortestNumber(c.numbers[row]));
     }
+  }
+  const std::set<std::string> distinct(labels.begin(), labels.end());
+  if (distinct.size() > kMaxSubgroupLevels) {
+    throw InputError(
+        table.sourceName + ": column '" + column + "' has " + std::to_string(distinct.size()) +
+        " distinct values; a subgroup column needs at most " + std::to_string(kMaxSubgroupLevels) +
+        " levels (group a continuous value into bands first; identifiers are never "
+        "subgroups)");
   }
   return labels;
 }

@@ -20,6 +20,10 @@
 namespace calivera {
 
 inline constexpr const char* kMissingLevel = "(missing)";
+// More levels than this and the column is not a grouping (an identifier, a continuous value):
+// refused, because every level's label is printed in the outputs and most levels would be too
+// small to judge anyway.
+inline constexpr std::size_t kMaxSubgroupLevels = 50;
 
 struct SubgroupResult {
   std::string level;
@@ -36,7 +40,8 @@ struct SubgroupAnalysis {
 };
 
 // The subgroup label of each selected row: text levels as written, numbers in shortest form,
-// missing as kMissingLevel. Throws InputError naming the file and column when absent.
+// missing as kMissingLevel. Throws InputError naming the file and column when absent, or when
+// the column has more than kMaxSubgroupLevels distinct values among the rows.
 std::vector<std::string> subgroupLabels(const Table& table, const std::string& column,
                                         const std::vector<std::uint32_t>& rows);
 

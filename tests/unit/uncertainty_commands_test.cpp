@@ -167,6 +167,18 @@ TEST_F(UncertaintyCommands, ValidatePdfAndCsvCarryTheUncertaintySections) {
   }
 }
 
+TEST_F(UncertaintyCommands, AnIdentifierLikeSubgroupColumnIsRefusedWithoutOutput) {
+  // birthwt's bwt (birth weight in grams) has over a hundred distinct values.
+  EXPECT_EQ(run("validate --data " + kData + " --outcome low --model " + path("fitted.json") +
+                " --subgroup bwt --json " + path("never.json")),
+            2);
+  EXPECT_FALSE(fs::exists(path("never.json")));
+  std::ifstream err(path("stderr.txt"));
+  const std::string message((std::istreambuf_iterator<char>(err)), {});
+  EXPECT_NE(message.find("'bwt'"), std::string::npos) << message;
+  EXPECT_NE(message.find("distinct values"), std::string::npos) << message;
+}
+
 TEST_F(UncertaintyCommands, ReasonableRangeIsStatedInTheReportAndCheckedOnInput) {
   const std::string base = "validate --data " + kData + " --outcome low --model " +
                            path("fitted.json") + " --pdf " + path("r.pdf");
