@@ -6,6 +6,7 @@
 #include "app/cli/validate_command.h"
 
 #include <iostream>
+#include <sstream>
 
 #include "app/cli/arguments.h"
 #include "app/cli/data_options.h"
@@ -177,8 +178,9 @@ int validateBody(const std::vector<std::string>& words) {
     writeFileAtomically(*jsonPath, jsonText);
   } else {
     printSampleSizeSummary(std::cout, uncertainty);  // uncertainty: adequacy before results
-    std::cout << validationSummaryText(run);
-    printUncertaintySummary(std::cout, uncertainty);
+    std::ostringstream intervals;
+    printUncertaintySummary(intervals, uncertainty);
+    std::cout << validationSummaryText(run, intervals.str());
   }
   return 0;
 }

@@ -1,6 +1,9 @@
 #include "app/cli/validate_uncertainty.h"
 
 #include <cmath>
+#include <cstdio>
+#include <cstring>
+#include <string>
 
 #include "core/report/validation_json.h"
 #include "core/uncertainty/uncertainty_json.h"
@@ -9,8 +12,22 @@
 namespace calivera::cli {
 namespace {
 
+// Four decimals, as the summary tables print their estimates; "undefined" for NaN.
+std::string fixed4(double v) {
+  if (std::isnan(v)) return "undefined";
+  char buffer[64];
+  std::snprintf(buffer, sizeof buffer, "%.4f", v);
+  return std::strcmp(buffer, "-0.0000") == 0 ? std::string("0.0000") : std::string(buffer);
+}
+
+std::string pValueText(double p) {
+  if (std::isnan(p)) return "undefined";
+  return p < 0.0001 ? std::string("< 0.0001") : fixed4(p);
+}
+
 void printEstimate(std::ostream& out, const char* name, const BootstrapEstimate& e) {
-  out << "  " << name << ": " << e.estimate << " (95% CI " << e.ci.lo << " to " << e.ci.hi << ")\n";
+  out << "  " << name << ": " << fixed4(e.estimate) << " (95% CI " << fixed4(e.ci.lo) << " to "
+      << fixed4(e.ci.hi) << ")\n";
 }
 
 }  // namespace
@@ -84,8 +101,8 @@ void printSampleSizeSummary(std::ostream& out, const UncertaintyResults& r) {
   for (const auto& c : s.criteria) {
     out << "  " << (c.met ? "met    " : "not met") << "  " << c.criterion
         << ": n >= " << c.requiredN << " (" << c.requiredEvents << " events) for a 95% CI width of "
-        << c.targetCiWidth;
-    if (c.achievedCiWidth) out << "; achieved width " << *c.achievedCiWidth;
+        << fixed4(c.targetCiWidth);
+    if (c.achievedCiWidth) out << "; achieved width " << fixed4(*c.achievedCiWidth);
     out << '\n';
   }
   out << '\n';
@@ -111,8 +128,9 @@ void printUncertaintySummary(std::ostream& out, const UncertaintyResults& r) {
     for (const auto& pair : r.comparison->pairs) {
       const PairedAucTest& t = pair.auc;
       out << "  AUC " << r.comparison->models[t.first] << " - " << r.comparison->models[t.second]
-          << " = " << t.difference << " (95% CI " << t.differenceCi.lo << " to "
-          << t.differenceCi.hi << "), paired DeLong z " << t.z << ", p " << t.pValue << '\n';
+          << " = " << fixed4(t.difference) << " (95% CI " << fixed4(t.differenceCi.lo) << " to "
+          << fixed4(t.differenceCi.hi) << "), paired DeLong z " << fixed4(t.z) << ", p "
+          << pValueText(t.pValue) << '\n';
     }
     for (const auto& w : r.comparison->warnings) out << "  warning: " << w << '\n';
   }
@@ -121,8 +139,9 @@ void printUncertaintySummary(std::ostream& out, const UncertaintyResults& r) {
     for (const auto& level : analysis.levels) {
       out << "  " << level.level << ": n " << level.n << ", events " << level.events;
       if (level.metrics) {
-        out << ", AUC " << level.metrics->discrimination.auc << ", slope "
-            << level.metrics->calibration.slope << ", O/E " << level.metrics->calibration.oeRatio;
+        out << ", AUC " << fixed4(level.metrics->discrimination.auc) << ", slope "
+            << fixed4(level.metrics->calibration.slope) << ", O/E "
+            << fixed4(level.metrics->calibration.oeRatio);
       }
       out << '\n';
       for (const auto& w : level.warnings) out << "    warning: " << w << '\n';

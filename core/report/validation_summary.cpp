@@ -39,7 +39,7 @@ std::vector<double> summaryThresholds(const std::vector<double>& computed) {
 
 }  // namespace
 
-std::string validationSummaryText(const ValidationRun& run) {
+std::string validationSummaryText(const ValidationRun& run, const std::string& beforeCaution) {
   const ValidationResult& r = run.result;
   const Calibration& c = r.calibration;
   std::ostringstream out;
@@ -107,6 +107,7 @@ std::string validationSummaryText(const ValidationRun& run) {
     out << "\nWarnings\n";
     for (const std::string& w : r.warnings) out << "  - " << w << "\n";
   }
+  if (!beforeCaution.empty()) out << "\n" << beforeCaution;
   out << "\n" << kCautionText << "\n";
   return out.str();
 }

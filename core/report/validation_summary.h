@@ -10,6 +10,8 @@
 
 namespace calivera {
 
-std::string validationSummaryText(const ValidationRun& run);
+// `beforeCaution` (e.g. the uncertainty results) is printed after the warnings, so the caution
+// stays the last thing a reader sees.
+std::string validationSummaryText(const ValidationRun& run, const std::string& beforeCaution = {});
 
 }  // namespace calivera
