@@ -165,6 +165,12 @@ void MainWindow::rebuildViews() {
            "on the cohort (Model → Fit a model)."));
   }
   summary_->setHtml(summaryHtml(study_));
+  if (study_.uncertainty && study_.result) {
+    confusion_->setAdequacy(toQ(study_.uncertainty->sampleSize.verdict),
+                            study_.uncertainty->sampleSize.adequate);
+  } else {
+    confusion_->setAdequacy({}, false);
+  }
   comparisonView_->setResults(study_.uncertainty, study_.analysis.reasonableLo,
                               study_.analysis.reasonableHi);
   subgroupView_->setResults(study_.uncertainty);

@@ -565,6 +565,19 @@ class MainWindowTest : public QObject {
     QVERIFY(html.contains(QString::number(w.study().result->discrimination.auc, 'f', 3)));
   }
 
+  // The linked views' side panel repeats core's sample-size verdict under the counts.
+  void sidePanelSaysWhetherTheCohortIsLargeEnough() {
+    MainWindow w;
+    openStudy(w);
+    QVERIFY(w.study().uncertainty != nullptr);
+    const SampleSizeAssessment& s = w.study().uncertainty->sampleSize;
+    auto* label = child<QLabel>(w, "adequacyText");
+    QVERIFY(!label->isHidden());
+    QVERIFY2(label->text().contains(QString::fromStdString(s.verdict).toHtmlEscaped()),
+             qPrintable(label->text()));
+    QCOMPARE(label->text().contains("Not for every measure"), !s.adequate);
+  }
+
   // The window's uncertainty run against core's own pipeline (the command line's route:
   // runValidation + runUncertainty on the files) on the sample data.
   void uncertaintyViewsMatchCore() {

@@ -95,6 +95,14 @@ ConfusionPanel::ConfusionPanel(QWidget* parent) : QWidget(parent) {
   naturalFrequency_->setWordWrap(true);
   naturalFrequency_->setTextInteractionFlags(Qt::TextSelectableByMouse);
   layout->addWidget(naturalFrequency_);
+  adequacyHeading_ = heading(tr("Is the cohort large enough?"), QStringLiteral("adequacyHeading"));
+  layout->addWidget(adequacyHeading_);
+  adequacy_ = new QLabel;
+  adequacy_->setObjectName(QStringLiteral("adequacyText"));
+  adequacy_->setWordWrap(true);
+  adequacy_->setTextInteractionFlags(Qt::TextSelectableByMouse);
+  layout->addWidget(adequacy_);
+  setAdequacy({}, false);
   // Reserve the wrapped height explicitly: word-wrapped labels in a side panel otherwise get one
   // line's height and overlap their neighbours.
   const int line = fontMetrics().lineSpacing();
@@ -102,7 +110,8 @@ ConfusionPanel::ConfusionPanel(QWidget* parent) : QWidget(parent) {
   netBenefit_->setMinimumHeight(3 * line + 4);
   naturalFrequency_->setMinimumHeight(6 * line + 4);
   // ...and top-aligned, so the reserved height does not open a gap under each heading.
-  for (QLabel* l : {rates_, netBenefit_, naturalFrequency_}) {
+  adequacy_->setMinimumHeight(4 * line + 4);
+  for (QLabel* l : {rates_, netBenefit_, naturalFrequency_, adequacy_}) {
     l->setAlignment(Qt::AlignLeft | Qt::AlignTop);
   }
   layout->addStretch(1);
@@ -136,6 +145,17 @@ void ConfusionPanel::setSnapshot(const ThresholdSnapshot& s) {
   netBenefit_->setText(tr("Net benefit %1 (treat everyone: %2, treat no one: 0)")
                            .arg(fixed(s.netBenefit, 4), fixed(s.netBenefitTreatAll, 4)));
   naturalFrequency_->setText(naturalFrequencyText(s));
+}
+
+void ConfusionPanel::setAdequacy(const QString& verdict, bool adequate) {
+  adequacyHeading_->setVisible(!verdict.isEmpty());
+  adequacy_->setVisible(!verdict.isEmpty());
+  // Not met is said in words first; the colour only repeats it.
+  adequacy_->setText(verdict.isEmpty()
+                         ? QString()
+                         : (adequate ? QString() : tr("<b>Not for every measure.</b> ")) +
+                               verdict.toHtmlEscaped() + tr(" Details: the Summary tab."));
+  adequacy_->setStyleSheet(adequate ? QString() : QStringLiteral("color: #8a3b00;"));
 }
 
 void ConfusionPanel::clear() {

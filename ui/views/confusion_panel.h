@@ -18,6 +18,9 @@ class ConfusionPanel : public QWidget {
   explicit ConfusionPanel(QWidget* parent = nullptr);
   void setSnapshot(const ThresholdSnapshot& snapshot);
   void clear();
+  // The sample-size verdict, shown under the counts so nobody reads them without it; an empty
+  // text hides the section.
+  void setAdequacy(const QString& verdict, bool adequate);
 
   // The natural-frequency sentence for a snapshot (also used by tests and the report).
   static QString naturalFrequencyText(const ThresholdSnapshot& snapshot);
@@ -37,6 +40,8 @@ class ConfusionPanel : public QWidget {
   QLabel* rates_ = nullptr;
   QLabel* netBenefit_ = nullptr;
   QLabel* naturalFrequency_ = nullptr;
+  QLabel* adequacyHeading_ = nullptr;
+  QLabel* adequacy_ = nullptr;
 };
 
 }  // namespace calivera::ui
