@@ -30,6 +30,8 @@ constexpr const char* kUsage =
     "  --predictors LIST      comma-separated predictor columns\n"
     "  --categorical LIST     numeric predictors to code by level instead of linearly\n"
     "  --reference COL=LEVEL  reference level of a categorical predictor (repeatable)\n"
+    "  --spline COL=K         a numeric predictor as a restricted cubic spline with K knots\n"
+    "                         (3 to 7) at Harrell's default quantiles (repeatable)\n"
     "  --firth                Firth's penalized likelihood (finite estimates under separation)\n"
     "  --max-iterations N     Newton-Raphson iteration limit (default 100)\n"
     "  --name TEXT            model name stored in the file\n"
@@ -120,7 +122,7 @@ void printSummary(const CohortFit& result, const std::string& dataPath) {
 int runFitCommand(const std::vector<std::string>& words) {
   const OptionSpec spec{
       {"--data", "--outcome", "--predictors", "--out", "--reference", "--delimiter", "--missing",
-       "--event-value", "--name", "--categorical", "--max-iterations"},
+       "--event-value", "--name", "--categorical", "--max-iterations", "--spline"},
       {"--firth", "--help"}};
   const Arguments args(words, spec);
   if (args.has("--help")) {
@@ -148,6 +150,15 @@ int runFitCommand(const std::vector<std::string>& words) {
       throw InputError("--reference: '" + item + "' is not COLUMN=LEVEL");
     }
     fitSpec.referenceLevels[item.substr(0, eq)] = item.substr(eq + 1);
+  }
+  for (const std::string& item : args.values("--spline")) {
+    const auto eq = item.find('=');
+    if (eq == std::string::npos || eq == 0 || eq + 1 == item.size()) {
+      throw InputError("--spline: '" + item + "' is not COLUMN=KNOTS");
+    }
+    const long long knots = parseInteger(item.substr(eq + 1), "--spline");
+    if (knots < 3 || knots > 7) throw InputError("--spline: '" + item + "': give 3 to 7 knots");
+    fitSpec.splineKnots[item.substr(0, eq)] = static_cast<int>(knots);
   }
   fitSpec.fit.firth = args.has("--firth");
   if (auto limit = args.value("--max-iterations")) {

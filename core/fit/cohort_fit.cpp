@@ -3,6 +3,7 @@
 #include <algorithm>
 #include <charconv>
 
+#include "core/fit/spline_knots.h"
 #include "core/model/linear_predictor.h"
 #include "core/util/errors.h"
 #include "core/util/number_format.h"
@@ -38,6 +39,19 @@ void checkPredictors(const Table& table, const CohortFitSpec& spec) {
   for (const std::string& column : spec.categorical) {
     if (!seen.count(column)) {
       throw InputError("'" + column + "' is declared categorical but is not among the predictors");
+    }
+  }
+  for (const auto& [column, knots] : spec.splineKnots) {
+    if (!seen.count(column)) {
+      throw InputError("a spline is asked for '" + column + "', which is not among the predictors");
+    }
+    if (table.require(column).kind != ColumnKind::Numeric || spec.categorical.count(column)) {
+      throw InputError("a spline is asked for '" + column +
+                       "', which is categorical; a spline needs a numeric predictor");
+    }
+    if (knots < kMinSplineKnots || knots > kMaxSplineKnots) {
+      throw InputError("spline for '" + column + "': give 3 to 7 knots, not " +
+                       std::to_string(knots));
     }
   }
 }
@@ -177,6 +191,23 @@ CohortFit fitCohortModel(const Table& table, const CohortFitSpec& spec) {
   Model& model = result.model;
   for (const std::string& name : spec.predictors) {
     const Column& column = table.require(name);
+    if (const auto spline = spec.splineKnots.find(name); spline != spec.splineKnots.end()) {
+      std::vector<double> values;
+      values.reserve(rows.size());
+      for (const std::uint32_t row : rows) values.push_back(column.numbers[row]);
+      const std::vector<double> knots = defaultSplineKnots(std::move(values), spline->second, name);
+      for (int basis = 0; basis + 2 <= spline->second; ++basis) {
+        Term term;
+        term.name = name + " spline " + std::to_string(basis);
+        term.variable = name;
+        term.kind = TransformKind::Spline;
+        term.knots = knots;
+        term.basisIndex = basis;
+        term.splineScaled = true;
+        model.terms.push_back(term);
+      }
+      continue;
+    }
     if (column.kind == ColumnKind::Numeric && !spec.categorical.count(name)) {
       Term term;
       term.name = name;

@@ -29,6 +29,10 @@ struct CohortFitSpec {
   std::vector<std::string> predictors;
   std::map<std::string, std::string> referenceLevels;  // column -> reference level
   std::set<std::string> categorical;                   // numeric columns to treat as categories
+  // Numeric columns entered as a restricted cubic spline (Harrell) with this many knots (3..7)
+  // at the default quantiles of the analysed rows (spline_knots.h), instead of linearly. The
+  // terms are "COLUMN spline 0" (the linear part) to "COLUMN spline k-2".
+  std::map<std::string, int> splineKnots;
   std::string modelName;
   FitOptions fit;
 };
@@ -48,9 +52,9 @@ struct CohortFit {
 };
 
 // InputError: unknown or repeated column, outcome used as a predictor, reference level that does
-// not occur, bad outcome coding. AnalysisError: no rows left, a predictor with a single value,
-// and any FitProblem (separation and non-convergence unless Firth resolved them), naming the
-// terms and variables involved.
+// not occur, bad outcome coding, a spline on a column that is not a numeric predictor.
+// AnalysisError: no rows left, a predictor with a single value, and any FitProblem (separation and
+// non-convergence unless Firth resolved them), naming the terms and variables involved.
 CohortFit fitCohortModel(const Table& table, const CohortFitSpec& spec);
 
 }  // namespace calivera

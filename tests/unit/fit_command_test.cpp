@@ -120,6 +120,23 @@ TEST(FitCommand, CodesCategoriesAndReportsExclusions) {
   EXPECT_EQ(model.development.n, 11);
 }
 
+TEST(FitCommand, SplineWritesOneTermPerBasisFunctionAndRejectsBadRequests) {
+  const Fixture f;
+  const CliRun run = f.fit({"--spline", "a=3"}, "a,b");
+  ASSERT_EQ(run.status, 0) << run.err;
+  const Model model = readModelFile(f.out);
+  ASSERT_EQ(model.terms.size(), 3u);  // a spline 0, a spline 1, b
+  EXPECT_EQ(model.terms[0].name, "a spline 0");
+  EXPECT_EQ(model.terms[1].kind, TransformKind::Spline);
+  EXPECT_EQ(model.terms[1].knots.size(), 3u);
+  EXPECT_EQ(model.terms[2].name, "b");
+  std::filesystem::remove(f.out);
+  expectError(f.fit({"--spline", "a=2"}, "a,b"), 2, "3 to 7 knots");
+  expectError(f.fit({"--spline", "site=3"}, "a,site"), 2, "categorical");
+  expectError(f.fit({"--spline", "a"}, "a,b"), 2, "COLUMN=KNOTS");
+  EXPECT_FALSE(f.wroteModel());
+}
+
 TEST(FitCommand, HelpExitsZero) {
   const CliRun run = runCalivera({"fit", "--help"});
   EXPECT_EQ(run.status, 0);
