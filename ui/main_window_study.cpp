@@ -429,7 +429,7 @@ void MainWindow::onFitModel() {
   }
   FitDialog dialog(table_, study_.import, study_.fit, this);
   if (dialog.exec() != QDialog::Accepted || !dialog.fitted()) return;
-  useFittedModel(dialog.fitSettings(), dialog.fitted()->model, dialog.fitted()->warnings);
+  useFittedModel(dialog.fittedWith(), dialog.fitted()->model, dialog.fitted()->warnings);
 }
 
 void MainWindow::onMapVariables() {

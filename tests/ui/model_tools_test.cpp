@@ -6,17 +6,20 @@
 #include <QAction>
 #include <QCheckBox>
 #include <QLabel>
+#include <QLineEdit>
 #include <QSpinBox>
 #include <QTableView>
 #include <QTemporaryDir>
 #include <QtTest>
 
+#include "core/data/csv_reader.h"
 #include "core/fit/cohort_fit.h"
 #include "core/metrics/validation_run.h"
 #include "core/model/model_io.h"
 #include "core/uncertainty/internal_validation.h"
 #include "ui/async/background_job.h"
 #include "ui/charts/chart_text.h"
+#include "ui/dialogs/fit_dialog.h"
 #include "ui/dialogs/internal_validation_dialog.h"
 #include "ui/dialogs/model_update_dialog.h"
 #include "ui/main_window.h"
@@ -163,6 +166,35 @@ class ModelToolsTest : public QObject {
     QCOMPARE(saved.count(), 0);
   }
 
+  // The fit dialog with a spline: the coefficient table and the deviance of R's glm with the
+  // same spline space (tests/reference/data/birthwt_spline.csv, R 4.2.2, splines::ns).
+  void fitDialogFitsASplineAsRDoes() {
+    const auto table =
+        std::make_shared<const Table>(readCsvFile(kBirthwt.toStdString(), CsvOptions{}).table);
+    ImportSettings import;
+    import.outcomeColumn = "low";
+    FitSettings initial;
+    initial.predictors = {"age", "lwt", "race", "smoke"};
+    FitDialog dialog(table, import, initial);
+    auto* splines = child<QLineEdit>(dialog, "fitSplines");
+    splines->setText("age=9");
+    dialog.startFit();
+    QVERIFY(dialog.fitted() == nullptr);
+    QVERIFY(child<QLabel>(dialog, "fitStatus")->text().contains("3 to 7 knots"));
+    splines->setText("age=4");
+    dialog.startFit();
+    dialog.job()->waitForFinished();
+    QVERIFY(dialog.fitted() != nullptr);
+    QCOMPARE(dialog.fittedWith().splineKnots, (std::map<std::string, int>{{"age", 4}}));
+    const Model& m = dialog.fitted()->model;
+    QCOMPARE(m.terms[0].name, std::string("age spline 0"));
+    QCOMPARE(m.terms[2].name, std::string("age spline 2"));
+    QVERIFY(std::abs(dialog.fitted()->fit.deviance - 209.9751131607876) < 1e-7);
+    // One row per coefficient: the intercept and every term.
+    QCOMPARE(child<QTableView>(dialog, "fitCoefficientTable")->model()->rowCount(),
+             static_cast<int>(m.terms.size()) + 1);
+  }
+
   // With CALIVERA_SCREENSHOT_DIR set: both dialogs after a run, as PNG (docs/screenshots).
   void screenshots() {
     const QByteArray folder = qgetenv("CALIVERA_SCREENSHOT_DIR");
@@ -180,6 +212,17 @@ class ModelToolsTest : public QObject {
     update.show();
     QVERIFY(QTest::qWaitForWindowExposed(&update));
     QVERIFY(update.grab().save(QString::fromUtf8(folder) + "/model_update_dialog.png"));
+    ImportSettings import;
+    import.outcomeColumn = "low";
+    FitSettings settings;
+    settings.predictors = {"age", "lwt", "race", "smoke"};
+    settings.splineKnots = {{"age", 4}};
+    FitDialog fit(window_.table(), import, settings);
+    fit.startFit();
+    fit.job()->waitForFinished();
+    fit.show();
+    QVERIFY(QTest::qWaitForWindowExposed(&fit));
+    QVERIFY(fit.grab().save(QString::fromUtf8(folder) + "/fit_dialog.png"));
   }
 
  private:

@@ -15,6 +15,7 @@
 #include "ui/models/uncertainty_tables.h"
 #include "ui/state/predictor_space.h"
 #include "ui/state/readings.h"
+#include "ui/state/spline_list.h"
 #include "ui/state/study_file.h"
 #include "ui/state/threshold_state.h"
 #include "ui/state/unit_check.h"
@@ -127,6 +128,7 @@ class UiLogicTest : public QObject {
     s.modelSource = ModelSource::Fitted;
     s.fit.predictors = {"x"};
     s.fit.firth = true;
+    s.fit.splineKnots = {{"x", 4}};
     s.columnMapping = {{"a", "b"}};
     s.analysis.threshold = 0.125;
     s.analysis.groups = 8;
@@ -141,6 +143,7 @@ class UiLogicTest : public QObject {
     QVERIFY(r.modelSource == ModelSource::Fitted);
     QCOMPARE(r.fit.predictors, s.fit.predictors);
     QVERIFY(r.fit.firth);
+    QCOMPARE(r.fit.splineKnots, s.fit.splineKnots);
     QCOMPARE(r.columnMapping, s.columnMapping);
     QCOMPARE(r.analysis.threshold, 0.125);
     QCOMPARE(r.analysis.groups, 8);
@@ -148,6 +151,21 @@ class UiLogicTest : public QObject {
     const auto checks = checkInputs(r);  // recorded SHA "abc" is not the file's
     QCOMPARE(checks.size(), std::size_t{1});
     QCOMPARE(checks[0].problem, std::string("changed since the study was saved"));
+  }
+
+  void splineListParsesAndRejectsWithTheItem() {
+    const auto parsed = parseSplineList(" age=4, bmi = 3 ,");
+    QCOMPARE(parsed, (std::map<std::string, int>{{"age", 4}, {"bmi", 3}}));
+    QCOMPARE(formatSplineList(parsed), std::string("age=4, bmi=3"));
+    QVERIFY(parseSplineList("").empty());
+    for (const char* bad : {"age", "age=2", "age=8", "=4", "age=4x", "age=4, age=5"}) {
+      try {
+        parseSplineList(bad);
+        QFAIL(bad);
+      } catch (const InputError& e) {
+        QVERIFY2(std::string(e.what()).find("splines:") == 0, e.what());
+      }
+    }
   }
 
   void studyFileKeepsUncertaintySettings() {

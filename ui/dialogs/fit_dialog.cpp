@@ -5,6 +5,7 @@
 #include <QHBoxLayout>
 #include <QHeaderView>
 #include <QLabel>
+#include <QLineEdit>
 #include <QListWidget>
 #include <QPushButton>
 #include <QTableView>
@@ -14,6 +15,7 @@
 #include "ui/async/background_job.h"
 #include "ui/models/record_table_model.h"
 #include "ui/models/result_tables.h"
+#include "ui/state/spline_list.h"
 
 namespace calivera::ui {
 
@@ -46,6 +48,18 @@ FitDialog::FitDialog(std::shared_ptr<const Table> table, ImportSettings import,
   firth_->setObjectName(QStringLiteral("fitFirth"));
   firth_->setChecked(initial.firth);
   left->addWidget(firth_);
+  auto* splineLabel = new QLabel(tr("Restricted cubic splines (COLUMN=KNOTS, 3 to 7 knots):"));
+  splineLabel->setObjectName(QStringLiteral("fitSplinesLabel"));
+  splineLabel->setWordWrap(true);
+  left->addWidget(splineLabel);
+  splines_ = new QLineEdit(QString::fromStdString(formatSplineList(initial.splineKnots)));
+  splines_->setObjectName(QStringLiteral("fitSplines"));
+  splines_->setPlaceholderText(tr("e.g. age=4, bmi=3"));
+  splines_->setToolTip(
+      tr("Numeric predictors to enter as a restricted cubic spline instead of linearly; knots "
+         "at Harrell's default quantiles of this cohort"));
+  splineLabel->setBuddy(splines_);
+  left->addWidget(splines_);
   fitButton_ = new QPushButton(tr("&Fit"));
   fitButton_->setObjectName(QStringLiteral("fitRun"));
   left->addWidget(fitButton_);
@@ -91,6 +105,7 @@ FitSettings FitDialog::fitSettings() const {
     }
   }
   s.firth = firth_->isChecked();
+  s.splineKnots = parseSplineList(splines_->text().toStdString());
   return s;
 }
 
@@ -98,7 +113,13 @@ void FitDialog::startFit() {
   fitted_.reset();
   accept_->setEnabled(false);
   coefficients_->setTable({}, {}, {});
-  const FitSettings settings = fitSettings();
+  FitSettings settings;
+  try {
+    settings = fitSettings();
+  } catch (const std::exception& e) {
+    status_->setText(QString::fromStdString(e.what()).toHtmlEscaped());
+    return;
+  }
   if (settings.predictors.empty()) {
     status_->setText(tr("Choose at least one predictor."));
     return;
@@ -109,8 +130,9 @@ void FitDialog::startFit() {
       [table = table_, import = import_, settings](const ProgressCallback& progress) {
         return fitModel(*table, import, settings, progress);
       };
-  std::function<void(FittedModel&)> done = [this](FittedModel& result) {
+  std::function<void(FittedModel&)> done = [this, settings](FittedModel& result) {
     fitted_ = std::move(result);
+    fittedWith_ = settings;
     fillCoefficientTable(*coefficients_, fitted_->model);
     QString text = tr("Fitted on %1 patients (%2 events), %3 iterations, deviance %4.")
                        .arg(fitted_->exclusions.rowsAnalysed)

@@ -13,6 +13,7 @@
 class QListWidget;
 class QCheckBox;
 class QLabel;
+class QLineEdit;
 class QPushButton;
 class QTableView;
 
@@ -28,8 +29,11 @@ class FitDialog : public QDialog {
   FitDialog(std::shared_ptr<const Table> table, ImportSettings import, const FitSettings& initial,
             QWidget* parent = nullptr);
 
+  // Throws InputError when the spline field is not COLUMN=KNOTS, ... (spline_list.h).
   FitSettings fitSettings() const;
   const FittedModel* fitted() const { return fitted_ ? &*fitted_ : nullptr; }
+  // The settings the shown fit was made with (the fields may have been edited since).
+  const FitSettings& fittedWith() const { return fittedWith_; }
   BackgroundJob* job() const { return job_; }
   void startFit();
 
@@ -37,8 +41,10 @@ class FitDialog : public QDialog {
   std::shared_ptr<const Table> table_;
   ImportSettings import_;
   std::optional<FittedModel> fitted_;
+  FitSettings fittedWith_;
   QListWidget* predictors_ = nullptr;
   QCheckBox* firth_ = nullptr;
+  QLineEdit* splines_ = nullptr;
   QPushButton* fitButton_ = nullptr;
   QPushButton* accept_ = nullptr;
   QLabel* status_ = nullptr;

@@ -132,23 +132,26 @@ void fillCoefficientTable(RecordTableModel& model, const Model& riskModel) {
       QStringLiteral("Standard error, when the model file or the fit provides it"),
       QStringLiteral("Wald interval: coefficient − 1.96 SE"),
       QStringLiteral("Wald interval: coefficient + 1.96 SE"),
-      QStringLiteral("exp(coefficient)"),
+      QStringLiteral("exp(coefficient); not shown for spline parts and the intercept, where "
+                     "a per-unit odds ratio has no reading of its own"),
       QStringLiteral("Unit the model expects, when stated")};
-  auto row = [](const QString& name, const Estimate& e, const QString& unit) {
+  auto row = [](const QString& name, const Estimate& e, const QString& unit, bool oddsRatio) {
     const double se = e.se.value_or(std::numeric_limits<double>::quiet_NaN());
-    return std::vector<TableCell>{{name, 0.0},
-                                  number(e.coefficient, 4),
-                                  number(se, 4),
-                                  number(e.coefficient - kZ95 * se, 4),
-                                  number(e.coefficient + kZ95 * se, 4),
-                                  number(std::exp(e.coefficient), 4),
-                                  {unit, 0.0}};
+    return std::vector<TableCell>{
+        {name, 0.0},
+        number(e.coefficient, 4),
+        number(se, 4),
+        number(e.coefficient - kZ95 * se, 4),
+        number(e.coefficient + kZ95 * se, 4),
+        oddsRatio ? number(std::exp(e.coefficient), 4) : cells::text(QStringLiteral("—")),
+        {unit, 0.0}};
   };
   std::vector<std::vector<TableCell>> cells;
-  cells.push_back(row(QStringLiteral("(intercept)"), riskModel.intercept, QString()));
+  cells.push_back(row(QStringLiteral("(intercept)"), riskModel.intercept, QString(), false));
   for (const Term& t : riskModel.terms) {
     cells.push_back(row(QString::fromStdString(t.name), t.estimate,
-                        QString::fromStdString(t.unit.value_or(""))));
+                        QString::fromStdString(t.unit.value_or("")),
+                        t.kind != TransformKind::Spline));
   }
   model.setTable(headers, tips, std::move(cells));
 }

@@ -116,6 +116,7 @@ FittedModel fitModel(const Table& table, const ImportSettings& import, const Fit
   spec.predictors = fit.predictors;
   spec.modelName = "Fitted on " + std::filesystem::path(table.sourceName).filename().string();
   spec.fit.firth = fit.firth;
+  spec.splineKnots = fit.splineKnots;
   spec.fit.progress = progress;
   // Separation and non-convergence without Firth are AnalysisErrors naming the terms; the fit
   // dialog shows them as the reason the fit failed.

@@ -61,8 +61,9 @@ struct FittedModel {
   std::vector<std::string> warnings;  // separation, convergence, rank, in plain words
 };
 
-// Logistic regression of the outcome on the chosen predictors: numeric columns enter linearly,
-// text columns as indicators of each level but the first (the reference level).
+// Logistic regression of the outcome on the chosen predictors: numeric columns enter linearly (or
+// as restricted cubic splines where fit.splineKnots says), text columns as indicators of each
+// level but the first (the reference level).
 FittedModel fitModel(const Table& table, const ImportSettings& import, const FitSettings& fit,
                      const ProgressCallback& progress);
 

@@ -109,6 +109,7 @@ std::string studyToJson(const StudyState& study, const std::string& studyPath) {
   if (study.modelFile) model["file"] = fileRecord(*study.modelFile, studyPath);
   model["predictors"] = study.fit.predictors;
   model["firth"] = study.fit.firth;
+  model["splineKnots"] = study.fit.splineKnots;
   model["fitted"] = (study.modelSource == ModelSource::Fitted && study.model)
                         ? json::parse(modelToJson(*study.model))
                         : json(nullptr);
@@ -182,6 +183,8 @@ StudyState parseStudyJson(const std::string& text, const std::string& studyPath)
   if (s.modelSource == ModelSource::File && !s.modelFile) in.fail("model.file", "missing");
   s.fit.predictors = in.get<std::vector<std::string>>(model, "predictors", "model.predictors", {});
   s.fit.firth = in.get<bool>(model, "firth", "model.firth", false);
+  s.fit.splineKnots =
+      in.get<std::map<std::string, int>>(model, "splineKnots", "model.splineKnots", {});
   if (model.contains("fitted") && !model.at("fitted").is_null()) {
     s.model = parseModelJson(model.at("fitted").dump(), studyPath + " (model.fitted)");
   }

@@ -35,6 +35,7 @@ enum class ModelSource { None, File, Fitted };
 struct FitSettings {
   std::vector<std::string> predictors;  // cohort columns; text columns become indicator terms
   bool firth = false;
+  std::map<std::string, int> splineKnots;  // numeric predictor -> restricted cubic spline knots
 };
 
 struct AnalysisSettings {
