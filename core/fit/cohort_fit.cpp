@@ -239,6 +239,9 @@ CohortFit fitCohortModel(const Table& table, const CohortFitSpec& spec) {
   result.events = static_cast<std::size_t>(y.sum());
   result.fit = fitLogistic(X, y, nullptr, spec.fit);
   throwForProblem(table, model, result.fit);
+  if (spec.profileIntervals && !spec.fit.firth) {
+    result.profile = profileLikelihoodIntervals(X, y, result.fit, spec.fit);
+  }
 
   model.name =
       spec.modelName.empty() ? "logistic model for " + spec.outcome.column : spec.modelName;

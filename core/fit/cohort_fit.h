@@ -13,6 +13,7 @@
 
 #include <cstddef>
 #include <map>
+#include <optional>
 #include <set>
 #include <string>
 #include <vector>
@@ -20,6 +21,7 @@
 #include "core/data/cohort.h"
 #include "core/data/table.h"
 #include "core/fit/logistic_fit.h"
+#include "core/fit/profile_ci.h"
 #include "core/model/model.h"
 
 namespace calivera {
@@ -33,6 +35,9 @@ struct CohortFitSpec {
   // at the default quantiles of the analysed rows (spline_knots.h), instead of linearly. The
   // terms are "COLUMN spline 0" (the linear part) to "COLUMN spline k-2".
   std::map<std::string, int> splineKnots;
+  // Also the profile-likelihood 95% intervals (profile_ci.h); maximum likelihood only (ignored
+  // with Firth, whose table keeps its Wald intervals).
+  bool profileIntervals = false;
   std::string modelName;
   FitOptions fit;
 };
@@ -49,6 +54,7 @@ struct CohortFit {
   ExclusionReport exclusions;
   std::size_t events = 0;
   std::vector<CategoricalCoding> codings;
+  std::optional<ProfileIntervals> profile;  // when asked: [0] the intercept, then each term
 };
 
 // InputError: unknown or repeated column, outcome used as a predictor, reference level that does

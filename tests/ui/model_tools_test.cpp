@@ -50,6 +50,22 @@ ValidationRun validateOnBirthwt(const QString& modelPath) {
   return runValidation(request);
 }
 
+std::shared_ptr<const Table> birthwtTable() {
+  return std::make_shared<const Table>(readCsvFile(kBirthwt.toStdString(), CsvOptions{}).table);
+}
+
+ImportSettings lowOutcome() {
+  ImportSettings import;
+  import.outcomeColumn = "low";
+  return import;
+}
+
+FitSettings predictors(std::vector<std::string> names) {
+  FitSettings settings;
+  settings.predictors = std::move(names);
+  return settings;
+}
+
 UpdateData dataOf(const MainWindow& w) {
   UpdateData data;
   data.table = w.cohort()->table.get();
@@ -169,13 +185,7 @@ class ModelToolsTest : public QObject {
   // The fit dialog with a spline: the coefficient table and the deviance of R's glm with the
   // same spline space (tests/reference/data/birthwt_spline.csv, R 4.2.2, splines::ns).
   void fitDialogFitsASplineAsRDoes() {
-    const auto table =
-        std::make_shared<const Table>(readCsvFile(kBirthwt.toStdString(), CsvOptions{}).table);
-    ImportSettings import;
-    import.outcomeColumn = "low";
-    FitSettings initial;
-    initial.predictors = {"age", "lwt", "race", "smoke"};
-    FitDialog dialog(table, import, initial);
+    FitDialog dialog(birthwtTable(), lowOutcome(), predictors({"age", "lwt", "race", "smoke"}));
     auto* splines = child<QLineEdit>(dialog, "fitSplines");
     splines->setText("age=9");
     dialog.startFit();
@@ -193,6 +203,28 @@ class ModelToolsTest : public QObject {
     // One row per coefficient: the intercept and every term.
     QCOMPARE(child<QTableView>(dialog, "fitCoefficientTable")->model()->rowCount(),
              static_cast<int>(m.terms.size()) + 1);
+  }
+
+  // Profile-likelihood columns in the fit dialog: R's exact profile of birthwt's
+  // low ~ age + lwt + race + ftv (tests/reference/data/birthwt_profile.csv, R 4.2.2).
+  void fitDialogShowsProfileIntervalsAsR() {
+    FitDialog dialog(birthwtTable(), lowOutcome(), predictors({"age", "lwt", "race", "ftv"}));
+    child<QCheckBox>(dialog, "fitProfile")->setChecked(true);
+    dialog.startFit();
+    dialog.job()->waitForFinished();
+    QVERIFY(dialog.fitted() != nullptr && dialog.fitted()->profile.has_value());
+    QVERIFY(dialog.fittedWith().profileIntervals);
+    auto* view = child<QTableView>(dialog, "fitCoefficientTable");
+    int lower = -1;
+    for (int c = 0; c < view->model()->columnCount(); ++c) {
+      if (view->model()->headerData(c, Qt::Horizontal).toString() == "Profile 95% lower") lower = c;
+    }
+    QVERIFY(lower > 0);
+    // R: age -0.091648756 to 0.041266997 (row 1); race=white -1.990925118 to -0.022992169 (row 4).
+    QCOMPARE(cell(dialog, "fitCoefficientTable", 1, lower), QString("-0.0916"));
+    QCOMPARE(cell(dialog, "fitCoefficientTable", 1, lower + 1), QString("0.0413"));
+    QCOMPARE(cell(dialog, "fitCoefficientTable", 4, lower), QString("-1.9909"));
+    QCOMPARE(cell(dialog, "fitCoefficientTable", 4, lower + 1), QString("-0.0230"));
   }
 
   // With CALIVERA_SCREENSHOT_DIR set: both dialogs after a run, as PNG (docs/screenshots).

@@ -137,6 +137,16 @@ TEST(FitCommand, SplineWritesOneTermPerBasisFunctionAndRejectsBadRequests) {
   EXPECT_FALSE(f.wroteModel());
 }
 
+TEST(FitCommand, ProfileIntervalsArePrintedAndRefusedWithFirth) {
+  const Fixture f;
+  const CliRun run = f.fit({"--profile-ci"}, "a,b");
+  ASSERT_EQ(run.status, 0) << run.err;
+  EXPECT_NE(run.out.find("profile-likelihood 95% intervals"), std::string::npos) << run.out;
+  std::filesystem::remove(f.out);
+  expectError(f.fit({"--profile-ci", "--firth"}, "a,b"), 2, "--profile-ci");
+  EXPECT_FALSE(f.wroteModel());
+}
+
 TEST(FitCommand, HelpExitsZero) {
   const CliRun run = runCalivera({"fit", "--help"});
   EXPECT_EQ(run.status, 0);

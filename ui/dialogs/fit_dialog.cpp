@@ -48,6 +48,13 @@ FitDialog::FitDialog(std::shared_ptr<const Table> table, ImportSettings import,
   firth_->setObjectName(QStringLiteral("fitFirth"));
   firth_->setChecked(initial.firth);
   left->addWidget(firth_);
+  profile_ = new QCheckBox(tr("Profile-likelihood intervals too (maximum likelihood; slower)"));
+  profile_->setObjectName(QStringLiteral("fitProfile"));
+  profile_->setChecked(initial.profileIntervals);
+  profile_->setToolTip(
+      tr("Intervals that follow the likelihood's shape; they differ from the "
+         "Wald intervals in small samples and for large coefficients"));
+  left->addWidget(profile_);
   auto* splineLabel = new QLabel(tr("Restricted cubic splines (COLUMN=KNOTS, 3 to 7 knots):"));
   splineLabel->setObjectName(QStringLiteral("fitSplinesLabel"));
   splineLabel->setWordWrap(true);
@@ -105,6 +112,7 @@ FitSettings FitDialog::fitSettings() const {
     }
   }
   s.firth = firth_->isChecked();
+  s.profileIntervals = profile_->isChecked();
   s.splineKnots = parseSplineList(splines_->text().toStdString());
   return s;
 }
@@ -133,7 +141,8 @@ void FitDialog::startFit() {
   std::function<void(FittedModel&)> done = [this, settings](FittedModel& result) {
     fitted_ = std::move(result);
     fittedWith_ = settings;
-    fillCoefficientTable(*coefficients_, fitted_->model);
+    fillCoefficientTable(*coefficients_, fitted_->model,
+                         fitted_->profile ? &fitted_->profile->ci : nullptr);
     QString text = tr("Fitted on %1 patients (%2 events), %3 iterations, deviance %4.")
                        .arg(fitted_->exclusions.rowsAnalysed)
                        .arg(fitted_->model.development.events.value_or(0))

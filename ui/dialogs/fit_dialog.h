@@ -44,6 +44,7 @@ class FitDialog : public QDialog {
   FitSettings fittedWith_;
   QListWidget* predictors_ = nullptr;
   QCheckBox* firth_ = nullptr;
+  QCheckBox* profile_ = nullptr;
   QLineEdit* splines_ = nullptr;
   QPushButton* fitButton_ = nullptr;
   QPushButton* accept_ = nullptr;

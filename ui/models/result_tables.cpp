@@ -121,12 +121,13 @@ void fillHosmerLemeshowTable(RecordTableModel& model, const HosmerLemeshow& hl) 
   model.setTable(headers, tips, std::move(cells));
 }
 
-void fillCoefficientTable(RecordTableModel& model, const Model& riskModel) {
-  const QStringList headers = {QStringLiteral("Term"),         QStringLiteral("Coefficient"),
-                               QStringLiteral("SE"),           QStringLiteral("95% CI lower"),
-                               QStringLiteral("95% CI upper"), QStringLiteral("Odds ratio"),
-                               QStringLiteral("Unit expected")};
-  const QStringList tips = {
+void fillCoefficientTable(RecordTableModel& model, const Model& riskModel,
+                          const std::vector<ProfileBounds>* profile) {
+  QStringList headers = {QStringLiteral("Term"),         QStringLiteral("Coefficient"),
+                         QStringLiteral("SE"),           QStringLiteral("95% CI lower"),
+                         QStringLiteral("95% CI upper"), QStringLiteral("Odds ratio"),
+                         QStringLiteral("Unit expected")};
+  QStringList tips = {
       QString(),
       QStringLiteral("Log odds ratio per unit of the term"),
       QStringLiteral("Standard error, when the model file or the fit provides it"),
@@ -152,6 +153,17 @@ void fillCoefficientTable(RecordTableModel& model, const Model& riskModel) {
     cells.push_back(row(QString::fromStdString(t.name), t.estimate,
                         QString::fromStdString(t.unit.value_or("")),
                         t.kind != TransformKind::Spline));
+  }
+  if (profile != nullptr && profile->size() == cells.size()) {
+    headers << QStringLiteral("Profile 95% lower") << QStringLiteral("Profile 95% upper");
+    tips << QStringLiteral(
+                "Profile-likelihood interval (Venzon & Moolgavkar 1988): the values "
+                "whose constrained fit lies within 3.84 of the minimum deviance")
+         << tips.back();
+    for (std::size_t i = 0; i < cells.size(); ++i) {
+      cells[i].push_back(number((*profile)[i].lo, 4));
+      cells[i].push_back(number((*profile)[i].hi, 4));
+    }
   }
   model.setTable(headers, tips, std::move(cells));
 }

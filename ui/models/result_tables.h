@@ -4,6 +4,7 @@
 
 #include <vector>
 
+#include "core/fit/profile_ci.h"
 #include "core/metrics/validation.h"
 #include "core/model/model.h"
 #include "ui/models/record_table_model.h"
@@ -24,8 +25,10 @@ TableCell text(const QString& s);                      // sorts alphabetically
 void fillThresholdTable(RecordTableModel& model, const std::vector<ThresholdRow>& rows,
                         const std::vector<DecisionCurvePoint>& decisionCurve);
 void fillHosmerLemeshowTable(RecordTableModel& model, const HosmerLemeshow& hl);
-// Wald 95% CI coefficient +/- 1.96 SE and the odds ratio exp(coefficient) per term.
-void fillCoefficientTable(RecordTableModel& model, const Model& riskModel);
+// Wald 95% CI coefficient +/- 1.96 SE and the odds ratio exp(coefficient) per term; with
+// `profile` ([0] the intercept, then each term) two more columns, the profile-likelihood CI.
+void fillCoefficientTable(RecordTableModel& model, const Model& riskModel,
+                          const std::vector<ProfileBounds>* profile = nullptr);
 
 // Index of the row whose threshold is nearest to t (rows ascending by threshold); -1 when empty.
 int nearestThresholdRow(const std::vector<ThresholdRow>& rows, double t);

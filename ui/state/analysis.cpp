@@ -117,6 +117,7 @@ FittedModel fitModel(const Table& table, const ImportSettings& import, const Fit
   spec.modelName = "Fitted on " + std::filesystem::path(table.sourceName).filename().string();
   spec.fit.firth = fit.firth;
   spec.splineKnots = fit.splineKnots;
+  spec.profileIntervals = fit.profileIntervals && !fit.firth;
   spec.fit.progress = progress;
   // Separation and non-convergence without Firth are AnalysisErrors naming the terms; the fit
   // dialog shows them as the reason the fit failed.
@@ -130,6 +131,10 @@ FittedModel fitModel(const Table& table, const ImportSettings& import, const Fit
     out.warnings.push_back(text);
   }
   for (const std::string& w : out.fit.warnings) out.warnings.push_back(w);
+  out.profile = std::move(fitted.profile);
+  if (out.profile) {
+    for (const std::string& w : out.profile->warnings) out.warnings.push_back("profile: " + w);
+  }
   return out;
 }
 

@@ -5,12 +5,14 @@
 
 #include <cstdint>
 #include <memory>
+#include <optional>
 #include <string>
 #include <vector>
 
 #include "core/data/csv_reader.h"
 #include "core/data/table.h"
 #include "core/fit/logistic_fit.h"
+#include "core/fit/profile_ci.h"
 #include "core/metrics/validation.h"
 #include "core/model/model.h"
 #include "ui/state/study_state.h"
@@ -58,7 +60,8 @@ struct FittedModel {
   Model model;
   FitResult fit;
   ExclusionReport exclusions;
-  std::vector<std::string> warnings;  // separation, convergence, rank, in plain words
+  std::vector<std::string> warnings;        // separation, convergence, rank, in plain words
+  std::optional<ProfileIntervals> profile;  // when FitSettings::profileIntervals (not Firth)
 };
 
 // Logistic regression of the outcome on the chosen predictors: numeric columns enter linearly (or

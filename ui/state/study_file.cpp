@@ -110,6 +110,7 @@ std::string studyToJson(const StudyState& study, const std::string& studyPath) {
   model["predictors"] = study.fit.predictors;
   model["firth"] = study.fit.firth;
   model["splineKnots"] = study.fit.splineKnots;
+  model["profileIntervals"] = study.fit.profileIntervals;
   model["fitted"] = (study.modelSource == ModelSource::Fitted && study.model)
                         ? json::parse(modelToJson(*study.model))
                         : json(nullptr);
@@ -183,6 +184,7 @@ StudyState parseStudyJson(const std::string& text, const std::string& studyPath)
   if (s.modelSource == ModelSource::File && !s.modelFile) in.fail("model.file", "missing");
   s.fit.predictors = in.get<std::vector<std::string>>(model, "predictors", "model.predictors", {});
   s.fit.firth = in.get<bool>(model, "firth", "model.firth", false);
+  s.fit.profileIntervals = in.get<bool>(model, "profileIntervals", "model.profileIntervals", false);
   s.fit.splineKnots =
       in.get<std::map<std::string, int>>(model, "splineKnots", "model.splineKnots", {});
   if (model.contains("fitted") && !model.at("fitted").is_null()) {

@@ -36,6 +36,7 @@ struct FitSettings {
   std::vector<std::string> predictors;  // cohort columns; text columns become indicator terms
   bool firth = false;
   std::map<std::string, int> splineKnots;  // numeric predictor -> restricted cubic spline knots
+  bool profileIntervals = false;           // also profile-likelihood CIs (fit dialog table)
 };
 
 struct AnalysisSettings {
