@@ -16,7 +16,7 @@ if [ -n "${DISPLAY:-}${WAYLAND_DISPLAY:-}" ] || [ -n "${QT_QPA_PLATFORM:-}" ]; t
 fi
 echo "No display found: running the sample validation headless (set DISPLAY to open the workstation)."
 mkdir -p out
-uncertainty=(--bootstrap 200 --seed 2026 --compare sample_data/quick_model.json --subgroup site)
+uncertainty=(--bootstrap 200 --seed 2026 --compare sample_data/quick_model.json --subgroup site --size-thresholds 0.1,0.2)
 build/bin/calivera validate --data "$data" --outcome "$outcome" --model "$model" "${uncertainty[@]}" \
   --thresholds 0.05,0.10,0.15,0.20,0.30 --json out/sample_validation.json --csv-dir out/tables \
   --pdf out/sample_report.pdf --reasonable-range 0.05:0.30 --title "Sample study: Ashcombe score at Kestrel Bay (synthetic)" \

@@ -13,7 +13,7 @@ report=$(mktemp -d)
 trap 'rm -rf "$report"' EXIT
 SOURCE_DATE_EPOCH=1764547200 build/bin/calivera validate --data sample_data/local_cohort.csv --outcome complication_30d \
   --model sample_data/published_model.json --bootstrap 200 --seed 2026 \
-  --compare sample_data/quick_model.json --subgroup site --thresholds 0.05,0.10,0.15,0.20,0.30 \
+  --compare sample_data/quick_model.json --subgroup site --size-thresholds 0.1,0.2 --thresholds 0.05,0.10,0.15,0.20,0.30 \
   --suppress-below 11 --reasonable-range 0.05:0.30 --pdf "$report/sample_report.pdf" \
   --title "Ashcombe 30-day Complication Score on the Kestrel Bay cohort (invented demo data)" \
   >/dev/null
