@@ -156,10 +156,7 @@ QString CalibrationChart::describeAt(QPointF value) const {
 }
 
 void CalibrationChart::setCurveBand(const std::vector<BandPoint>& band) {
-  if (band_ != nullptr) {
-    removeSeries(band_);
-    delete band_;
-  }
+  discardSeries(this, band_);
   bandPoints_ = band;
   band_ = makeBandArea(band, QStringLiteral("Bootstrap 95% band"), roleColor(SeriesRole::Model));
   addOnAxesOf(this, band_, marker_);

@@ -5,6 +5,7 @@
 #include <QtCharts/QLegend>
 #include <QtCharts/QLegendMarker>
 #include <QtCharts/QValueAxis>
+#include <memory>
 
 namespace calivera::ui::charts {
 
@@ -121,6 +122,12 @@ constexpr char kHiddenFromLegend[] = "caliveraHiddenFromLegend";
 void hideFromLegend(QChart* chart, QAbstractSeries* series) {
   for (QLegendMarker* marker : chart->legend()->markers(series)) marker->setVisible(false);
   series->setProperty(kHiddenFromLegend, true);
+}
+
+void discardSeries(QChart* chart, QAbstractSeries* series) {
+  if (series == nullptr) return;
+  chart->removeSeries(series);  // hands ownership back to the caller
+  const std::unique_ptr<QAbstractSeries> removed(series);
 }
 
 bool isHiddenFromLegend(const QAbstractSeries* series) {

@@ -55,5 +55,7 @@ void addOnAxes(QChart* chart, QAbstractSeries* series, QAbstractAxis* x, QAbstra
 // Hides the legend entry of a helper series (error bars, hit areas).
 void hideFromLegend(QChart* chart, QAbstractSeries* series);
 bool isHiddenFromLegend(const QAbstractSeries* series);
+// Takes `series` off the chart (with its legend entry) and deletes it; nullptr does nothing.
+void discardSeries(QChart* chart, QAbstractSeries* series);
 
 }  // namespace calivera::ui::charts

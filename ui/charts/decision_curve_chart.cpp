@@ -5,7 +5,6 @@
 #include <QtCharts/QValueAxis>
 #include <algorithm>
 #include <cmath>
-#include <memory>
 
 #include "ui/charts/chart_style.h"
 #include "ui/charts/chart_text.h"
@@ -92,8 +91,7 @@ void DecisionCurveChart::setReasonableRange(double lo, double hi) {
 
 void DecisionCurveChart::clearReasonableRange() {
   if (range_ == nullptr) return;
-  removeSeries(range_);  // hands the series back to us, with its legend entry gone
-  const std::unique_ptr<QAreaSeries> removed(range_);
+  discardSeries(this, range_);
   range_ = nullptr;
   rangeUpper_ = rangeLower_ = nullptr;
 }
@@ -163,10 +161,7 @@ void DecisionCurveChart::setYRange(double lo, double hi) {
 }
 
 void DecisionCurveChart::setNetBenefitBand(const std::vector<BandPoint>& band) {
-  if (band_ != nullptr) {
-    removeSeries(band_);
-    delete band_;
-  }
+  discardSeries(this, band_);
   bandPoints_ = band;
   band_ = makeBandArea(band, QStringLiteral("Bootstrap 95% band"), roleColor(SeriesRole::Model));
   addOnAxesOf(this, band_, model_);
