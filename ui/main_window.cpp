@@ -24,6 +24,7 @@
 #include <QVBoxLayout>
 
 #include "ui/async/background_job.h"
+#include "ui/dialogs/reproduce_dialog.h"
 #include "ui/models/record_table_model.h"
 #include "ui/views/caution_text.h"
 #include "ui/views/chart_panel.h"
@@ -227,6 +228,9 @@ void MainWindow::buildMenus() {
   actionUncertainty_ = add(
       analysis, QStringLiteral("actionUncertainty"), tr("&Intervals, comparison and subgroups…"),
       QKeySequence(Qt::CTRL | Qt::SHIFT | Qt::Key_B), &MainWindow::onUncertainty);
+  QAction* reproduce = analysis->addAction(tr("Re&produce on the command line…"));
+  reproduce->setObjectName(QStringLiteral("actionReproduce"));
+  connect(reproduce, &QAction::triggered, this, [this]() { showReproduceDialog(this, study_); });
   analysis->addSeparator();
   QAction* up = analysis->addAction(tr("Raise threshold by 0.005"));
   up->setObjectName(QStringLiteral("actionThresholdUp"));

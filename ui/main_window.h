@@ -12,9 +12,9 @@
 #include <memory>
 #include <vector>
 
-#include "ui/state/pipeline.h"
-#include "ui/state/study_state.h"
-#include "ui/state/threshold_state.h"
+#include "core/study/study_pipeline.h"
+#include "core/study/study.h"
+#include "core/study/threshold_state.h"
 
 class QAction;
 class QLabel;

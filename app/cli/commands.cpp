@@ -4,8 +4,10 @@
 
 #include "app/cli/fit_command.h"
 #include "app/cli/internal_command.h"
+#include "app/cli/run_command.h"
 #include "app/cli/update_command.h"
 #include "app/cli/validate_command.h"
+#include "core/present/caution.h"
 #include "core/util/errors.h"
 
 namespace calivera::cli {
@@ -17,6 +19,7 @@ const std::vector<Command>& allCommands() {
       {"validate", "performance of a model or risk column on a cohort", runValidateCommand},
       {"update", "update a model on local data (intercept, recalibrate, refit)", runUpdateCommand},
       {"internal", "bootstrap optimism correction of a locally fitted model", runInternalCommand},
+      {"run", "run a study saved by the workstation, with all its settings", runRunCommand},
   };
   return commands;
 }
@@ -51,8 +54,7 @@ void printUsage() {
               << command.summary << '\n';
   }
   std::cout << "\nRun 'calivera COMMAND --help' for a command's options.\n"
-               "Results describe model performance on this cohort; they do not replace clinical\n"
-               "judgment, and any use in care is for local clinical governance to decide.\n";
+            << kCautionText << '\n';
 }
 
 }  // namespace calivera::cli

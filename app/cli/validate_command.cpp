@@ -17,6 +17,7 @@
 #include "core/report/validation_json.h"
 #include "core/report/validation_summary.h"
 #include "core/report/validation_tables.h"
+#include "core/study/reproduce_command.h"
 #include "core/util/atomic_file.h"
 #include "core/util/errors.h"
 #ifdef CALIVERA_HAVE_UI
@@ -28,7 +29,8 @@ namespace {
 
 constexpr const char* kHelp =
     "usage: calivera validate --data COHORT.csv --outcome COL (--model MODEL.json | --risk COL)\n"
-    "                         [--groups G] [--thresholds FROM:TO:STEP | T1,T2,...]\n"
+    "                         [--map VAR=COLUMN] [--development-data] [--groups G] [--thresholds "
+    "FROM:TO:STEP | T1,T2,...]\n"
     "                         [--json REPORT.json] [--csv-dir DIR]\n"
     "                         [--pdf REPORT.pdf [--title TEXT] [--suppress-below N]\n"
     "                          [--paper a4|letter] [--reasonable-range LO:HI]]\n\n"
@@ -37,6 +39,11 @@ constexpr const char* kHelp =
     "  --outcome COL        outcome column (0/1, or see --event-value)\n"
     "  --model FILE         model file: risks from its linear predictor\n"
     "  --risk COL           or: a column of predicted risks in [0, 1]\n"
+    "  --map VAR=COLUMN     read the model variable VAR from the cohort column COLUMN\n"
+    "                       (repeatable)\n"
+    "  --development-data   the cohort is the model's development data: performance is\n"
+    "                       apparent (Hosmer-Lemeshow on g-2 df) even when the model file's\n"
+    "                       fingerprint of its data does not match the cohort file\n"
     "  --groups G           risk groups for Hosmer-Lemeshow and the calibration table (10)\n"
     "  --thresholds T       FROM:TO:STEP or a list T1,T2,... strictly inside (0, 1)\n"
     "                       (0.01:0.99:0.01); a patient is flagged when risk >= threshold\n"
@@ -82,22 +89,50 @@ std::vector<double> parseThresholds(const std::string& text) {
   return values;
 }
 
-int validateBody(const std::vector<std::string>& words) {
-  OptionSpec spec;
-  spec.valued = {"--data",           "--outcome", "--model",           "--risk", "--groups",
-                 "--thresholds",     "--json",    "--csv-dir",         "--pdf",  "--title",
-                 "--suppress-below", "--paper",   "--reasonable-range"};
-  spec.flags = {"--help"};
+}  // namespace
+
+void addValidateOptions(OptionSpec& spec) {
+  spec.valued.insert({"--data", "--outcome", "--model", "--risk", "--groups", "--thresholds",
+                      "--map", "--json", "--csv-dir", "--pdf", "--title", "--suppress-below",
+                      "--paper", "--reasonable-range"});
+  spec.flags.insert({"--help", "--development-data"});
   addDataOptions(spec);
   addUncertaintyOptions(spec);  // uncertainty: --bootstrap, --compare, --subgroup, ...
-  const Arguments arguments(words, spec);
-  if (arguments.has("--help")) {
-    std::cout << kHelp << kDataOptionsHelp << uncertaintyOptionsHelp();
-    return 0;
+}
+
+ValidateOutputs validateOutputsFrom(const Arguments& arguments) {
+  ValidateOutputs out;
+  out.jsonPath = arguments.value("--json");
+  out.csvDir = arguments.value("--csv-dir");
+  out.pdfPath = arguments.value("--pdf");
+  if (!out.pdfPath && (arguments.has("--title") || arguments.has("--suppress-below") ||
+                       arguments.has("--paper") || arguments.has("--reasonable-range"))) {
+    throw InputError("--title, --suppress-below, --paper and --reasonable-range need --pdf");
   }
-  if (!arguments.positional().empty()) {
-    throw InputError("unexpected argument '" + arguments.positional().front() + "'");
+  out.title = arguments.value("--title").value_or("");
+  if (const auto r = arguments.value("--reasonable-range")) {
+    const std::size_t colon = r->find(':');
+    if (colon == std::string::npos)
+      throw InputError("--reasonable-range: give LO:HI, e.g. 0.05:0.30");
+    const double lo = parseNumber(r->substr(0, colon), "--reasonable-range");
+    const double hi = parseNumber(r->substr(colon + 1), "--reasonable-range");
+    if (!(lo > 0.0 && lo < hi && hi < 1.0)) {
+      throw InputError("--reasonable-range: need 0 < LO < HI < 1, got " + *r);
+    }
+    out.reasonable = Interval{lo, hi};
   }
+  if (const auto n = arguments.value("--suppress-below")) {
+    const long long below = parseInteger(*n, "--suppress-below");
+    if (below < 2 || below > 1000) {
+      throw InputError("--suppress-below: must be between 2 and 1000");
+    }
+    out.suppressBelow = static_cast<std::size_t>(below);
+  }
+  out.paper = arguments.value("--paper").value_or("a4");  // checked where the PDF is made
+  return out;
+}
+
+ValidationRequest validationRequestFrom(const Arguments& arguments) {
   ValidationRequest request;
   request.dataPath = arguments.required("--data");
   request.outcome.column = arguments.required("--outcome");
@@ -108,6 +143,19 @@ int validateBody(const std::vector<std::string>& words) {
   if (request.modelPath.has_value() == request.riskColumn.has_value()) {
     throw InputError("give exactly one of --model and --risk");
   }
+  for (const std::string& item : arguments.values("--map")) {
+    const std::size_t eq = item.find('=');
+    if (eq == std::string::npos || eq == 0 || eq + 1 == item.size()) {
+      throw InputError("--map: '" + item + "' is not VARIABLE=COLUMN");
+    }
+    if (request.riskColumn) throw InputError("--map: needs --model (a risk column has no terms)");
+    const std::string variable = item.substr(0, eq);
+    if (request.columnMapping.count(variable) != 0) {
+      throw InputError("--map: variable '" + variable + "' is mapped twice");
+    }
+    request.columnMapping[variable] = item.substr(eq + 1);
+  }
+  request.developmentData = arguments.has("--development-data");
   if (const auto g = arguments.value("--groups")) {
     const long long groups = parseInteger(*g, "--groups");
     if (groups < 2 || groups > 1000) throw InputError("--groups: must be between 2 and 1000");
@@ -121,68 +169,71 @@ int validateBody(const std::vector<std::string>& words) {
       }
     }
   }
-  const auto pdfPath = arguments.value("--pdf");
-  if (!pdfPath && (arguments.has("--title") || arguments.has("--suppress-below") ||
-                   arguments.has("--paper") || arguments.has("--reasonable-range"))) {
-    throw InputError("--title, --suppress-below, --paper and --reasonable-range need --pdf");
-  }
-  std::optional<Interval> reasonable;
-  if (const auto r = arguments.value("--reasonable-range")) {
-    const std::size_t colon = r->find(':');
-    if (colon == std::string::npos)
-      throw InputError("--reasonable-range: give LO:HI, e.g. 0.05:0.30");
-    const double lo = parseNumber(r->substr(0, colon), "--reasonable-range");
-    const double hi = parseNumber(r->substr(colon + 1), "--reasonable-range");
-    if (!(lo > 0.0 && lo < hi && hi < 1.0)) {
-      throw InputError("--reasonable-range: need 0 < LO < HI < 1, got " + *r);
-    }
-    reasonable = Interval{lo, hi};
-  }
-  std::size_t suppressBelow = 0;
-  if (const auto n = arguments.value("--suppress-below")) {
-    const long long below = parseInteger(*n, "--suppress-below");
-    if (below < 2 || below > 1000) {
-      throw InputError("--suppress-below: must be between 2 and 1000");
-    }
-    suppressBelow = static_cast<std::size_t>(below);
-  }
+  return request;
+}
+
+int executeValidation(const ValidationRequest& request, const UncertaintyRequest& uncertaintyWanted,
+                      const ValidateOutputs& outputs, const std::string& reproduceLine) {
 #ifdef CALIVERA_HAVE_UI
-  const ui::report::PaperSize paper =
-      ui::report::parsePaperSize(arguments.value("--paper").value_or("a4"), "--paper");
+  const ui::report::PaperSize paper = ui::report::parsePaperSize(outputs.paper, "--paper");
 #else
-  (void)suppressBelow;
-  (void)reasonable;
-  if (pdfPath) throw InputError("--pdf: this build has no PDF report (built without the UI)");
+  if (outputs.pdfPath) {
+    throw InputError("--pdf: this build has no PDF report (built without the UI)");
+  }
 #endif
+  // The line that reproduces this run, from the request as given (before the run fills it in).
+  const std::string reproduce =
+      reproduceLine.empty()
+          ? commandLine("validate", validateCommandWords(request, uncertaintyWanted))
+          : reproduceLine;
   const ValidationRun run = runValidation(request);
   // uncertainty: sample size (always), bootstrap intervals, comparison, subgroups.
-  const UncertaintyResults uncertainty = runUncertainty(run, uncertaintyRequest(arguments));
+  const UncertaintyResults uncertainty = runUncertainty(run, uncertaintyWanted);
   // Every output is rendered before anything is written; the JSON is written last so a reader
   // that waits for it sees the tables too.
-  const auto jsonPath = arguments.value("--json");
-  const std::string jsonText = jsonPath ? validationJsonText(run, uncertainty) : std::string();
+  const std::string jsonText =
+      outputs.jsonPath ? validationJsonText(run, uncertainty) : std::string();
 #ifdef CALIVERA_HAVE_UI
   std::string pdf;
-  if (pdfPath) {
+  if (outputs.pdfPath) {
     AuditReportInput input =
-        auditInputFromRun(run, arguments.value("--title").value_or(""), suppressBelow, uncertainty);
-    input.settings.reasonableThresholds = reasonable;
+        auditInputFromRun(run, outputs.title, outputs.suppressBelow, uncertainty);
+    input.settings.reasonableThresholds = outputs.reasonable;
     pdf = ui::report::renderAuditReportPdf(input, paper);
   }
 #endif
-  if (const auto dir = arguments.value("--csv-dir")) writeValidationTables(*dir, run, uncertainty);
+  if (outputs.csvDir) writeValidationTables(*outputs.csvDir, run, uncertainty);
 #ifdef CALIVERA_HAVE_UI
-  if (pdfPath) writeFileAtomically(*pdfPath, pdf);
+  if (outputs.pdfPath) writeFileAtomically(*outputs.pdfPath, pdf);
 #endif
-  if (jsonPath) {
-    writeFileAtomically(*jsonPath, jsonText);
+  if (outputs.jsonPath) {
+    writeFileAtomically(*outputs.jsonPath, jsonText);
   } else {
     printSampleSizeSummary(std::cout, uncertainty);  // uncertainty: adequacy before results
-    std::ostringstream intervals;
-    printUncertaintySummary(intervals, uncertainty);
-    std::cout << validationSummaryText(run, intervals.str());
+    std::ostringstream beforeCaution;
+    printUncertaintySummary(beforeCaution, uncertainty);
+    beforeCaution << "\nReproduce with:\n  " << reproduce << "\n";
+    std::cout << validationSummaryText(run, beforeCaution.str());
   }
   return 0;
+}
+
+namespace {
+
+int validateBody(const std::vector<std::string>& words) {
+  OptionSpec spec;
+  addValidateOptions(spec);
+  const Arguments arguments(words, spec);
+  if (arguments.has("--help")) {
+    std::cout << kHelp << kDataOptionsHelp << uncertaintyOptionsHelp();
+    return 0;
+  }
+  if (!arguments.positional().empty()) {
+    throw InputError("unexpected argument '" + arguments.positional().front() + "'");
+  }
+  const ValidationRequest request = validationRequestFrom(arguments);
+  const ValidateOutputs outputs = validateOutputsFrom(arguments);
+  return executeValidation(request, uncertaintyRequest(arguments), outputs);
 }
 
 }  // namespace

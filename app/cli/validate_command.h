@@ -1,10 +1,40 @@
 #pragma once
-// `calivera validate`: validation of a model (file) or of a risk column on a cohort CSV.
+// `calivera validate`: validation of a model (file) or of a risk column on a cohort CSV. Its
+// parts are shared with `calivera run`, which executes a saved study as exactly the validate
+// request the study stands for (core/study/reproduce_command.h), so both give the same outputs.
 
+#include <cstddef>
+#include <optional>
 #include <string>
 #include <vector>
 
+#include "app/cli/arguments.h"
+#include "core/metrics/validation_run.h"
+#include "core/uncertainty/uncertainty_run.h"
+
 namespace calivera::cli {
+
+// What a validation writes; nothing given: the text summary on stdout.
+struct ValidateOutputs {
+  std::optional<std::string> jsonPath;
+  std::optional<std::string> csvDir;
+  std::optional<std::string> pdfPath;
+  std::string title;              // the report's title
+  std::size_t suppressBelow = 0;  // 0: off
+  std::string paper = "a4";       // "a4" or "letter"
+  std::optional<Interval> reasonable;
+};
+
+void addValidateOptions(OptionSpec& spec);
+// Throw InputError naming the option for a bad value.
+ValidationRequest validationRequestFrom(const Arguments& arguments);
+ValidateOutputs validateOutputsFrom(const Arguments& arguments);
+
+// Runs the validation and the uncertainty request and writes `outputs`; the summary ends with the
+// reproducing command line (`reproduceLine`, or the validate line of the request when empty) and
+// the caution. Returns the exit status (0); throws the core errors.
+int executeValidation(const ValidationRequest& request, const UncertaintyRequest& uncertainty,
+                      const ValidateOutputs& outputs, const std::string& reproduceLine = {});
 
 int runValidateCommand(const std::vector<std::string>& words);
 

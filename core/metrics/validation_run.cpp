@@ -87,40 +87,64 @@ bool isApparent(const Model* model, const std::string& dataSha256) {
   return model && model->development.dataSha256 && *model->development.dataSha256 == dataSha256;
 }
 
-ValidationRun runValidation(const ValidationRequest& request, Table table, std::string dataSha256) {
+PerformanceDecision decidePerformance(const Model* model, const std::string& dataSha256,
+                                      bool statedDevelopmentData) {
+  if (isApparent(model, dataSha256)) {
+    return {true, "the cohort file is the model's development data (SHA-256 match)"};
+  }
+  if (statedDevelopmentData) {
+    return {true, "stated by the user: the cohort is the model's development data"};
+  }
+  if (model && model->development.dataSha256) {
+    return {false, "the cohort file differs from the model's development data (SHA-256)"};
+  }
+  if (model) {
+    return {false, "the model file records no development data SHA-256; treated as new data"};
+  }
+  return {false, "risks read from a column; no development record, treated as new data"};
+}
+
+ValidationRun runValidation(const ValidationRequest& request, std::shared_ptr<const Table> table,
+                            std::string dataSha256) {
+  if (!table) throw InputError("no cohort is loaded");
   ValidationRun run;
   run.request = request;
+  run.request.model.reset();  // kept once, in run.model
   run.softwareVersion = CALIVERA_VERSION;
   run.dataSha256 = std::move(dataSha256);
   reportProgress(request.options.progress, 0.0);
-  if (request.modelPath) {
+  if (request.model) {
+    run.model = *request.model;
+    run.modelSha256 = sha256OfBytes(modelToJson(*request.model));
+    run.modelName = run.model->name;
+    run.request.modelPath = request.modelLabel;
+  } else if (request.modelPath) {
     run.model = readModelFile(*request.modelPath);
     run.modelSha256 = sha256OfFile(*request.modelPath);
     run.modelName = run.model->name;
   } else if (request.riskColumn) {
     run.modelName = "risk column " + *request.riskColumn;
   }
-  const Model* model = run.model ? &*run.model : nullptr;
-  run.cohort = prepareCohort(table, request.outcome, model, request.riskColumn);
-  const bool apparent = isApparent(model, run.dataSha256);
-  run.performance = apparent ? kPerformanceApparent : kPerformanceNewData;
-  if (apparent) {
-    run.performanceBasis = "the cohort file is the model's development data (SHA-256 match)";
-  } else if (model && model->development.dataSha256) {
-    run.performanceBasis = "the cohort file differs from the model's development data (SHA-256)";
-  } else if (model) {
-    run.performanceBasis =
-        "the model file records no development data SHA-256; treated as new data";
-  } else {
-    run.performanceBasis = "risks read from a column; no development record, treated as new data";
+  if (run.model) {
+    for (const auto& [variable, column] : request.columnMapping) {
+      run.model->columnMapping[variable] = column;
+    }
   }
+  const Model* model = run.model ? &*run.model : nullptr;
+  run.cohort = prepareCohort(*table, request.outcome, model, request.riskColumn);
+  const PerformanceDecision decision =
+      decidePerformance(model, run.dataSha256, request.developmentData);
+  run.performance = decision.apparent ? kPerformanceApparent : kPerformanceNewData;
+  run.performanceBasis = decision.basis;
   ValidationOptions options = request.options;
-  options.apparent = apparent;
+  options.apparent = decision.apparent;
   if (options.thresholds.empty()) options.thresholds = thresholdRange(0.01, 0.99, 0.01);
   run.request.options.thresholds = options.thresholds;
   run.result = validate(run.cohort.input, options);
   run.result.warnings.insert(run.result.warnings.begin(), run.cohort.warnings.begin(),
                              run.cohort.warnings.end());
+  run.request.options.apparent = decision.apparent;
+  run.request.options.progress = nullptr;  // the caller's callback must not outlive the call
   run.table = std::move(table);
   return run;
 }
@@ -128,7 +152,8 @@ ValidationRun runValidation(const ValidationRequest& request, Table table, std::
 ValidationRun runValidation(const ValidationRequest& request) {
   std::string sha = sha256OfFile(request.dataPath);
   CsvReadResult read = readCsvFile(request.dataPath, request.csv);
-  return runValidation(request, std::move(read.table), std::move(sha));
+  return runValidation(request, std::make_shared<const Table>(std::move(read.table)),
+                       std::move(sha));
 }
 
 }  // namespace calivera

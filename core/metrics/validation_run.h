@@ -4,12 +4,19 @@
 // predicted risks (from a model file, or from a risk column) -> validate() -> one ValidationRun
 // that every output (JSON, CSV tables, text summary, PDF, GUI) reads.
 //
-// Apparent vs new data: when a model file records the SHA-256 of its development data and it
-// equals the cohort file's SHA-256, performance is "apparent" (the model is judged on the data it
-// was fitted on; Hosmer-Lemeshow df = g - 2); otherwise "new data" (df = g). With a risk column no
-// development record exists and the cohort is treated as new data, which the run says.
+// Apparent vs new data (decidePerformance): performance is "apparent" (the model is judged on the
+// data it was fitted on; Hosmer-Lemeshow df = g - 2) when the user states that the cohort is the
+// model's development data, or when the model file records the SHA-256 of its development data and
+// it equals the cohort file's SHA-256; otherwise "new data" (df = g). With a risk column no
+// development record exists and the cohort is treated as new data unless the user states
+// otherwise, which the run says.
+//
+// The command line (validate, run) and the workstation (core/study/study_pipeline.h) both call
+// runValidation, so a study gives the same ValidationRun, JSON and report wherever it runs.
 
 #include <cstdint>
+#include <map>
+#include <memory>
 #include <optional>
 #include <string>
 #include <vector>
@@ -29,8 +36,18 @@ struct ValidationRequest {
   std::string dataPath;
   CsvOptions csv;
   OutcomeSpec outcome;
-  std::optional<std::string> modelPath;  // exactly one of modelPath and riskColumn
+  std::optional<std::string> modelPath;  // exactly one of modelPath, model and riskColumn
   std::optional<std::string> riskColumn;
+  // A model already in memory (fitted in the workstation and saved in the study): used instead
+  // of reading modelPath; modelLabel stands for its file name and its fingerprint is that of its
+  // model JSON, the bytes "Save model" writes.
+  std::optional<Model> model;
+  std::string modelLabel = "(fitted in the workstation)";
+  // Model variable -> cohort column, applied on top of the model file's own mapping.
+  std::map<std::string, std::string> columnMapping;
+  // The user states that the cohort is the model's development data (apparent performance) even
+  // when no fingerprint says so (for example the same patients saved with another delimiter).
+  bool developmentData = false;
   ValidationOptions options;  // thresholds empty: the default 0.01..0.99 by 0.01
 };
 
@@ -45,12 +62,12 @@ struct PreparedCohort {
 struct ValidationRun {
   ValidationRequest request;  // as given, with options.thresholds filled in
   std::string dataSha256;
-  std::optional<Model> model;    // model route only
-  std::string modelSha256;       // model route only
-  std::string modelName;         // the model's name, or "risk column COL"
-  std::string performance;       // kPerformanceApparent or kPerformanceNewData
-  std::string performanceBasis;  // one sentence: why apparent / new data
-  Table table;                   // the cohort as read (for subgroups, bootstrap, the GUI)
+  std::optional<Model> model;          // model route only
+  std::string modelSha256;             // model route only
+  std::string modelName;               // the model's name, or "risk column COL"
+  std::string performance;             // kPerformanceApparent or kPerformanceNewData
+  std::string performanceBasis;        // one sentence: why apparent / new data
+  std::shared_ptr<const Table> table;  // the cohort as read (subgroups, bootstrap, the GUI)
   PreparedCohort cohort;
   ValidationResult result;      // result.warnings also holds the pipeline's warnings
   std::string softwareVersion;  // CALIVERA_VERSION
@@ -64,11 +81,19 @@ PreparedCohort prepareCohort(const Table& table, const OutcomeSpec& outcome, con
 // "apparent" when the model's development data SHA-256 equals the cohort's, else "new data".
 bool isApparent(const Model* model, const std::string& dataSha256);
 
+struct PerformanceDecision {
+  bool apparent = false;
+  std::string basis;  // one sentence: why apparent / new data
+};
+PerformanceDecision decidePerformance(const Model* model, const std::string& dataSha256,
+                                      bool statedDevelopmentData);
+
 // Runs every step. Throws InputError (bad files, columns, values; exit 2 on the command line),
 // AnalysisError (one outcome class, no complete rows; exit 1) or Cancelled.
 ValidationRun runValidation(const ValidationRequest& request);
 
 // The same after the caller loaded the table (the workstation loads it once for its data view).
-ValidationRun runValidation(const ValidationRequest& request, Table table, std::string dataSha256);
+ValidationRun runValidation(const ValidationRequest& request, std::shared_ptr<const Table> table,
+                            std::string dataSha256);
 
 }  // namespace calivera

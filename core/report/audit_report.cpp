@@ -12,15 +12,13 @@
 #include "core/report/audit_format.h"
 #include "core/report/audit_methods.h"
 #include "core/report/audit_uncertainty.h"
+#include "core/present/caution.h"
 #include "core/util/errors.h"
 
 namespace calivera {
 
 const std::string& auditCautionText() {
-  static const std::string text =
-      "Results describe model performance on this cohort; they do not replace clinical "
-      "judgment. Any use in care is a decision for local clinical governance and licensed "
-      "practice under local regulations.";
+  static const std::string text = kCautionText;
   return text;
 }
 

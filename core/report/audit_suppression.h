@@ -8,7 +8,7 @@
 // published has one degree of freedom, so hiding any of TP, FP, FN, TN hides all four.
 //
 // Practice and thresholds: counts below 5, 10 or 11 are commonly suppressed, with complementary
-// suppression so a hidden cell cannot be derived from margins (see /work/shared/METHODS.md,
+// suppression so a hidden cell cannot be derived from margins (see docs/methods.md,
 // "Reporting and disclosure"; the rule "no line of a table with exactly one suppressed cell" is
 // the classical necessary condition for two-way tables).
 //

@@ -137,6 +137,8 @@ json settingsJson(const ValidationRun& run) {
           {"event_value",
            run.request.outcome.eventValue ? json(*run.request.outcome.eventValue) : json(nullptr)},
           {"groups", o.groups},
+          {"column_mapping", run.request.columnMapping},
+          {"development_data_stated", run.request.developmentData},
           {"thresholds", o.thresholds},
           {"flag_rule", "risk >= threshold"},
           {"histogram_bins", o.histogramBins},

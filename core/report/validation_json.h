@@ -30,14 +30,11 @@
 #include <string>
 
 #include "core/metrics/validation_run.h"
+#include "core/present/caution.h"
 
 namespace calivera {
 
 inline constexpr const char* kValidationFormatId = "calivera-validation/1";
-inline constexpr const char* kCautionText =
-    "Results describe model performance on this cohort; they do not replace clinical judgment. "
-    "Any use in care is a decision for local clinical governance and licensed practice under "
-    "local regulations.";
 
 nlohmann::json validationToJson(const ValidationRun& run);
 std::string validationJsonText(const ValidationRun& run);  // indented, trailing newline

@@ -41,7 +41,7 @@ std::vector<double> modelRisks(const Model& model, const Table& table,
 }  // namespace
 
 UncertaintySubject uncertaintySubject(const ValidationRun& run) {
-  return UncertaintySubject{run.table,
+  return UncertaintySubject{*run.table,
                             run.request.outcome,
                             run.model ? &*run.model : nullptr,
                             run.request.riskColumn,

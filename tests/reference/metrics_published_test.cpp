@@ -1,5 +1,5 @@
-// Metric functions against published worked examples (values and confidence marks from
-// /work/shared/METHODS.md; "read" = read in the source, "computed" = recomputed from the formula,
+// Metric functions against published worked examples (values and provenance marks as listed in
+// docs/methods.md; "read" = read in the source, "computed" = recomputed from the formula,
 // "memory" = recalled).
 #include <gtest/gtest.h>
 

@@ -20,7 +20,7 @@
 
 using namespace calivera;
 using namespace calivera::ui::charts;
-using calivera::ui::snapshotFromCounts;
+using calivera::snapshotFromCounts;
 
 namespace {
 

@@ -49,7 +49,7 @@
 #include "ui/dialogs/uncertainty_dialog.h"
 #include "ui/models/table_export.h"
 #include "ui/report/report_export_dialog.h"
-#include "ui/state/study_file.h"
+#include "core/study/study_file.h"
 #include "ui/views/chart_panel.h"
 #include "ui/views/predictor_view.h"
 #include "ui/views/subgroup_view.h"

@@ -68,8 +68,8 @@ FitSettings predictors(std::vector<std::string> names) {
 
 UpdateData dataOf(const MainWindow& w) {
   UpdateData data;
-  data.table = w.cohort()->table.get();
-  data.rows = w.cohort()->rows;
+  data.table = w.cohort()->table().get();
+  data.rows = w.cohort()->rows();
   data.outcome = w.cohort()->outcome();
   data.dataSha256 = w.study().data->sha256;
   data.dataName = "birthwt.csv";

@@ -295,12 +295,25 @@ class ReportPdfTest : public QObject {
 
   void workstationExportRunsInTheBackgroundAndRefusesUncomputedThresholds() {
     const AuditReportInput input = simulatedInput(0);
-    ui::StudyState study;
-    study.data = ui::InputFileRecord{"/somewhere/simulated.csv", std::string(64, 'c')};
-    study.modelSource = ui::ModelSource::Fitted;
+    StudyState study;
+    study.data = InputFileRecord{"/somewhere/simulated.csv", std::string(64, 'c')};
+    study.modelSource = ModelSource::Fitted;
     study.model = input.model;
     study.exclusions = input.exclusions;
-    study.result = std::make_shared<const ValidationResult>(input.result);
+    // The study's run as the pipeline leaves it (core's ValidationRun for a fitted model).
+    auto run = std::make_shared<ValidationRun>();
+    run->request.dataPath = study.data->path;
+    run->request.modelPath = "(fitted in the workstation)";
+    run->dataSha256 = study.data->sha256;
+    run->model = input.model;
+    run->modelName = input.model.name;
+    run->modelSha256 = input.modelFile.sha256;
+    run->performance = kPerformanceApparent;
+    run->performanceBasis = "stated by the user: the cohort is the model's development data";
+    run->cohort.exclusions = input.exclusions;
+    run->result = input.result;
+    study.run = run;
+    study.result = std::shared_ptr<const ValidationResult>(run, &run->result);
     QTemporaryDir dir;
     ui::ReportExportRequest request;
     request.path = dir.filePath(QStringLiteral("study.pdf")).toStdString();
@@ -318,7 +331,7 @@ class ReportPdfTest : public QObject {
     QVERIFY(text.contains(QStringLiteral("counts from 1 to 10 hidden")));
     request.thresholds = {0.125};
     QVERIFY_THROWS_EXCEPTION(InputError, ui::exportReport(study, request));
-    ui::StudyState empty;
+    StudyState empty;
     QVERIFY_THROWS_EXCEPTION(InputError, ui::auditInputFromStudy(empty, request));
   }
 };

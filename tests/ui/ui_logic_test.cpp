@@ -13,12 +13,12 @@
 #include "ui/models/result_tables.h"
 #include "ui/models/table_export.h"
 #include "ui/models/uncertainty_tables.h"
-#include "ui/state/predictor_space.h"
-#include "ui/state/readings.h"
-#include "ui/state/spline_list.h"
-#include "ui/state/study_file.h"
-#include "ui/state/threshold_state.h"
-#include "ui/state/unit_check.h"
+#include "core/study/predictor_space.h"
+#include "core/present/readings.h"
+#include "core/study/spline_list.h"
+#include "core/study/study_file.h"
+#include "core/study/threshold_state.h"
+#include "core/study/unit_check.h"
 
 using namespace calivera;
 using namespace calivera::ui;
@@ -302,9 +302,9 @@ class UiLogicTest : public QObject {
 
   void sampleSizeWarnings() {
     CohortSummary small{500, 40, 0.08, false};
-    QCOMPARE(calivera::ui::sampleSizeWarnings(small).size(), std::size_t{1});
+    QCOMPARE(::calivera::sampleSizeWarnings(small).size(), std::size_t{1});
     CohortSummary fine{5000, 400, 0.08, false};
-    QVERIFY(calivera::ui::sampleSizeWarnings(fine).empty());
+    QVERIFY(::calivera::sampleSizeWarnings(fine).empty());
   }
 };
 

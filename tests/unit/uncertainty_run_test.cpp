@@ -76,7 +76,7 @@ TEST(UncertaintyRun, ABorrowedSubjectGivesTheSameResultsAsTheRun) {
   // The workstation's route: its own copies of the inputs, borrowed for the call.
   const ValidationInput input = run.cohort.input;
   const std::vector<std::uint32_t> rows = run.cohort.rows;
-  const UncertaintySubject subject{run.table,    run.request.outcome, &*run.model,
+  const UncertaintySubject subject{*run.table,   run.request.outcome, &*run.model,
                                    std::nullopt, run.modelName,       rows,
                                    input,        run.request.options, run.result};
   const UncertaintyResults viaSubject = runUncertainty(subject, request);

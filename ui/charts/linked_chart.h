@@ -11,7 +11,7 @@
 #include <QtCharts/QChart>
 #include <optional>
 
-#include "ui/state/threshold_state.h"
+#include "core/study/threshold_state.h"
 
 namespace calivera::ui::charts {
 

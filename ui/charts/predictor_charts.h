@@ -1,5 +1,5 @@
 #pragma once
-// Charts of the model in predictor space (data from ui/state/predictor_space.h):
+// Charts of the model in predictor space (data from core/study/predictor_space.h):
 //   RiskCurveChart - predicted risk against one predictor, the others held fixed; the threshold
 //                    as a horizontal line and the cut point(s) where the curve crosses it as
 //                    vertical lines; the cohort's values as a rug along the bottom.
@@ -10,7 +10,7 @@
 #include <vector>
 
 #include "ui/charts/linked_chart.h"
-#include "ui/state/predictor_space.h"
+#include "core/study/predictor_space.h"
 
 class QLineSeries;
 class QValueAxis;

@@ -15,7 +15,7 @@
 #include "ui/async/background_job.h"
 #include "ui/models/record_table_model.h"
 #include "ui/models/result_tables.h"
-#include "ui/state/spline_list.h"
+#include "core/study/spline_list.h"
 
 namespace calivera::ui {
 

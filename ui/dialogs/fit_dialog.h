@@ -8,7 +8,7 @@
 #include <optional>
 
 #include "core/data/table.h"
-#include "ui/state/analysis.h"
+#include "core/study/study_analysis.h"
 
 class QListWidget;
 class QCheckBox;

@@ -19,7 +19,7 @@
 #include "core/data/cohort.h"
 #include "core/data/csv_reader.h"
 #include "ui/async/background_job.h"
-#include "ui/state/analysis.h"
+#include "core/study/study_analysis.h"
 
 namespace calivera::ui {
 

@@ -108,7 +108,7 @@ InternalValidationDialog::InternalValidationDialog(Model model,
 }
 
 void InternalValidationDialog::startRun() {
-  if (!cohort_ || !cohort_->table || job_->isRunning()) return;
+  if (!cohort_ || !cohort_->table() || job_->isRunning()) return;
   OptimismOptions options;
   options.bootstrap.replicates = replicates_->value();
   options.bootstrap.seed = static_cast<std::uint64_t>(seed_->value());

@@ -10,8 +10,8 @@
 #include <algorithm>
 #include <cmath>
 
-#include "ui/state/analysis.h"
-#include "ui/state/unit_check.h"
+#include "core/study/study_analysis.h"
+#include "core/study/unit_check.h"
 
 namespace calivera::ui {
 

@@ -10,8 +10,8 @@ namespace calivera::ui {
 
 UpdateData updateDataOf(const CohortData& cohort, const InputFileRecord& data) {
   UpdateData out;
-  out.table = cohort.table.get();
-  out.rows = cohort.rows;
+  out.table = cohort.table().get();
+  out.rows = cohort.rows();
   out.outcome = cohort.outcome();
   out.dataSha256 = data.sha256;
   out.dataName = std::filesystem::path(data.path).filename().string();

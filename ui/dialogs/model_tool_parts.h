@@ -6,7 +6,7 @@
 #include <QString>
 
 #include "core/uncertainty/model_update.h"
-#include "ui/state/analysis.h"
+#include "core/study/study_analysis.h"
 
 class QBoxLayout;
 class QLabel;

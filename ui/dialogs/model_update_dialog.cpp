@@ -132,7 +132,7 @@ void ModelUpdateDialog::chooseMethod(UpdateMethod method) {
 }
 
 void ModelUpdateDialog::startRun() {
-  if (!cohort_ || !cohort_->table || job_->isRunning()) return;
+  if (!cohort_ || !cohort_->table() || job_->isRunning()) return;
   const UpdateData data = updateDataOf(*cohort_, data_);
   UpdateOptions options;
   options.firth = firth_->isChecked();

@@ -12,7 +12,7 @@
 
 #include "core/model/model.h"
 #include "core/uncertainty/model_update.h"
-#include "ui/state/analysis.h"
+#include "core/study/study_analysis.h"
 
 class QCheckBox;
 class QComboBox;

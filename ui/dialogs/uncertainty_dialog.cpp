@@ -18,7 +18,7 @@
 #include <set>
 #include <thread>
 
-#include "ui/state/study_file.h"
+#include "core/study/study_file.h"
 
 namespace calivera::ui {
 

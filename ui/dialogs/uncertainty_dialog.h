@@ -8,7 +8,7 @@
 #include <vector>
 
 #include "core/data/table.h"
-#include "ui/state/study_state.h"
+#include "core/study/study.h"
 
 class QLabel;
 class QLineEdit;

@@ -21,6 +21,7 @@
 
 #include "core/model/model_io.h"
 #include "core/report/audit_format.h"
+#include "core/report/audit_run.h"
 #include "core/util/atomic_file.h"
 #include "core/util/errors.h"
 #include "core/util/sha256.h"
@@ -29,42 +30,24 @@
 namespace calivera::ui {
 
 AuditReportInput auditInputFromStudy(const StudyState& study, const ReportExportRequest& request) {
-  if (!study.result || !study.data || !study.model) {
+  if (!study.run || !study.result || !study.data || !study.model) {
     throw InputError("no validation result to report yet: load a cohort and a model first");
   }
-  AuditReportInput input;
-  input.title = request.title;
-  input.softwareVersion = CALIVERA_VERSION;
-  input.cohortFile = {study.data->path, study.data->sha256};
-  input.exclusions = study.exclusions;
-  input.model = *study.model;
-  if (study.modelSource == ModelSource::File && study.modelFile) {
-    input.modelFile = {study.modelFile->path, study.modelFile->sha256};
-  } else {
-    // A model fitted in the workstation has no file; its fingerprint is that of its model JSON,
-    // the file "Save model" would write.
-    input.modelFile = {"(fitted in the workstation)", sha256OfBytes(modelToJson(*study.model))};
-  }
+  // The command line's adapter on the study's own run, so the workstation's PDF states the same
+  // performance basis, settings and fingerprints as `calivera validate --pdf` for this study.
+  static const UncertaintyResults kNoUncertainty;
+  AuditReportInput input =
+      auditInputFromRun(*study.run, request.title, request.suppressBelow,
+                        study.uncertainty ? *study.uncertainty : kNoUncertainty);
+  if (!study.uncertainty) input.uncertainty.reset();
   AuditSettings& settings = input.settings;
-  settings.outcomeColumn = study.import.outcomeColumn;
-  settings.eventValue = study.import.eventValue;
-  settings.groups = study.analysis.groups;
-  settings.apparent = study.analysis.apparent;
   settings.tableThresholds = request.thresholds;
   settings.reasonableThresholds =
       Interval{study.analysis.reasonableLo, study.analysis.reasonableHi};
-  settings.suppressBelow = request.suppressBelow;
-  for (const auto& [variable, column] : study.columnMapping) {
-    settings.other.emplace_back("Column mapping: " + variable, column);
-  }
   if (study.modelSource == ModelSource::Fitted) {
     settings.other.emplace_back(
         "Model fitted with", study.fit.firth ? "Firth penalized likelihood" : "maximum likelihood");
   }
-  input.result = *study.result;
-  // The study's sample-size assessment, bootstrap intervals, comparison and subgroups (kept in
-  // step with the result: a new cohort or model clears them).
-  if (study.uncertainty) input.uncertainty = *study.uncertainty;
   return input;
 }
 

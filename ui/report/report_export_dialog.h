@@ -15,7 +15,7 @@
 
 #include "core/report/audit_report.h"
 #include "ui/report/audit_pdf_writer.h"
-#include "ui/state/study_state.h"
+#include "core/study/study.h"
 
 class QWidget;
 

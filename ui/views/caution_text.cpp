@@ -2,14 +2,13 @@
 
 #include <QCoreApplication>
 
+#include "core/present/caution.h"
+
 namespace calivera::ui {
 
 QString cautionText() {
-  return QCoreApplication::translate(
-      "calivera",
-      "Caution: these results describe how the model performs on this cohort only. "
-      "They do not replace clinical judgment. Any use in patient care is a decision "
-      "for local clinical governance and licensed practice under local regulations.");
+  return QCoreApplication::translate("calivera", "Caution: %1")
+      .arg(QString::fromUtf8(kCautionText));
 }
 
 }  // namespace calivera::ui

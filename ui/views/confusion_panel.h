@@ -5,7 +5,7 @@
 
 #include <QWidget>
 
-#include "ui/state/threshold_state.h"
+#include "core/study/threshold_state.h"
 
 class QLabel;
 

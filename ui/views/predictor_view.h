@@ -11,9 +11,9 @@
 #include <vector>
 
 #include "core/model/model.h"
-#include "ui/state/analysis.h"
-#include "ui/state/predictor_space.h"
-#include "ui/state/threshold_state.h"
+#include "core/study/study_analysis.h"
+#include "core/study/predictor_space.h"
+#include "core/study/threshold_state.h"
 
 class QComboBox;
 class QLabel;

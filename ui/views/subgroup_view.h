@@ -10,7 +10,7 @@
 #include <optional>
 
 #include "core/uncertainty/uncertainty_run.h"
-#include "ui/state/threshold_state.h"
+#include "core/study/threshold_state.h"
 
 class QComboBox;
 class QLabel;

@@ -4,7 +4,7 @@
 #include <cmath>
 
 #include "ui/charts/chart_text.h"
-#include "ui/state/readings.h"
+#include "core/present/readings.h"
 
 namespace calivera::ui {
 

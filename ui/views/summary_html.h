@@ -5,7 +5,7 @@
 
 #include <QString>
 
-#include "ui/state/study_state.h"
+#include "core/study/study.h"
 
 namespace calivera::ui {
 

@@ -9,11 +9,11 @@
 #include <string>
 #include <vector>
 
+#include "core/study/study.h"
+#include "core/study/study_analysis.h"
 #include "core/util/progress.h"
-#include "ui/state/analysis.h"
-#include "ui/state/study_state.h"
 
-namespace calivera::ui {
+namespace calivera {
 
 struct PipelineRequest {
   StudyState study;                    // inputs and settings to use
@@ -40,4 +40,4 @@ std::vector<std::string> unmappedVariables(const Model& model,
                                            const std::map<std::string, std::string>& mapping,
                                            const Table& table);
 
-}  // namespace calivera::ui
+}  // namespace calivera

@@ -1,10 +1,10 @@
-#include "ui/state/uncertainty.h"
+#include "core/study/study_uncertainty.h"
 
 #include <nlohmann/json.hpp>
 
 #include "core/model/model_io.h"
 
-namespace calivera::ui {
+namespace calivera {
 
 UncertaintyRequest uncertaintyRequest(const UncertaintySettings& settings,
                                       const ProgressCallback& progress) {
@@ -24,9 +24,9 @@ UncertaintyResults computeUncertainty(const CohortData& cohort, const Validation
                                       const UncertaintySettings& settings,
                                       const ProgressCallback& progress) {
   const std::optional<std::string> noRiskColumn;
-  const UncertaintySubject subject{*cohort.table, cohort.outcomeSpec, &cohort.model,
-                                   noRiskColumn,  cohort.model.name,  cohort.rows,
-                                   cohort.input,  cohort.options,     result};
+  const UncertaintySubject subject{*cohort.table(), cohort.outcomeSpec(), &cohort.model(),
+                                   noRiskColumn,    cohort.model().name,  cohort.rows(),
+                                   cohort.input(),  cohort.options(),     result};
   return runUncertainty(subject, uncertaintyRequest(settings, progress));
 }
 
@@ -53,4 +53,4 @@ std::string validationBasis(const StudyState& study) {
   return j.dump();
 }
 
-}  // namespace calivera::ui
+}  // namespace calivera

@@ -23,9 +23,9 @@
 #include <string>
 #include <vector>
 
-#include "ui/state/study_state.h"
+#include "core/study/study.h"
 
-namespace calivera::ui {
+namespace calivera {
 
 inline constexpr const char* kStudyFormatId = "calivera-study/1";
 inline constexpr int kMaxBootstrapReplicates = 100000;  // as the command line's --bootstrap
@@ -49,4 +49,4 @@ struct InputCheck {
 // Compares each input's current SHA-256 with the recorded one.
 std::vector<InputCheck> checkInputs(const StudyState& study);
 
-}  // namespace calivera::ui
+}  // namespace calivera

@@ -13,10 +13,11 @@
 
 #include "core/data/cohort.h"
 #include "core/metrics/validation.h"
+#include "core/metrics/validation_run.h"
 #include "core/model/model.h"
 #include "core/uncertainty/uncertainty_run.h"
 
-namespace calivera::ui {
+namespace calivera {
 
 struct InputFileRecord {
   std::string path;    // absolute path at the time it was loaded
@@ -82,6 +83,9 @@ struct StudyState {
   std::optional<Model> model;
   std::vector<std::string> modelWarnings;  // separation, non-convergence, unit checks
   ExclusionReport exclusions;
+  // The one run the command line would make for this study (core/metrics/validation_run.h):
+  // performance basis, fingerprints, request; `result` aliases run->result.
+  std::shared_ptr<const ValidationRun> run;
   std::shared_ptr<const ValidationResult> result;
   // Sample size (always, once a result exists) and whatever uncertaintySettings asked for.
   std::shared_ptr<const UncertaintyResults> uncertainty;
@@ -90,4 +94,4 @@ struct StudyState {
   std::string uncertaintyBasis;
 };
 
-}  // namespace calivera::ui
+}  // namespace calivera

@@ -1,8 +1,8 @@
-#include "ui/state/unit_check.h"
+#include "core/study/unit_check.h"
 
 #include <cctype>
 
-namespace calivera::ui {
+namespace calivera {
 
 namespace {
 
@@ -56,4 +56,4 @@ UnitCheck checkUnit(const std::optional<std::string>& modelUnit, const std::stri
                                     "; convert the column before validating"};
 }
 
-}  // namespace calivera::ui
+}  // namespace calivera

@@ -17,9 +17,9 @@
 
 #include "core/data/table.h"
 #include "core/model/model.h"
-#include "ui/state/analysis.h"
+#include "core/study/study_analysis.h"
 
-namespace calivera::ui {
+namespace calivera {
 
 struct PredictorInfo {
   std::string variable;  // model variable
@@ -82,4 +82,4 @@ std::vector<Polyline> contourAt(const BoundaryData& surface, double level);
 // x values where the curve crosses `level` (linear interpolation between grid points).
 std::vector<double> crossings(const RiskCurveData& curve, double level);
 
-}  // namespace calivera::ui
+}  // namespace calivera

@@ -7,19 +7,19 @@
 #include <memory>
 #include <string>
 
+#include "core/study/study.h"
+#include "core/study/study_analysis.h"
 #include "core/uncertainty/uncertainty_run.h"
 #include "core/util/progress.h"
-#include "ui/state/analysis.h"
-#include "ui/state/study_state.h"
 
-namespace calivera::ui {
+namespace calivera {
 
 // The core request for `settings`; sample size always, the rest as asked.
 UncertaintyRequest uncertaintyRequest(const UncertaintySettings& settings,
                                       const ProgressCallback& progress);
 
-// Runs core's runUncertainty on the analysed cohort. `result` is validate(cohort.input,
-// cohort.options). Throws InputError (unreadable compared model, missing subgroup column),
+// Runs core's runUncertainty on the analysed cohort. `result` is validate(cohort.input(),
+// cohort.options()). Throws InputError (unreadable compared model, missing subgroup column),
 // AnalysisError, Cancelled.
 UncertaintyResults computeUncertainty(const CohortData& cohort, const ValidationResult& result,
                                       const UncertaintySettings& settings,
@@ -34,4 +34,4 @@ UncertaintySettings withComparedHashes(UncertaintySettings settings,
 // the reasonable range, which only change how results are shown.
 std::string validationBasis(const StudyState& study);
 
-}  // namespace calivera::ui
+}  // namespace calivera

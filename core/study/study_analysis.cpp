@@ -1,4 +1,4 @@
-#include "ui/state/analysis.h"
+#include "core/study/study_analysis.h"
 
 #include <algorithm>
 #include <cmath>
@@ -10,15 +10,9 @@
 #include "core/util/errors.h"
 #include "core/util/sha256.h"
 
-namespace calivera::ui {
+namespace calivera {
 
 namespace {
-
-// Maps a sub-range of the overall progress onto a step's own 0..1 progress.
-ProgressCallback subProgress(const ProgressCallback& progress, double from, double to) {
-  if (!progress) return {};
-  return [progress, from, to](double f) { return progress(from + (to - from) * f); };
-}
 
 void collectVariables(const Term& term, std::vector<std::string>& out) {
   if (term.kind == TransformKind::Product) {
@@ -73,38 +67,42 @@ std::vector<std::string> modelVariables(const Model& model) {
   return out;
 }
 
+ValidationRequest validationRequestFor(const StudyState& study, const Model& model) {
+  ValidationRequest request;
+  if (study.data) request.dataPath = study.data->path;
+  request.csv = csvOptionsFor(study.import);
+  request.outcome = OutcomeSpec{study.import.outcomeColumn, study.import.eventValue};
+  // The pipeline has read (or fitted) the model already; runValidation takes it as it is, under
+  // the file's path where there is one.
+  request.model = model;
+  if (study.modelSource == ModelSource::File && study.modelFile) {
+    request.modelLabel = study.modelFile->path;
+  }
+  request.columnMapping = study.columnMapping;
+  request.developmentData = study.analysis.apparent;
+  request.options.groups = study.analysis.groups;
+  request.options.thresholds = thresholdRange(0.01, 0.99, 0.01);
+  return request;
+}
+
 AnalysisOutput runAnalysis(const std::shared_ptr<const Table>& table, Model model,
                            const StudyState& study, const ProgressCallback& progress) {
   if (!table) throw InputError("no cohort is loaded");
   if (study.import.outcomeColumn.empty()) throw InputError("no outcome column is chosen");
-  for (const auto& [from, to] : study.columnMapping) model.columnMapping[from] = to;
-  reportProgress(progress, 0.0);
-  // The same preparation as the command line's validate (core/metrics/validation_run.h).
-  const OutcomeSpec outcome{study.import.outcomeColumn, study.import.eventValue};
-  PreparedCohort prepared = prepareCohort(*table, outcome, &model, std::nullopt);
-  reportProgress(progress, 0.1);
-
+  ValidationRequest request = validationRequestFor(study, model);
+  request.options.progress = progress;
+  auto run = std::make_shared<ValidationRun>(
+      runValidation(request, table, study.data ? study.data->sha256 : std::string()));
+  if (study.modelSource == ModelSource::File && study.modelFile) {
+    run->modelSha256 = study.modelFile->sha256;  // the file's bytes, as the command line hashes
+  }
   auto cohort = std::make_shared<CohortData>();
-  cohort->table = table;
-  cohort->rows = prepared.rows;
-  cohort->outcomeSpec = outcome;
-  cohort->options.groups = study.analysis.groups;
-  cohort->options.apparent =
-      study.analysis.apparent || (study.data && isApparent(&model, study.data->sha256));
-  cohort->options.thresholds = thresholdRange(0.01, 0.99, 0.01);
-  ValidationOptions options = cohort->options;
-  options.progress = subProgress(progress, 0.1, 1.0);
-  ValidationResult result = validate(prepared.input, options);
-  result.warnings.insert(result.warnings.begin(), prepared.warnings.begin(),
-                         prepared.warnings.end());
-  cohort->input = std::move(prepared.input);
-  cohort->model = model;
-
+  cohort->run = run;
   AnalysisOutput out;
-  out.result = std::make_shared<const ValidationResult>(std::move(result));
-  out.model = std::move(model);
+  out.model = *run->model;
+  out.exclusions = run->cohort.exclusions;
+  out.result = std::shared_ptr<const ValidationResult>(run, &run->result);
   out.cohort = std::move(cohort);
-  out.exclusions = prepared.exclusions;
   return out;
 }
 
@@ -138,4 +136,4 @@ FittedModel fitModel(const Table& table, const ImportSettings& import, const Fit
   return out;
 }
 
-}  // namespace calivera::ui
+}  // namespace calivera

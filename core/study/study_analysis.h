@@ -14,29 +14,35 @@
 #include "core/fit/logistic_fit.h"
 #include "core/fit/profile_ci.h"
 #include "core/metrics/validation.h"
+#include "core/metrics/validation_run.h"
 #include "core/model/model.h"
-#include "ui/state/study_state.h"
+#include "core/study/study.h"
 
-namespace calivera::ui {
+namespace calivera {
 
 // Per-patient data of the analysed rows, kept for the threshold index, the predictor views and
-// the uncertainty run (ui/state/uncertainty.h): exactly what validate() received.
+// the uncertainty run (core/study/study_uncertainty.h): a view of the one ValidationRun that the
+// command line would produce for the same study (core/metrics/validation_run.h).
 struct CohortData {
-  std::shared_ptr<const Table> table;
-  std::vector<std::uint32_t> rows;  // analysed rows of `table`
-  OutcomeSpec outcomeSpec;
-  Model model;                // with the study's column mapping applied
-  ValidationInput input;      // outcome (0/1), risk and linear predictor per analysed row
-  ValidationOptions options;  // as validate() used them, thresholds filled in, no progress
-  const std::vector<double>& outcome() const { return input.outcome; }
-  const std::vector<double>& risk() const { return input.risk; }
+  std::shared_ptr<const ValidationRun> run;  // never null; its model is set
+
+  const std::shared_ptr<const Table>& table() const { return run->table; }
+  const std::vector<std::uint32_t>& rows() const { return run->cohort.rows; }  // analysed rows
+  const OutcomeSpec& outcomeSpec() const { return run->request.outcome; }
+  const Model& model() const { return *run->model; }  // with the study's column mapping applied
+  // Outcome (0/1), risk and linear predictor per analysed row: exactly what validate() received.
+  const ValidationInput& input() const { return run->cohort.input; }
+  // As validate() used them: thresholds filled in, apparent decided, no progress callback.
+  const ValidationOptions& options() const { return run->request.options; }
+  const std::vector<double>& outcome() const { return input().outcome; }
+  const std::vector<double>& risk() const { return input().risk; }
 };
 
 struct AnalysisOutput {
   Model model;  // with the study's column mapping applied
   std::shared_ptr<const CohortData> cohort;
   ExclusionReport exclusions;
-  std::shared_ptr<const ValidationResult> result;
+  std::shared_ptr<const ValidationResult> result;  // aliases cohort->run->result
 };
 
 struct LoadedTable {
@@ -51,8 +57,14 @@ LoadedTable loadCohortFile(const std::string& path, const ImportSettings& settin
 // Model variables (term variables and product factors), in first-use order, before mapping.
 std::vector<std::string> modelVariables(const Model& model);
 
-// Validates `model` on the cohort: complete cases over the model's columns and the outcome,
-// linear predictor, risk, then core's validate(). `progress` spans the whole run.
+// The request the study stands for: the cohort, its import settings, the model (its file, or the
+// fitted model held in the study), the column mapping, groups and the development-data statement.
+// `calivera validate` with studyValidateArguments() (core/study/study_command.h) builds the same.
+ValidationRequest validationRequestFor(const StudyState& study, const Model& model);
+
+// Validates `model` on the cohort through core's runValidation (the command line's path):
+// complete cases over the model's columns and the outcome, linear predictor, risk, validate().
+// `progress` spans the whole run.
 AnalysisOutput runAnalysis(const std::shared_ptr<const Table>& table, Model model,
                            const StudyState& study, const ProgressCallback& progress);
 
@@ -70,4 +82,4 @@ struct FittedModel {
 FittedModel fitModel(const Table& table, const ImportSettings& import, const FitSettings& fit,
                      const ProgressCallback& progress);
 
-}  // namespace calivera::ui
+}  // namespace calivera

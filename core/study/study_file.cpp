@@ -1,4 +1,4 @@
-#include "ui/state/study_file.h"
+#include "core/study/study_file.h"
 
 #include <filesystem>
 #include <fstream>
@@ -10,7 +10,7 @@
 #include "core/util/errors.h"
 #include "core/util/sha256.h"
 
-namespace calivera::ui {
+namespace calivera {
 
 namespace fs = std::filesystem;
 using nlohmann::json;
@@ -274,4 +274,4 @@ std::vector<InputCheck> checkInputs(const StudyState& study) {
   return out;
 }
 
-}  // namespace calivera::ui
+}  // namespace calivera

@@ -5,11 +5,11 @@
 #include <map>
 #include <string>
 
-namespace calivera::ui {
+namespace calivera {
 
 // Throws InputError naming the item that is not COLUMN=KNOTS with 3 to 7 knots, or a column
 // given twice. Empty text: no splines.
 std::map<std::string, int> parseSplineList(const std::string& text);
 std::string formatSplineList(const std::map<std::string, int>& splines);
 
-}  // namespace calivera::ui
+}  // namespace calivera

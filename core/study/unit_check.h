@@ -7,7 +7,7 @@
 #include <optional>
 #include <string>
 
-namespace calivera::ui {
+namespace calivera {
 
 enum class UnitVerdict { NotStated, Matches, Differs, ColumnSilent };
 
@@ -22,4 +22,4 @@ std::optional<std::string> unitFromHeader(const std::string& header);
 bool sameUnit(const std::string& a, const std::string& b);
 UnitCheck checkUnit(const std::optional<std::string>& modelUnit, const std::string& columnHeader);
 
-}  // namespace calivera::ui
+}  // namespace calivera

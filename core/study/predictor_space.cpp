@@ -1,4 +1,4 @@
-#include "ui/state/predictor_space.h"
+#include "core/study/predictor_space.h"
 
 #include <algorithm>
 #include <charconv>
@@ -8,7 +8,7 @@
 #include "core/model/linear_predictor.h"
 #include "core/util/errors.h"
 
-namespace calivera::ui {
+namespace calivera {
 
 namespace {
 
@@ -64,7 +64,7 @@ std::string heldDescription(const std::vector<PredictorInfo>& predictors,
 Table syntheticTable(const CohortData& cohort, const std::vector<PredictorInfo>& predictors,
                      const std::map<std::string, std::string>& held, std::size_t rows) {
   Table t;
-  t.sourceName = cohort.table->sourceName + " (model evaluation grid)";
+  t.sourceName = cohort.table()->sourceName + " (model evaluation grid)";
   t.rowCount = rows;
   for (const PredictorInfo& p : predictors) {
     if (t.find(p.column) != nullptr) continue;
@@ -132,13 +132,13 @@ std::vector<PredictorInfo> describePredictors(const Model& model,
                                               const std::map<std::string, std::string>& mapping,
                                               const CohortData& cohort) {
   std::vector<PredictorInfo> out;
-  if (!cohort.table) return out;
+  if (!cohort.table()) return out;
   const Model m = mappedModel(model, mapping);
   for (const std::string& variable : modelVariables(m)) {
     PredictorInfo p;
     p.variable = variable;
     p.column = columnFor(m, variable);
-    const Column* c = cohort.table->find(p.column);
+    const Column* c = cohort.table()->find(p.column);
     if (c == nullptr) continue;
     p.numeric = c->kind == ColumnKind::Numeric;
     for (const Term& t : m.terms) {
@@ -146,8 +146,8 @@ std::vector<PredictorInfo> describePredictors(const Model& model,
     }
     if (p.numeric) {
       std::vector<double> values;
-      values.reserve(cohort.rows.size());
-      for (std::uint32_t r : cohort.rows) {
+      values.reserve(cohort.rows().size());
+      for (std::uint32_t r : cohort.rows()) {
         if (!std::isnan(c->numbers[r])) values.push_back(c->numbers[r]);
       }
       if (values.empty()) continue;
@@ -195,10 +195,10 @@ RiskCurveData riskCurve(const Model& model, const std::map<std::string, std::str
   out.risk = risks(m, t);
   out.heldText = heldDescription(predictors, held, {variable});
 
-  const Column& c = *cohort.table->find(p.column);
+  const Column& c = *cohort.table()->find(p.column);
   std::vector<double> values;
-  values.reserve(cohort.rows.size());
-  for (std::uint32_t r : cohort.rows) values.push_back(c.numbers[r]);
+  values.reserve(cohort.rows().size());
+  for (std::uint32_t r : cohort.rows()) values.push_back(c.numbers[r]);
   std::sort(values.begin(), values.end());
   if (values.size() <= kMaxRug) {
     out.rug = values;
@@ -239,12 +239,12 @@ BoundaryData riskSurface(const Model& model, const std::map<std::string, std::st
   out.risk = risks(m, t);
   out.heldText = heldDescription(predictors, held, {xVariable, yVariable});
 
-  const Column& cx = *cohort.table->find(px.column);
-  const Column& cy = *cohort.table->find(py.column);
+  const Column& cx = *cohort.table()->find(px.column);
+  const Column& cy = *cohort.table()->find(py.column);
   out.patientStride =
-      std::max<std::size_t>(1, (cohort.rows.size() + kMaxPatients - 1) / kMaxPatients);
-  for (std::size_t k = 0; k < cohort.rows.size(); k += out.patientStride) {
-    const std::uint32_t r = cohort.rows[k];
+      std::max<std::size_t>(1, (cohort.rows().size() + kMaxPatients - 1) / kMaxPatients);
+  for (std::size_t k = 0; k < cohort.rows().size(); k += out.patientStride) {
+    const std::uint32_t r = cohort.rows()[k];
     out.patients.push_back({cx.numbers[r], cy.numbers[r], cohort.outcome()[k] > 0.5});
   }
   return out;
@@ -343,4 +343,4 @@ std::vector<double> crossings(const RiskCurveData& curve, double level) {
   return out;
 }
 
-}  // namespace calivera::ui
+}  // namespace calivera

@@ -3,10 +3,9 @@
 // tested without widgets. Counts at any threshold come from core's ThresholdIndex (one sort, then
 // O(log n) per move), so a move never recomputes a metric.
 //
-// Conventions: a patient is flagged when risk >= threshold (as in core). Proportions with a zero
-// denominator (PPV when nobody is flagged) are NaN and shown as "not defined". Net benefit follows
-// Vickers & Elkin, Med Decis Making 2006: NB = TP/n - FP/n * t/(1-t); treat-all NB =
-// pi - (1-pi) t/(1-t); both are NaN at t = 1.
+// Conventions: those of core's operating point (core/metrics/operating_point.h), which computes
+// every number here: flagged when risk >= threshold; a proportion with a zero denominator is NaN
+// ("not defined"); net benefit (Vickers & Elkin 2006) is NaN outside 0 < t < 1.
 
 #include <cstddef>
 #include <memory>
@@ -14,7 +13,7 @@
 
 #include "core/metrics/threshold_index.h"
 
-namespace calivera::ui {
+namespace calivera {
 
 struct ThresholdSnapshot {
   double threshold = 0.0;
@@ -62,4 +61,4 @@ class ThresholdState {
   double threshold_ = 0.1;
 };
 
-}  // namespace calivera::ui
+}  // namespace calivera

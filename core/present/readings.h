@@ -21,7 +21,7 @@
 
 #include "core/metrics/validation.h"
 
-namespace calivera::ui {
+namespace calivera {
 
 struct HierarchyReading {
   bool meanMet = false;
@@ -36,4 +36,4 @@ std::string readHosmerLemeshow(const HosmerLemeshow& hl);
 // One sentence per concern; empty when the cohort meets the yardsticks.
 std::vector<std::string> sampleSizeWarnings(const CohortSummary& cohort);
 
-}  // namespace calivera::ui
+}  // namespace calivera

@@ -1,4 +1,4 @@
-#include "ui/state/spline_list.h"
+#include "core/study/spline_list.h"
 
 #include <charconv>
 #include <sstream>
@@ -6,7 +6,7 @@
 #include "core/fit/spline_knots.h"
 #include "core/util/errors.h"
 
-namespace calivera::ui {
+namespace calivera {
 namespace {
 
 std::string trimmed(const std::string& s) {
@@ -49,4 +49,4 @@ std::string formatSplineList(const std::map<std::string, int>& splines) {
   return text;
 }
 
-}  // namespace calivera::ui
+}  // namespace calivera

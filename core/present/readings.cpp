@@ -1,8 +1,8 @@
-#include "ui/state/readings.h"
+#include "core/present/readings.h"
 
 #include <cstdio>
 
-namespace calivera::ui {
+namespace calivera {
 
 namespace {
 
@@ -109,4 +109,4 @@ std::vector<std::string> sampleSizeWarnings(const CohortSummary& cohort) {
   return out;
 }
 
-}  // namespace calivera::ui
+}  // namespace calivera

@@ -1,13 +1,13 @@
-#include "ui/state/pipeline.h"
+#include "core/study/study_pipeline.h"
 
 #include <filesystem>
 
 #include "core/model/model_io.h"
+#include "core/study/study_uncertainty.h"
 #include "core/util/errors.h"
 #include "core/util/sha256.h"
-#include "ui/state/uncertainty.h"
 
-namespace calivera::ui {
+namespace calivera {
 
 std::vector<std::string> unmappedVariables(const Model& model,
                                            const std::map<std::string, std::string>& mapping,
@@ -30,6 +30,7 @@ PipelineOutput runPipeline(const PipelineRequest& request, const ProgressCallbac
   out.study = request.study;
   StudyState& s = out.study;
   s.result.reset();
+  s.run.reset();
   s.exclusions = {};
   const std::shared_ptr<const UncertaintyResults> previousUncertainty = std::move(s.uncertainty);
   s.uncertainty.reset();
@@ -94,6 +95,7 @@ PipelineOutput runPipeline(const PipelineRequest& request, const ProgressCallbac
   });
   s.exclusions = analysis.exclusions;
   s.result = analysis.result;
+  s.run = analysis.cohort->run;
   out.cohort = analysis.cohort;
 
   const std::string basis = validationBasis(s);
@@ -129,4 +131,4 @@ PipelineOutput runPipeline(const PipelineRequest& request, const ProgressCallbac
   return out;
 }
 
-}  // namespace calivera::ui
+}  // namespace calivera

@@ -1,0 +1,64 @@
+#include "app/cli/run_command.h"
+
+#include <iostream>
+
+#include "app/cli/arguments.h"
+#include "app/cli/validate_command.h"
+#include "core/study/reproduce_command.h"
+#include "core/study/study_file.h"
+#include "core/util/errors.h"
+
+namespace calivera::cli {
+namespace {
+
+constexpr const char* kHelp =
+    "usage: calivera run STUDY.cvstudy [--json REPORT.json] [--csv-dir DIR]\n"
+    "                    [--pdf REPORT.pdf [--title TEXT] [--suppress-below N] [--paper "
+    "a4|letter]]\n\n"
+    "Runs a study saved by the workstation, headless, with all its settings: the cohort and its\n"
+    "import settings, the model file (or the model fitted in the workstation), the column\n"
+    "mapping, risk groups, the development-data statement, bootstrap, comparison, subgroups and\n"
+    "sample-size thresholds. Outputs and exit statuses are those of `calivera validate`; the\n"
+    "summary ends with the validate command line that gives the same numbers. The PDF shades the\n"
+    "study's reasonable threshold range.\n\n"
+    "  --json FILE          write the full report as JSON instead of the summary on stdout\n"
+    "  --csv-dir DIR        also write every table as CSV into DIR\n"
+    "  --pdf FILE           also write the audit report as PDF (aggregates only)\n"
+    "  --title TEXT         the report's title\n"
+    "  --suppress-below N   in the report, show counts from 1 to N-1 as <N\n"
+    "  --paper SIZE         a4 (default) or letter\n";
+
+}  // namespace
+
+int runRunCommand(const std::vector<std::string>& words) {
+  OptionSpec spec;
+  spec.valued = {"--json", "--csv-dir", "--pdf", "--title", "--suppress-below", "--paper"};
+  spec.flags = {"--help"};
+  const Arguments arguments(words, spec);
+  if (arguments.has("--help")) {
+    std::cout << kHelp;
+    return 0;
+  }
+  if (arguments.positional().size() != 1) {
+    throw InputError(arguments.positional().empty()
+                         ? "give the study file: calivera run STUDY.cvstudy"
+                         : "give one study file (got '" + arguments.positional()[1] + "' too)");
+  }
+  const std::string studyPath = arguments.positional().front();
+  const StudyState study = readStudyFile(studyPath);
+  // An input that changed since the study was saved still runs (the fingerprints in every output
+  // are those of the files as read now), but the user is told before anything else.
+  for (const InputCheck& check : checkInputs(study)) {
+    std::cerr << "warning: " << studyPath << ": " << check.role << " " << check.path << " "
+              << check.problem << '\n';
+  }
+  const StudyRequests requests = studyRequests(study);
+  ValidateOutputs outputs = validateOutputsFrom(arguments);
+  if (outputs.pdfPath) {
+    outputs.reasonable = Interval{study.analysis.reasonableLo, study.analysis.reasonableHi};
+  }
+  return executeValidation(requests.validation, requests.uncertainty, outputs,
+                           reproduceCommandLine(study));
+}
+
+}  // namespace calivera::cli

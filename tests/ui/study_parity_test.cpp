@@ -1,0 +1,168 @@
+// One study, one run (issue 10): the workstation and the command line give the same report input
+// for the same study, and both call a model checked on its own development data apparent, whether
+// the fingerprint says so or the user states it. Data: MASS::birthwt (Debian r-cran-mass,
+// tests/reference/data); two routes of our own are compared, so no reference value is involved.
+#include <QAction>
+#include <QFile>
+#include <QTemporaryDir>
+#include <QtTest>
+
+#include "core/data/csv_reader.h"
+#include "core/fit/cohort_fit.h"
+#include "core/model/model_io.h"
+#include "core/report/audit_run.h"
+#include "core/study/reproduce_command.h"
+#include "core/study/study_file.h"
+#include "core/util/sha256.h"
+#include "tests/unit/study_fixture.h"
+#include "ui/async/background_job.h"
+#include "ui/dialogs/reproduce_dialog.h"
+#include "ui/main_window.h"
+#include "ui/report/report_export_dialog.h"
+
+using namespace calivera;
+using namespace calivera::ui;
+
+namespace {
+
+const std::string kBirthwt = CALIVERA_SOURCE_DIR "/tests/reference/data/birthwt.csv";
+
+// The command line's report input for the study: core's runValidation on the study's requests.
+AuditReportInput commandLineReportInput(const StudyState& study) {
+  const StudyRequests requests = studyRequests(study);
+  const ValidationRun run = runValidation(requests.validation);
+  return auditInputFromRun(run, "t", 0, calivera::runUncertainty(run, requests.uncertainty));
+}
+
+}  // namespace
+
+class StudyParityTest : public QObject {
+  Q_OBJECT
+
+ private:
+  QTemporaryDir dir_;
+  std::string model_;
+
+  std::string path(const char* name) const { return dir_.filePath(name).toStdString(); }
+
+  // Opens the study file in a window and waits for the run.
+  void open(MainWindow& w, const StudyState& study, const char* name) {
+    writeStudyFile(path(name), study);
+    QVERIFY(w.openStudy(QString::fromStdString(path(name))));
+    QTRY_VERIFY_WITH_TIMEOUT(!w.job()->isRunning(), 60000);
+    QVERIFY2(w.study().result != nullptr, qPrintable(w.messageText()));
+  }
+
+  void compareWithCommandLine(const StudyState& windowStudy, const StudyState& saved) {
+    ReportExportRequest request;
+    request.title = "t";
+    const AuditReportInput gui = auditInputFromStudy(windowStudy, request);
+    const AuditReportInput cli = commandLineReportInput(saved);
+    QCOMPARE(gui.settings.apparent, cli.settings.apparent);
+    QCOMPARE(gui.settings.other, cli.settings.other);
+    QCOMPARE(gui.cohortFile.sha256, cli.cohortFile.sha256);
+    QCOMPARE(gui.modelFile.sha256, cli.modelFile.sha256);
+    QCOMPARE(gui.result.hosmerLemeshow.df, cli.result.hosmerLemeshow.df);
+    QCOMPARE(gui.result.hosmerLemeshow.statistic, cli.result.hosmerLemeshow.statistic);
+    QCOMPARE(gui.result.discrimination.auc, cli.result.discrimination.auc);
+    QCOMPARE(gui.result.calibration.slope, cli.result.calibration.slope);
+    QCOMPARE(gui.result.decisionCurve.size(), cli.result.decisionCurve.size());
+    for (std::size_t i = 0; i < gui.result.decisionCurve.size(); ++i) {
+      QCOMPARE(gui.result.decisionCurve[i].netBenefit, cli.result.decisionCurve[i].netBenefit);
+    }
+    QVERIFY(gui.uncertainty.has_value());
+    QCOMPARE(gui.uncertainty->sampleSize.verdict, cli.uncertainty->sampleSize.verdict);
+  }
+
+ private slots:
+  void initTestCase() {
+    QVERIFY(dir_.isValid());
+    const Table table = readCsvFile(kBirthwt, CsvOptions{}).table;
+    CohortFitSpec spec;
+    spec.outcome = OutcomeSpec{"low", std::nullopt};
+    spec.predictors = {"age", "lwt", "smoke", "ht"};
+    spec.modelName = "birthwt four terms";
+    Model model = fitCohortModel(table, spec).model;
+    model.development.dataSha256 = sha256OfFile(kBirthwt);  // as `calivera fit` records it
+    model_ = path("model.json");
+    writeModelFile(model_, model);
+  }
+
+  // The drift the issue found: the model's development fingerprint matches the cohort, the
+  // checkbox is off. The window, its PDF and the command line all say apparent (g - 2 df).
+  void fingerprintMatchIsApparentEverywhere() {
+    const StudyState study = calivera::testing::birthwtFileStudy(kBirthwt, model_);
+    MainWindow w;
+    open(w, study, "own.cvstudy");
+    QVERIFY(w.study().run != nullptr);
+    QCOMPARE(w.study().run->performance, std::string(kPerformanceApparent));
+    QCOMPARE(w.study().result->hosmerLemeshow.df, 6);
+    ReportExportRequest request;
+    QVERIFY(auditInputFromStudy(w.study(), request).settings.apparent);
+    compareWithCommandLine(w.study(), study);
+  }
+
+  // The same patients saved with another delimiter: new data by the fingerprint, apparent once
+  // the user ticks "the cohort is the development data"; the same in the window and the CLI.
+  void statedDevelopmentDataIsApparentEverywhere() {
+    std::string text;
+    {
+      QFile in(QString::fromStdString(kBirthwt));
+      QVERIFY(in.open(QIODevice::ReadOnly));
+      text = in.readAll().toStdString();
+    }
+    for (char& c : text) {
+      if (c == ',') c = ';';
+    }
+    const std::string copy = path("semicolons.csv");
+    {
+      QFile out(QString::fromStdString(copy));
+      QVERIFY(out.open(QIODevice::WriteOnly));
+      out.write(text.data(), static_cast<qint64>(text.size()));
+    }
+    StudyState study = calivera::testing::birthwtFileStudy(copy, model_);
+    study.import.delimiter = ';';
+    {
+      MainWindow w;
+      open(w, study, "new.cvstudy");
+      QCOMPARE(w.study().run->performance, std::string(kPerformanceNewData));
+      QCOMPARE(w.study().result->hosmerLemeshow.df, 8);
+      compareWithCommandLine(w.study(), study);
+    }
+    study.analysis.apparent = true;
+    MainWindow w;
+    open(w, study, "stated.cvstudy");
+    QCOMPARE(w.study().run->performance, std::string(kPerformanceApparent));
+    QCOMPARE(w.study().result->hosmerLemeshow.df, 6);
+    ReportExportRequest request;
+    const AuditReportInput input = auditInputFromStudy(w.study(), request);
+    QVERIFY(input.settings.apparent);
+    bool basisStated = false;
+    for (const auto& [name, value] : input.settings.other) {
+      if (name == "Performance basis") basisStated = value.find("stated by the user") == 0;
+    }
+    QVERIFY(basisStated);
+    compareWithCommandLine(w.study(), study);
+  }
+
+  // Every view's numbers can be reproduced: the action is there and shows core's command.
+  void reproduceActionShowsTheStudysCommand() {
+    const StudyState study = calivera::testing::birthwtFileStudy(kBirthwt, model_);
+    MainWindow w;
+    open(w, study, "reproduce.cvstudy");
+    QVERIFY(w.findChild<QAction*>("actionReproduce") != nullptr);
+    bool ok = false;
+    const QString text = reproduceCommandText(w.study(), &ok);
+    QVERIFY(ok);
+    QCOMPARE(text.toStdString(), reproduceCommandLine(study));
+    QVERIFY(text.startsWith("calivera validate --data "));
+    QVERIFY(text.contains("--groups 8"));
+    // Without a model there is no command, and the reason says so.
+    StudyState empty;
+    QVERIFY(!reproduceCommandText(empty, &ok).isEmpty());
+    QVERIFY(!ok);
+  }
+};
+
+QTEST_MAIN(StudyParityTest)
+#include "study_parity_test.moc"

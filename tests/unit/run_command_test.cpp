@@ -1,0 +1,159 @@
+// `calivera run STUDY.cvstudy` against `calivera validate` with the options the study stands for
+// (the contract of issue 10): the same JSON number for number, the same exit statuses, and the
+// printed reproduce line. Data: MASS::birthwt (Debian r-cran-mass, tests/reference/data); the
+// checks compare two routes of our own, so no reference value is involved.
+#include <gtest/gtest.h>
+
+#include <filesystem>
+#include <nlohmann/json.hpp>
+#include <string>
+#include <vector>
+
+#include "core/study/reproduce_command.h"
+#include "core/study/study_file.h"
+#include "core/util/sha256.h"
+#include "tests/unit/cli_run.h"
+#include "tests/unit/study_fixture.h"
+
+namespace calivera {
+namespace {
+
+using testing::CliRun;
+using testing::readWhole;
+using testing::runCalivera;
+using testing::TempDir;
+
+const std::string kBirthwt = std::string(CALIVERA_SOURCE_DIR) + "/tests/reference/data/birthwt.csv";
+
+// birthwt with ';' as delimiter and the column 'age' named 'mother_age': the same patients in
+// another file, so neither its bytes nor its header match the model's development data.
+std::string writeRelabelled(const TempDir& dir) {
+  std::string text = readWhole(kBirthwt);
+  for (char& c : text) {
+    if (c == ',') c = ';';
+  }
+  text.replace(text.find("age"), 3, "mother_age");
+  return dir.write("relabelled.csv", text);
+}
+
+std::vector<std::string> splitWords(const std::vector<std::string>& prefix,
+                                    const std::vector<std::string>& words) {
+  std::vector<std::string> all = prefix;
+  all.insert(all.end(), words.begin(), words.end());
+  return all;
+}
+
+class RunCommand : public ::testing::Test {
+ protected:
+  void SetUp() override {
+    const CliRun fit = runCalivera({"fit", "--data", kBirthwt, "--outcome", "low", "--predictors",
+                                    "age,lwt,smoke,ht", "--out", dir_.file("model.json")});
+    ASSERT_EQ(fit.status, 0) << fit.err;
+  }
+  std::string model() const { return dir_.file("model.json"); }
+  TempDir dir_{"run_command"};
+};
+
+TEST_F(RunCommand, JsonEqualsValidateWithTheStudysOptions) {
+  StudyState study = testing::birthwtFileStudy(writeRelabelled(dir_), model());
+  study.import.delimiter = ';';
+  study.columnMapping["age"] = "mother_age";
+  study.uncertaintySettings.bootstrapReplicates = 25;
+  study.uncertaintySettings.seed = 11;
+  study.uncertaintySettings.subgroupColumns = {"race"};
+  study.uncertaintySettings.sizeThresholds = {0.2};
+  const std::string studyPath = dir_.file("study.cvstudy");
+  writeStudyFile(studyPath, study);
+
+  const CliRun viaRun = runCalivera({"run", studyPath, "--json", dir_.file("run.json")});
+  ASSERT_EQ(viaRun.status, 0) << viaRun.err;
+  const StudyRequests requests = studyRequests(readStudyFile(studyPath));
+  const std::vector<std::string> words =
+      validateCommandWords(requests.validation, requests.uncertainty);
+  const CliRun viaValidate =
+      runCalivera(splitWords(splitWords({"validate"}, words), {"--json", dir_.file("v.json")}));
+  ASSERT_EQ(viaValidate.status, 0) << viaValidate.err;
+
+  const auto a = nlohmann::json::parse(readWhole(dir_.file("run.json")));
+  const auto b = nlohmann::json::parse(readWhole(dir_.file("v.json")));
+  EXPECT_EQ(a, b);  // every key, every number
+  EXPECT_EQ(a["cohort"]["performance"], "new data");
+  EXPECT_FALSE(a["bootstrap"].is_null());
+  // The mapping and the delimiter are in the words, spelled as the options take them.
+  const std::string line = commandLine("validate", words);
+  EXPECT_NE(line.find("--map age=mother_age"), std::string::npos) << line;
+  EXPECT_NE(line.find("--delimiter ';'"), std::string::npos) << line;
+  EXPECT_NE(line.find("--bootstrap 25 --seed 11"), std::string::npos) << line;
+}
+
+TEST_F(RunCommand, SummaryEndsWithTheReproduceLineThenTheCaution) {
+  const StudyState study = testing::birthwtFileStudy(kBirthwt, model());
+  const std::string studyPath = dir_.file("plain.cvstudy");
+  writeStudyFile(studyPath, study);
+  const CliRun run = runCalivera({"run", studyPath});
+  ASSERT_EQ(run.status, 0) << run.err;
+  const std::size_t reproduce = run.out.find("Reproduce with:\n  calivera validate --data ");
+  const std::size_t caution = run.out.find("do not replace clinical judgment");
+  ASSERT_NE(reproduce, std::string::npos) << run.out;
+  ASSERT_NE(caution, std::string::npos);
+  EXPECT_LT(reproduce, caution);
+  EXPECT_NE(run.out.find(reproduceCommandLine(study)), std::string::npos);
+  // validate prints its own line the same way, with the options it was given.
+  const CliRun validate = runCalivera(
+      {"validate", "--data", kBirthwt, "--outcome", "low", "--model", model(), "--groups", "8"});
+  ASSERT_EQ(validate.status, 0) << validate.err;
+  EXPECT_NE(validate.out.find(reproduceCommandLine(study)), std::string::npos) << validate.out;
+}
+
+TEST_F(RunCommand, DevelopmentDataStatementAndFingerprintBothGiveApparent) {
+  // The model's own development file: apparent by its SHA-256, Hosmer-Lemeshow on g - 2 df.
+  writeStudyFile(dir_.file("own.cvstudy"), testing::birthwtFileStudy(kBirthwt, model()));
+  ASSERT_EQ(runCalivera({"run", dir_.file("own.cvstudy"), "--json", dir_.file("own.json")}).status,
+            0);
+  const auto own = nlohmann::json::parse(readWhole(dir_.file("own.json")));
+  EXPECT_EQ(own["cohort"]["performance"], "apparent");
+  EXPECT_EQ(own["hosmer_lemeshow"]["df"], 6);
+
+  // The same patients in another file: new data unless the user states otherwise.
+  StudyState stated = testing::birthwtFileStudy(writeRelabelled(dir_), model());
+  stated.import.delimiter = ';';
+  stated.columnMapping["age"] = "mother_age";
+  stated.analysis.apparent = true;
+  writeStudyFile(dir_.file("stated.cvstudy"), stated);
+  const CliRun run =
+      runCalivera({"run", dir_.file("stated.cvstudy"), "--json", dir_.file("stated.json")});
+  ASSERT_EQ(run.status, 0) << run.err;
+  const auto j = nlohmann::json::parse(readWhole(dir_.file("stated.json")));
+  EXPECT_EQ(j["cohort"]["performance"], "apparent");
+  EXPECT_NE(j["cohort"]["performance_basis"].get<std::string>().find("stated by the user"),
+            std::string::npos);
+  EXPECT_EQ(j["hosmer_lemeshow"]["df"], 6);
+  // Numbers equal the fingerprinted run's: the same patients, the same model.
+  EXPECT_EQ(j["discrimination"]["auc"], own["discrimination"]["auc"]);
+  EXPECT_EQ(j["hosmer_lemeshow"]["statistic"], own["hosmer_lemeshow"]["statistic"]);
+}
+
+TEST_F(RunCommand, BadStudyOrMissingInputIsExitTwoWithoutOutput) {
+  const std::string broken = dir_.write("broken.cvstudy", "{\"format\": \"calivera-study/1\",");
+  const CliRun bad = runCalivera({"run", broken, "--json", dir_.file("never.json")});
+  EXPECT_EQ(bad.status, 2);
+  EXPECT_NE(bad.err.find("broken.cvstudy"), std::string::npos) << bad.err;
+  EXPECT_FALSE(std::filesystem::exists(dir_.file("never.json")));
+
+  StudyState study = testing::birthwtFileStudy(kBirthwt, model());
+  study.data->path = dir_.file("gone.csv");
+  writeStudyFile(dir_.file("gone.cvstudy"), study);
+  const CliRun gone =
+      runCalivera({"run", dir_.file("gone.cvstudy"), "--json", dir_.file("n.json")});
+  EXPECT_EQ(gone.status, 2);
+  EXPECT_NE(gone.err.find("missing"), std::string::npos) << gone.err;
+  EXPECT_FALSE(std::filesystem::exists(dir_.file("n.json")));
+
+  EXPECT_EQ(runCalivera({"run"}).status, 2);
+  const CliRun help = runCalivera({"run", "--help"});
+  EXPECT_EQ(help.status, 0);
+  EXPECT_NE(help.out.find("calivera run STUDY.cvstudy"), std::string::npos);
+}
+
+}  // namespace
+}  // namespace calivera

@@ -1,0 +1,23 @@
+#pragma once
+// A study on a cohort file and a model file, as the workstation saves one: outcome `low`
+// (MASS::birthwt's), 8 risk groups, fingerprints of the files as they are now. Shared by the
+// command-line and workstation parity tests.
+
+#include <string>
+
+#include "core/study/study.h"
+#include "core/util/sha256.h"
+
+namespace calivera::testing {
+
+inline StudyState birthwtFileStudy(const std::string& data, const std::string& model) {
+  StudyState study;
+  study.data = InputFileRecord{data, sha256OfFile(data)};
+  study.import.outcomeColumn = "low";
+  study.modelSource = ModelSource::File;
+  study.modelFile = InputFileRecord{model, sha256OfFile(model)};
+  study.analysis.groups = 8;
+  return study;
+}
+
+}  // namespace calivera::testing
