@@ -12,8 +12,8 @@
 #include <memory>
 #include <vector>
 
-#include "core/study/study_pipeline.h"
 #include "core/study/study.h"
+#include "core/study/study_pipeline.h"
 #include "core/study/threshold_state.h"
 
 class QAction;
@@ -28,11 +28,11 @@ class QSortFilterProxyModel;
 class QSpinBox;
 class QCheckBox;
 
-namespace calivera::ui::charts {
+namespace calivera::charts {
 class CalibrationChart;
 class DecisionCurveChart;
 class RocChart;
-}  // namespace calivera::ui::charts
+}  // namespace calivera::charts
 
 namespace calivera::ui {
 
@@ -45,7 +45,7 @@ class PredictorView;
 class RecordTableModel;
 class ThresholdBar;
 
-// True when this build has the PDF report dialog (ui/report/report_export_dialog.h).
+// True when this build has the PDF report dialog (ui/dialogs/report_export_dialog.h).
 bool reportExportAvailable();
 
 class MainWindow : public QMainWindow {

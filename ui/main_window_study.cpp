@@ -19,9 +19,11 @@
 #include <set>
 
 #include "core/model/model_io.h"
+#include "core/study/study_file.h"
+#include "core/study/study_uncertainty.h"
 #include "core/util/errors.h"
+#include "render/charts/charts.h"
 #include "ui/async/background_job.h"
-#include "ui/charts/charts.h"
 #include "ui/dialogs/fit_dialog.h"
 #include "ui/dialogs/import_dialog.h"
 #include "ui/dialogs/mapping_dialog.h"
@@ -30,8 +32,6 @@
 #include "ui/models/record_table_model.h"
 #include "ui/models/result_tables.h"
 #include "ui/models/table_export.h"
-#include "core/study/study_file.h"
-#include "core/study/study_uncertainty.h"
 #include "ui/views/chart_panel.h"
 #include "ui/views/comparison_view.h"
 #include "ui/views/confusion_panel.h"
@@ -40,8 +40,8 @@
 #include "ui/views/summary_html.h"
 #include "ui/views/threshold_bar.h"
 
-#if __has_include("ui/report/report_export_dialog.h")
-#include "ui/report/report_export_dialog.h"
+#if __has_include("ui/dialogs/report_export_dialog.h")
+#include "ui/dialogs/report_export_dialog.h"
 #define CALIVERA_HAVE_REPORT_DIALOG 1
 #endif
 

@@ -20,8 +20,8 @@
 #include "core/study/reproduce_command.h"
 #include "core/util/atomic_file.h"
 #include "core/util/errors.h"
-#ifdef CALIVERA_HAVE_UI
-#include "ui/report/audit_pdf_writer.h"
+#ifdef CALIVERA_HAVE_PDF
+#include "render/report/audit_pdf_writer.h"
 #endif
 
 namespace calivera::cli {
@@ -174,8 +174,8 @@ ValidationRequest validationRequestFrom(const Arguments& arguments) {
 
 int executeValidation(const ValidationRequest& request, const UncertaintyRequest& uncertaintyWanted,
                       const ValidateOutputs& outputs, const std::string& reproduceLine) {
-#ifdef CALIVERA_HAVE_UI
-  const ui::report::PaperSize paper = ui::report::parsePaperSize(outputs.paper, "--paper");
+#ifdef CALIVERA_HAVE_PDF
+  const report::PaperSize paper = report::parsePaperSize(outputs.paper, "--paper");
 #else
   if (outputs.pdfPath) {
     throw InputError("--pdf: this build has no PDF report (built without the UI)");
@@ -193,17 +193,17 @@ int executeValidation(const ValidationRequest& request, const UncertaintyRequest
   // that waits for it sees the tables too.
   const std::string jsonText =
       outputs.jsonPath ? validationJsonText(run, uncertainty) : std::string();
-#ifdef CALIVERA_HAVE_UI
+#ifdef CALIVERA_HAVE_PDF
   std::string pdf;
   if (outputs.pdfPath) {
     AuditReportInput input =
         auditInputFromRun(run, outputs.title, outputs.suppressBelow, uncertainty);
     input.settings.reasonableThresholds = outputs.reasonable;
-    pdf = ui::report::renderAuditReportPdf(input, paper);
+    pdf = report::renderAuditReportPdf(input, paper);
   }
 #endif
   if (outputs.csvDir) writeValidationTables(*outputs.csvDir, run, uncertainty);
-#ifdef CALIVERA_HAVE_UI
+#ifdef CALIVERA_HAVE_PDF
   if (outputs.pdfPath) writeFileAtomically(*outputs.pdfPath, pdf);
 #endif
   if (outputs.jsonPath) {

@@ -1,8 +1,8 @@
 #pragma once
 // The audit report as plain content, free of Qt: what was validated (files, fingerprints,
 // exclusions, settings), the results with plain-language readings, methods with their sources,
-// a TRIPOD / TRIPOD+AI oriented checklist and warnings. The PDF renderer in ui/report lays these
-// blocks out; it adds no numbers of its own.
+// a TRIPOD / TRIPOD+AI oriented checklist and warnings. The PDF renderer in render/report lays
+// these blocks out; it adds no numbers of its own.
 //
 // Privacy: the document holds aggregates only (counts, rates, curves); no row-level value of the
 // cohort is ever copied into it. With suppression on (AuditSettings::suppressBelow >= 2), every

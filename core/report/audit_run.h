@@ -2,7 +2,7 @@
 // The audit report's input from a command-line validation run (core/metrics/validation_run.h):
 // file names and fingerprints, exclusions, the model and its development record, every setting
 // of the run, and the result. The workstation builds the same input from its study state
-// (ui/report/report_export_dialog.h).
+// (ui/dialogs/report_export_dialog.h).
 
 #include <cstddef>
 #include <string>

@@ -5,7 +5,7 @@
 // run as printed to 3 decimals, the caution and the checklist; never a value of the cohort's
 // identifier column; with --suppress-below, no small count of the threshold table; and with
 // SOURCE_DATE_EPOCH two runs must be byte-identical.
-#ifdef CALIVERA_HAVE_UI
+#ifdef CALIVERA_HAVE_PDF
 
 #include <gtest/gtest.h>
 
@@ -225,4 +225,4 @@ TEST(AuditReportCli, PdfOptionsAreCheckedBeforeAnythingIsWritten) {
 }  // namespace
 }  // namespace calivera
 
-#endif  // CALIVERA_HAVE_UI
+#endif  // CALIVERA_HAVE_PDF

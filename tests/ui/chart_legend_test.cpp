@@ -9,8 +9,8 @@
 #include <QtCharts/QValueAxis>
 #include <QtTest>
 
-#include "ui/charts/calibration_chart.h"
-#include "ui/charts/decision_curve_chart.h"
+#include "render/charts/calibration_chart.h"
+#include "render/charts/decision_curve_chart.h"
 #include "ui/views/chart_panel.h"
 #include "ui/views/legend_strip.h"
 

@@ -1,6 +1,6 @@
-// The chart API of the uncertainty layer (ui/charts/overlay_series.h and the band and comparison
-// methods of the ROC, calibration and decision-curve charts), on a real run: birthwt (Debian
-// r-cran-mass) validated with a model fitted by core, its bootstrap bands from core's
+// The chart API of the uncertainty layer (render/charts/overlay_series.h and the band and
+// comparison methods of the ROC, calibration and decision-curve charts), on a real run: birthwt
+// (Debian r-cran-mass) validated with a model fitted by core, its bootstrap bands from core's
 // bootstrapValidation, and a second fitted model as the overlay. The checks are on what the charts
 // hold (the band series carry exactly the BandPoint values given, one named series per overlay,
 // axes that contain the band), not on the statistics themselves.
@@ -14,12 +14,12 @@
 #include <cmath>
 
 #include "core/uncertainty/validation_bootstrap.h"
+#include "render/charts/charts.h"
+#include "render/charts/overlay_series.h"
 #include "tests/unit/birthwt_run.h"
-#include "ui/charts/charts.h"
-#include "ui/charts/overlay_series.h"
 
 using namespace calivera;
-using namespace calivera::ui::charts;
+using namespace calivera::charts;
 using calivera::snapshotFromCounts;
 
 namespace {

@@ -1,7 +1,7 @@
-// The PDF report renderer (ui/report): byte-identical output for a fixed timestamp, the creation
-// date rewrite, paper sizes, atomic writing, table continuation and the caution on every page.
-// The document comes from simulated data: these tests check properties of the rendering, never a
-// statistic (the reference checks of the numbers run the command line on open datasets, in
+// The PDF report renderer (render/report): byte-identical output for a fixed timestamp, the
+// creation date rewrite, paper sizes, atomic writing, table continuation and the caution on every
+// page. The document comes from simulated data: these tests check properties of the rendering,
+// never a statistic (the reference checks of the numbers run the command line on open datasets, in
 // tests/reference/audit_report_test.cpp). The uncertainty layout test runs core on birthwt
 // (Debian r-cran-mass) for a realistic document and checks only what is drawn and printed.
 #include <QApplication>
@@ -16,13 +16,13 @@
 
 #include "core/report/audit_run.h"
 #include "core/util/errors.h"
+#include "render/report/audit_pdf_writer.h"
+#include "render/report/report_charts.h"
 #include "tests/unit/birthwt_run.h"
-#include "ui/report/audit_pdf_writer.h"
-#include "ui/report/report_charts.h"
-#include "ui/report/report_export_dialog.h"
+#include "ui/dialogs/report_export_dialog.h"
 
 using namespace calivera;
-using namespace calivera::ui::report;
+using namespace calivera::report;
 
 namespace {
 

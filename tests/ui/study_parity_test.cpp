@@ -16,9 +16,9 @@
 #include "core/util/sha256.h"
 #include "tests/unit/study_fixture.h"
 #include "ui/async/background_job.h"
+#include "ui/dialogs/report_export_dialog.h"
 #include "ui/dialogs/reproduce_dialog.h"
 #include "ui/main_window.h"
-#include "ui/report/report_export_dialog.h"
 
 using namespace calivera;
 using namespace calivera::ui;

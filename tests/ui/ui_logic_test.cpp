@@ -7,18 +7,18 @@
 #include <fstream>
 #include <random>
 
-#include "core/util/errors.h"
-#include "ui/charts/chart_text.h"
-#include "ui/models/record_table_model.h"
-#include "ui/models/result_tables.h"
-#include "ui/models/table_export.h"
-#include "ui/models/uncertainty_tables.h"
-#include "core/study/predictor_space.h"
 #include "core/present/readings.h"
+#include "core/study/predictor_space.h"
 #include "core/study/spline_list.h"
 #include "core/study/study_file.h"
 #include "core/study/threshold_state.h"
 #include "core/study/unit_check.h"
+#include "core/util/errors.h"
+#include "render/charts/chart_text.h"
+#include "ui/models/record_table_model.h"
+#include "ui/models/result_tables.h"
+#include "ui/models/table_export.h"
+#include "ui/models/uncertainty_tables.h"
 
 using namespace calivera;
 using namespace calivera::ui;

@@ -111,7 +111,7 @@ TEST_F(UncertaintyCommands, ValidateAddsSampleSizeBootstrapComparisonAndSubgroup
   EXPECT_TRUE(v1["comparison"]["pairs"][0]["p_value"].is_number());
 }
 
-#ifdef CALIVERA_HAVE_UI
+#ifdef CALIVERA_HAVE_PDF
 // The PDF's text as poppler's pdftotext (an outside reader) extracts it.
 std::string pdfText(const std::string& path) {
   FILE* pipe = ::popen(("pdftotext -layout '" + path + "' -").c_str(), "r");

@@ -14,9 +14,9 @@
 
 #include "core/model/model_io.h"
 #include "core/util/errors.h"
+#include "render/charts/chart_text.h"
 #include "ui/async/background_job.h"
 #include "ui/async/job_progress_row.h"
-#include "ui/charts/chart_text.h"
 #include "ui/dialogs/model_tool_parts.h"
 #include "ui/models/record_table_model.h"
 #include "ui/models/result_tables.h"

@@ -4,7 +4,7 @@
 #include <cmath>
 #include <limits>
 
-#include "ui/charts/chart_text.h"
+#include "render/charts/chart_text.h"
 
 namespace calivera::ui {
 

@@ -7,8 +7,8 @@
 #include <QToolTip>
 #include <QtCharts/QLegend>
 
-#include "ui/charts/chart_render.h"
-#include "ui/charts/chart_style.h"
+#include "render/charts/chart_render.h"
+#include "render/charts/chart_style.h"
 #include "ui/views/legend_strip.h"
 
 namespace calivera::ui {

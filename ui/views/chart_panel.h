@@ -6,7 +6,7 @@
 
 #include <QtCharts/QChartView>
 
-#include "ui/charts/linked_chart.h"
+#include "render/charts/linked_chart.h"
 
 namespace calivera::ui {
 

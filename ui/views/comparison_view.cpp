@@ -4,7 +4,7 @@
 #include <QTableView>
 #include <QVBoxLayout>
 
-#include "ui/charts/chart_text.h"
+#include "render/charts/chart_text.h"
 #include "ui/models/record_table_model.h"
 #include "ui/models/uncertainty_tables.h"
 #include "ui/views/result_table_view.h"

@@ -6,7 +6,7 @@
 #include <QVBoxLayout>
 #include <cmath>
 
-#include "ui/charts/chart_text.h"
+#include "render/charts/chart_text.h"
 
 namespace calivera::ui {
 

@@ -1,12 +1,12 @@
 #pragma once
 // The legend of a chart on screen, under the plot, wrapped onto as many rows as the width needs
-// (ui/charts/legend_painter.h says why Qt's own legend is not used).
+// (render/charts/legend_painter.h says why Qt's own legend is not used).
 
 #include <QStringList>
 #include <QWidget>
 #include <vector>
 
-#include "ui/charts/legend_painter.h"
+#include "render/charts/legend_painter.h"
 
 class QChart;
 

@@ -9,7 +9,7 @@
 #include <QTableWidget>
 #include <QVBoxLayout>
 
-#include "ui/charts/predictor_charts.h"
+#include "render/charts/predictor_charts.h"
 #include "ui/views/chart_panel.h"
 
 namespace calivera::ui {

@@ -8,8 +8,8 @@
 #include <QTableView>
 #include <QVBoxLayout>
 
-#include "ui/charts/calibration_chart.h"
-#include "ui/charts/overlay_series.h"
+#include "render/charts/calibration_chart.h"
+#include "render/charts/overlay_series.h"
 #include "ui/models/record_table_model.h"
 #include "ui/models/uncertainty_tables.h"
 #include "ui/views/chart_panel.h"

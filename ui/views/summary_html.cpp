@@ -3,8 +3,8 @@
 #include <QFileInfo>
 #include <cmath>
 
-#include "ui/charts/chart_text.h"
 #include "core/present/readings.h"
+#include "render/charts/chart_text.h"
 
 namespace calivera::ui {
 

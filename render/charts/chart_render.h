@@ -1,0 +1,23 @@
+#pragma once
+// Rendering a chart outside a view: into any QPainter rect (the PDF report, SVG, PNG). The chart
+// must not be shown in a QChartView at the same time (render the view's own chart with
+// exportViewChart* instead, which grabs what the user sees).
+
+#include <QRectF>
+#include <QString>
+
+class QChart;
+class QPainter;
+
+namespace calivera::charts {
+
+// Lays the chart out at target.size() (in the painter's logical units) and paints it there.
+// Works for a chart that is in no scene (the usual report case) or already in one.
+void renderChart(QChart& chart, QPainter& painter, const QRectF& target);
+
+// File exports at the given size in pixels; return an empty string on success, otherwise the
+// reason. PNG is rendered at twice the pixel density for sharp lines.
+QString exportChartPng(QChart& chart, const QString& path, QSize size);
+QString exportChartSvg(QChart& chart, const QString& path, QSize size, const QString& title);
+
+}  // namespace calivera::charts
