@@ -6,6 +6,7 @@
 #include <string>
 
 #include "core/report/validation_json.h"
+#include "core/uncertainty/bootstrap_measures.h"
 #include "core/uncertainty/uncertainty_json.h"
 #include "core/util/errors.h"
 
@@ -113,14 +114,9 @@ void printUncertaintySummary(std::ostream& out, const UncertaintyResults& r) {
     const ValidationBootstrap& b = *r.bootstrap;
     out << "bootstrap: " << b.run.replicates << " resamples, seed " << b.run.seed << ", "
         << b.run.threads << " threads, " << b.run.failed << " failed\n";
-    printEstimate(out, "AUC", b.auc);
-    printEstimate(out, "Brier", b.brier);
-    printEstimate(out, "scaled Brier", b.brierScaled);
-    printEstimate(out, "calibration intercept", b.calibrationIntercept);
-    printEstimate(out, "calibration slope", b.calibrationSlope);
-    printEstimate(out, "O/E", b.oeRatio);
-    printEstimate(out, "ICI", b.ici);
-    printEstimate(out, "E90", b.e90);
+    for (const BootstrappedMeasure& m : bootstrappedMeasures()) {
+      printEstimate(out, m.label, b.*m.interval);
+    }
     for (const auto& w : b.warnings) out << "  warning: " << w << '\n';
   }
   if (r.comparison) {

@@ -5,6 +5,7 @@
 #include "core/report/audit_format.h"
 #include "core/report/csv_text.h"
 #include "core/report/validation_tables.h"
+#include "core/uncertainty/bootstrap_measures.h"
 
 namespace calivera {
 namespace {
@@ -30,17 +31,9 @@ std::string sampleSizeCsv(const SampleSizeAssessment& a) {
 std::string bootstrapCsv(const ValidationBootstrap& b) {
   CsvText csv({"statistic", "estimate", "ci_lo", "ci_hi", "replicates_used", "replicates", "seed",
                "failed"});
-  const std::pair<const char*, const BootstrapEstimate*> rows[] = {
-      {"auc", &b.auc},
-      {"brier", &b.brier},
-      {"brier_scaled", &b.brierScaled},
-      {"calibration_intercept", &b.calibrationIntercept},
-      {"calibration_slope", &b.calibrationSlope},
-      {"oe_ratio", &b.oeRatio},
-      {"ici", &b.ici},
-      {"e90", &b.e90}};
-  for (const auto& [name, e] : rows) {
-    csv.field(name).num(e->estimate).ci(e->ci).count(e->replicatesUsed);
+  for (const BootstrappedMeasure& m : bootstrappedMeasures()) {
+    const BootstrapEstimate* e = &(b.*m.interval);
+    csv.field(m.key).num(e->estimate).ci(e->ci).count(e->replicatesUsed);
     csv.count(static_cast<std::size_t>(b.run.replicates)).field(std::to_string(b.run.seed));
     csv.count(b.run.failed).end();
   }

@@ -3,6 +3,7 @@
 #include <cmath>
 
 #include "core/metrics/json_values.h"
+#include "core/uncertainty/bootstrap_measures.h"
 
 namespace calivera {
 namespace {
@@ -38,18 +39,12 @@ json toJson(const BootstrapSummary& s) {
 }
 
 json toJson(const ValidationBootstrap& b) {
-  return {{"run", toJson(b.run)},
-          {"auc", estimate(b.auc)},
-          {"brier", estimate(b.brier)},
-          {"brier_scaled", estimate(b.brierScaled)},
-          {"calibration_intercept", estimate(b.calibrationIntercept)},
-          {"calibration_slope", estimate(b.calibrationSlope)},
-          {"oe_ratio", estimate(b.oeRatio)},
-          {"ici", estimate(b.ici)},
-          {"e90", estimate(b.e90)},
-          {"net_benefit_band", band(b.netBenefit, "threshold")},
-          {"calibration_band", band(b.calibrationCurve, "risk")},
-          {"warnings", b.warnings}};
+  json out = {{"run", toJson(b.run)}};
+  for (const BootstrappedMeasure& m : bootstrappedMeasures()) out[m.key] = estimate(b.*m.interval);
+  out["net_benefit_band"] = band(b.netBenefit, "threshold");
+  out["calibration_band"] = band(b.calibrationCurve, "risk");
+  out["warnings"] = b.warnings;
+  return out;
 }
 
 json toJson(const ModelComparison& c) {

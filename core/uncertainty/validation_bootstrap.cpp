@@ -5,18 +5,20 @@
 #include <limits>
 #include <sstream>
 
+#include "core/uncertainty/bootstrap_measures.h"
+
 namespace calivera {
 namespace {
 
 constexpr double kNaN = std::numeric_limits<double>::quiet_NaN();
-constexpr std::size_t kScalarCount = 8;
+constexpr std::size_t kScalarCount = kBootstrappedMeasureCount;
 
-// The scalar measures in a fixed order: AUC, Brier, scaled Brier, intercept,
-// slope, O/E, ICI, E90.
+// The scalar measures in the catalog's order (core/uncertainty/bootstrap_measures.h).
 std::vector<double> scalarsOf(const ValidationResult& r) {
-  return {r.discrimination.auc,    r.overall.brier,     r.overall.brierScaled,
-          r.calibration.intercept, r.calibration.slope, r.calibration.oeRatio,
-          r.calibration.ici,       r.calibration.e90};
+  std::vector<double> values;
+  values.reserve(kScalarCount);
+  for (const BootstrappedMeasure& m : bootstrappedMeasures()) values.push_back(m.estimate(r));
+  return values;
 }
 
 BootstrapEstimate estimateOf(const BootstrapRun& run, std::size_t column, double estimate) {
@@ -87,15 +89,9 @@ ValidationBootstrap bootstrapValidation(const ValidationInput& input,
   result.run = summarize(run, bootstrapOptions.bootstrap);
 
   const std::vector<double> point = scalarsOf(apparent);
-  BootstrapEstimate* const targets[kScalarCount] = {&result.auc,
-                                                    &result.brier,
-                                                    &result.brierScaled,
-                                                    &result.calibrationIntercept,
-                                                    &result.calibrationSlope,
-                                                    &result.oeRatio,
-                                                    &result.ici,
-                                                    &result.e90};
-  for (std::size_t s = 0; s < kScalarCount; ++s) *targets[s] = estimateOf(run, s, point[s]);
+  for (std::size_t s = 0; s < kScalarCount; ++s) {
+    result.*(bootstrappedMeasures()[s].interval) = estimateOf(run, s, point[s]);
+  }
   for (std::size_t t = 0; t < thresholdCount; ++t) {
     const BootstrapEstimate e =
         estimateOf(run, kScalarCount + t, apparent.decisionCurve[t].netBenefit);
