@@ -1,4 +1,5 @@
 // calivera: with a command word it runs headless; otherwise it opens the workstation.
+#include <iostream>
 #include <string>
 #include <vector>
 
@@ -14,11 +15,21 @@ int main(int argc, char** argv) {
       calivera::cli::printUsage();
       return 0;
     }
+    if (words[0] == "--version") {
+      std::cout << "calivera " << CALIVERA_VERSION << '\n';
+      return 0;
+    }
     for (const auto& command : calivera::cli::allCommands()) {
       if (words[0] == command.name) {
         return calivera::cli::runReportingErrors(
             command.run, std::vector<std::string>(words.begin() + 1, words.end()));
       }
+    }
+    // A bare word that is neither a command nor a file (a study to open) is a mistyped command:
+    // say so here rather than let the workstation report an unrelated problem.
+    if (const std::string hint = calivera::cli::unknownCommandMessage(words[0]); !hint.empty()) {
+      std::cerr << "error: " << hint << '\n';
+      return 2;
     }
   }
 #ifdef CALIVERA_HAVE_UI

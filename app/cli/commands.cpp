@@ -1,6 +1,8 @@
 #include "app/cli/commands.h"
 
+#include <filesystem>
 #include <iostream>
+#include <string>
 
 #include "app/cli/fit_command.h"
 #include "app/cli/internal_command.h"
@@ -27,6 +29,8 @@ const std::vector<Command>& allCommands() {
 int runReportingErrors(int (*body)(const std::vector<std::string>&),
                        const std::vector<std::string>& words) {
   try {
+    // `calivera COMMAND -h` asks for the command's help like --help.
+    if (words.size() == 1 && words[0] == "-h") return body({"--help"});
     return body(words);
   } catch (const InputError& error) {
     std::cerr << "error: " << error.what() << '\n';
@@ -43,6 +47,21 @@ int runReportingErrors(int (*body)(const std::vector<std::string>&),
   }
 }
 
+std::string unknownCommandMessage(const std::string& word) {
+  if (word.empty() || word[0] == '-') return {};
+  std::error_code ignored;
+  if (word.find('/') != std::string::npos || word.find('.') != std::string::npos ||
+      std::filesystem::exists(word, ignored)) {
+    return {};  // a file to open in the workstation
+  }
+  std::string known;
+  for (const Command& command : allCommands()) {
+    known += (known.empty() ? "" : ", ") + std::string(command.name);
+  }
+  return "unknown command '" + word + "' (commands: " + known +
+         "; 'calivera --help' describes them)";
+}
+
 void printUsage() {
   std::cout << "Calivera " << CALIVERA_VERSION
             << " - validate a clinical risk-prediction model on a local cohort\n\n"
@@ -53,8 +72,7 @@ void printUsage() {
     std::cout << "  " << command.name << std::string(12 - std::string(command.name).size(), ' ')
               << command.summary << '\n';
   }
-  std::cout << "\nRun 'calivera COMMAND --help' for a command's options.\n"
-            << kCautionText << '\n';
+  std::cout << "\nRun 'calivera COMMAND --help' for a command's options.\n" << kCautionText << '\n';
 }
 
 }  // namespace calivera::cli

@@ -23,4 +23,8 @@ int runReportingErrors(int (*body)(const std::vector<std::string>&),
 
 void printUsage();
 
+// Non-empty when `word` (the first argument) is neither a command, an option nor a file the
+// workstation could open: the message names the word and the commands.
+std::string unknownCommandMessage(const std::string& word);
+
 }  // namespace calivera::cli

@@ -5,6 +5,7 @@
 #include <cstring>
 #include <string>
 
+#include "core/present/wording.h"
 #include "core/report/validation_json.h"
 #include "core/uncertainty/bootstrap_measures.h"
 #include "core/uncertainty/uncertainty_json.h"
@@ -97,12 +98,11 @@ void printSampleSizeSummary(std::ostream& out, const UncertaintyResults& r) {
   const SampleSizeAssessment& s = r.sampleSize;
   out << "sample size: " << s.verdict << '\n';
   for (const auto& rule : s.rules) {
-    out << "  " << (rule.met ? "met    " : "not met") << "  " << rule.rule << '\n';
+    out << "  " << rule.rule << ": " << sizeCriterionText(rule.met) << '\n';
   }
   for (const auto& c : s.criteria) {
-    out << "  " << (c.met ? "met    " : "not met") << "  " << c.criterion
-        << ": n >= " << c.requiredN << " (" << c.requiredEvents << " events) for a 95% CI width of "
-        << fixed4(c.targetCiWidth);
+    out << "  " << c.criterion << ": " << sizeCriterionText(c.met) << "; n >= " << c.requiredN
+        << " (" << c.requiredEvents << " events) for a 95% CI width of " << fixed4(c.targetCiWidth);
     if (c.achievedCiWidth) out << "; achieved width " << fixed4(*c.achievedCiWidth);
     out << '\n';
   }

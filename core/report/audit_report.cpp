@@ -7,12 +7,13 @@
 #include <ctime>
 #include <string_view>
 
+#include "core/present/caution.h"
+#include "core/present/wording.h"
 #include "core/report/audit_blocks.h"
 #include "core/report/audit_disclosure.h"
 #include "core/report/audit_format.h"
 #include "core/report/audit_methods.h"
 #include "core/report/audit_uncertainty.h"
-#include "core/present/caution.h"
 #include "core/util/errors.h"
 
 namespace calivera {
@@ -442,8 +443,8 @@ void addChecklist(const AuditReportInput& input, std::vector<ReportBlock>& block
   table.align = {CellAlign::Left, CellAlign::Left, CellAlign::Left};
   const bool subgroups = input.uncertainty && !input.uncertainty->subgroups.empty();
   for (const ChecklistItem& item : auditChecklist(input.settings.apparent, subgroups)) {
-    table.rows.push_back({item.status == ChecklistStatus::Covered ? "[covered]" : "[to add]",
-                          item.topic, item.where});
+    table.rows.push_back(
+        {checklistStatusText(item.status == ChecklistStatus::Covered), item.topic, item.where});
   }
   blocks.push_back(reportTable(table));
 }

@@ -3,6 +3,7 @@
 #include <algorithm>
 #include <cmath>
 
+#include "core/present/wording.h"
 #include "core/report/audit_blocks.h"
 #include "core/report/audit_format.h"
 
@@ -19,7 +20,7 @@ std::string stacked(double value, const Interval& ci, int decimals) {
 }
 
 std::string yesNo(bool met) {
-  return met ? "yes" : "no";
+  return sizeCriterionText(met);
 }
 
 std::string suppressedText(const std::string& text, const DisclosurePlan& plan) {
@@ -122,7 +123,7 @@ void addSampleSizeSection(const UncertaintyResults& results, const DisclosurePla
 
   ReportTable rules;
   rules.caption = std::string(kTablePrefix) + "Sample size: rules of thumb";
-  rules.header = {"Rule", "This cohort", "Met"};
+  rules.header = {"Rule", "This cohort", "Status"};
   rules.widths = {0.56, 0.32, 0.12};
   rules.align = {CellAlign::Left, CellAlign::Left, CellAlign::Left};
   const std::string cohort = plan.events() + " events, " + plan.nonEvents() + " non-events";
@@ -137,7 +138,7 @@ void addSampleSizeSection(const UncertaintyResults& results, const DisclosurePla
   criteria.caption =
       std::string(kTablePrefix) + "Sample size: precision-based minimum (Riley et al. 2021)";
   criteria.header = {"Criterion",       "Target 95% CI width", "Required n",
-                     "Required events", "Achieved CI width",   "Met"};
+                     "Required events", "Achieved CI width",   "Status"};
   criteria.widths = {0.27, 0.15, 0.13, 0.14, 0.18, 0.13};
   criteria.align = {CellAlign::Left,  CellAlign::Right, CellAlign::Right,
                     CellAlign::Right, CellAlign::Right, CellAlign::Left};
@@ -329,9 +330,7 @@ void addSubgroupSection(const UncertaintyResults& results, const DisclosurePlan&
       row.push_back(stacked(cal.intercept, cal.interceptCi, 2));
       row.push_back(stacked(cal.slope, cal.slopeCi, 2));
       row.push_back(stacked(cal.oeRatio, cal.oeCi, 2));
-      row.push_back(level.tooSmall       ? "too small to judge"
-                    : level.events < 200 ? "calibration imprecise"
-                                         : "");
+      row.push_back(subgroupSizeText(level.tooSmall, true, level.events));
       table.rows.push_back(row);
     }
     for (std::size_t i = 0; i < notes.size(); ++i) {

@@ -229,7 +229,7 @@ class UiLogicTest : public QObject {
     QCOMPARE(model.cell(0, 1).text, QString("12"));
     QCOMPARE(model.cell(0, 3).text, QString("0.0000"));
     QCOMPARE(model.cell(0, 4).text, QString("not defined"));
-    QCOMPARE(model.cell(0, 13).text, QString("too small to judge"));
+    QCOMPARE(model.cell(0, 13).text, QString("too few patients"));
     QCOMPARE(model.cell(0, 14).text, QString("no metrics: one outcome class"));
   }
 

@@ -104,7 +104,7 @@ TEST(AuditReport, ChecklistMarksWhatTheUserMustAdd) {
   EXPECT_TRUE(contains(text, "[to add]\tEligibility criteria"));
   EXPECT_TRUE(contains(text, "[to add]\tKey study dates"));
   EXPECT_TRUE(contains(text, "[to add]\tSetting and location"));
-  EXPECT_TRUE(contains(text, "[covered]\tMissing data"));
+  EXPECT_TRUE(contains(text, "[stated here]\tMissing data"));
 }
 
 TEST(AuditReport, MethodsNameTheirSources) {

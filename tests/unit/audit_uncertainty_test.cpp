@@ -12,6 +12,7 @@
 #include <map>
 #include <set>
 
+#include "core/present/wording.h"
 #include "core/report/audit_format.h"
 #include "core/report/audit_run.h"
 #include "core/report/audit_suppression.h"
@@ -104,7 +105,7 @@ TEST(AuditUncertainty, SampleSizeComesBeforeTheResultsWithRileyCriteria) {
   for (std::size_t i = 0; i < a.rules.size(); ++i) {
     EXPECT_EQ(rules.rows[i][0], a.rules[i].rule);
     EXPECT_EQ(rules.rows[i][1], "59 events, 130 non-events");  // birthwt: 59 low birth weights
-    EXPECT_EQ(rules.rows[i][2], a.rules[i].met ? "yes" : "no");
+    EXPECT_EQ(rules.rows[i][2], sizeCriterionText(a.rules[i].met));
   }
   const ReportTable& criteria = tableCaptioned(doc, "precision-based minimum");
   ASSERT_EQ(criteria.rows.size(), a.criteria.size());
@@ -115,7 +116,7 @@ TEST(AuditUncertainty, SampleSizeComesBeforeTheResultsWithRileyCriteria) {
     EXPECT_EQ(criteria.rows[i], (std::vector<std::string>{
                                     c.criterion, formatFixed(c.targetCiWidth, 2),
                                     formatFixed(c.requiredN, 0), formatFixed(c.requiredEvents, 0),
-                                    formatFixed(*c.achievedCiWidth, 3), c.met ? "yes" : "no"}));
+                                    formatFixed(*c.achievedCiWidth, 3), sizeCriterionText(c.met)}));
   }
   EXPECT_FALSE(a.adequate);
   EXPECT_NE(allText(doc).find("Verdict: the cohort (n = 189, 59 events) is smaller than needed"),
@@ -200,7 +201,7 @@ TEST(AuditUncertainty, SubgroupTablesShowEveryLevel) {
               level.level, std::to_string(level.n), std::to_string(level.events),
               stacked(level.metrics->discrimination.auc, level.metrics->discrimination.aucCi, 3),
               stacked(cal.intercept, cal.interceptCi, 2), stacked(cal.slope, cal.slopeCi, 2),
-              stacked(cal.oeRatio, cal.oeCi, 2), "too small to judge"}));
+              stacked(cal.oeRatio, cal.oeCi, 2), "too few patients"}));
     }
   }
   const std::string text = allText(doc);
@@ -213,7 +214,7 @@ TEST(AuditUncertainty, SubgroupTablesShowEveryLevel) {
     return r[1].find("Subgroup") != std::string::npos;
   });
   ASSERT_NE(item, checklist.rows.end());
-  EXPECT_EQ((*item)[0], "[covered]");
+  EXPECT_EQ((*item)[0], "[stated here]");
 }
 
 TEST(AuditUncertainty, TablesAreNumberedInReadingOrder) {

@@ -138,7 +138,7 @@ TEST_F(UncertaintyCommands, ValidatePdfAndCsvCarryTheUncertaintySections) {
   for (const char* part :
        {"Is the cohort large enough? (sample size)", "Sample size: rules of thumb",
         "precision-based minimum", "Bootstrap 95% CI", "Comparison with other models",
-        "Paired DeLong test", "Subgroups by 'smoke'", "too small to judge", "small.json"}) {
+        "Paired DeLong test", "Subgroups by 'smoke'", "too few patients", "small.json"}) {
     EXPECT_NE(text.find(part), std::string::npos) << part;
   }
   EXPECT_EQ(text.find(dir_.string()), std::string::npos);  // file names, never folders

@@ -89,7 +89,7 @@ FitDialog::FitDialog(std::shared_ptr<const Table> table, ImportSettings import,
   buttons->setObjectName(QStringLiteral("fitButtons"));
   accept_ = buttons->button(QDialogButtonBox::Ok);
   accept_->setObjectName(QStringLiteral("fitAccept"));
-  accept_->setText(tr("Use this model"));
+  accept_->setText(tr("Take into the study"));
   accept_->setEnabled(false);
   right->addWidget(buttons);
   layout->addLayout(right, 2);

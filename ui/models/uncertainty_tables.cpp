@@ -4,6 +4,7 @@
 #include <filesystem>
 #include <limits>
 
+#include "core/present/wording.h"
 #include "ui/models/result_tables.h"
 
 namespace calivera::ui {
@@ -109,7 +110,7 @@ void fillNetBenefitDifferenceTable(RecordTableModel& model, const ModelCompariso
                                QStringLiteral("Difference"),
                                QStringLiteral("Bootstrap 95% CI")};
   const QStringList tips = {QStringLiteral("First model − second model"),
-                            QStringLiteral("Within the clinically reasonable range you set"),
+                            QStringLiteral("Within the threshold range you chose as reasonable"),
                             QStringLiteral("Vickers & Elkin 2006: TP/n − FP/n × t/(1 − t)"),
                             QString(),
                             QStringLiteral("First − second"),
@@ -159,8 +160,8 @@ void fillSubgroupTable(RecordTableModel& model, const SubgroupAnalysis& analysis
     headers << QStringLiteral("AUC bootstrap CI") << QStringLiteral("Slope bootstrap CI");
     tips << QStringLiteral("Percentile 95%, resampling the subgroup's patients") << QString();
   }
-  headers << QStringLiteral("Judgement") << QStringLiteral("Warnings");
-  tips << QStringLiteral("Too small: fails a sample-size rule of thumb") << QString();
+  headers << QStringLiteral("Size") << QStringLiteral("Warnings");
+  tips << QStringLiteral("Too few patients: fails a sample-size rule of thumb") << QString();
   std::vector<std::vector<TableCell>> rows;
   for (const SubgroupResult& level : analysis.levels) {
     const double prevalence =
@@ -185,9 +186,8 @@ void fillSubgroupTable(RecordTableModel& model, const SubgroupAnalysis& analysis
         row.push_back(text(QString()));
       }
     }
-    row.push_back(text(level.tooSmall ? QStringLiteral("too small to judge")
-                                      : (level.metrics ? QStringLiteral("enough patients")
-                                                       : QStringLiteral("no metrics"))));
+    row.push_back(text(QString::fromUtf8(
+        subgroupSizeText(level.tooSmall, level.metrics.has_value(), level.events))));
     QString warnings;
     for (const auto& w : level.warnings) {
       warnings += (warnings.isEmpty() ? QString() : QStringLiteral("; ")) + q(w);

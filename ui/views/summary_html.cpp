@@ -4,6 +4,7 @@
 #include <cmath>
 
 #include "core/present/readings.h"
+#include "core/present/wording.h"
 #include "render/charts/chart_text.h"
 
 namespace calivera::ui {
@@ -35,7 +36,8 @@ QString boot(const ValidationBootstrap* b, const BootstrapEstimate ValidationBoo
 }
 
 QString metText(bool met) {
-  return met ? QStringLiteral("met") : QStringLiteral("<b style='color:#a04000'>not met</b>");
+  return met ? QString::fromUtf8(sizeCriterionText(true))
+             : QStringLiteral("<b style='color:#a04000'>%1</b>").arg(sizeCriterionText(false));
 }
 
 QString count(double v) {

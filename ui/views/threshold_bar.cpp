@@ -41,7 +41,7 @@ ThresholdBar::ThresholdBar(QWidget* parent) : QWidget(parent) {
   spin_->setToolTip(tr("Exact threshold as a probability between 0 and 1"));
   label->setBuddy(spin_);
 
-  auto* rangeLabel = new QLabel(tr("Clinically reasonable thresholds:"));
+  auto* rangeLabel = new QLabel(tr("Thresholds you consider reasonable:"));
   rangeLabel->setObjectName(QStringLiteral("reasonableRangeLabel"));
   rangeLo_ = makeProbabilityBox(QStringLiteral("reasonableLoSpin"), 3, 0.01);
   rangeHi_ = makeProbabilityBox(QStringLiteral("reasonableHiSpin"), 3, 0.01);
