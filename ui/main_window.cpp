@@ -58,6 +58,7 @@ MainWindow::MainWindow(QWidget* parent) : QMainWindow(parent) {
   messageText_ = new QLabel;
   messageText_->setObjectName(QStringLiteral("messageText"));
   messageText_->setWordWrap(true);
+  messageText_->setTextFormat(Qt::PlainText);  // file and model names are never markup
   messageText_->setTextInteractionFlags(Qt::TextSelectableByMouse);
   auto* dismiss = new QPushButton(tr("Dismiss"));
   dismiss->setObjectName(QStringLiteral("messageDismiss"));
@@ -70,6 +71,9 @@ MainWindow::MainWindow(QWidget* parent) : QMainWindow(parent) {
   thresholdBar_ = new ThresholdBar;
   layout->addWidget(thresholdBar_);
   connect(thresholdBar_, &ThresholdBar::thresholdEdited, this, &MainWindow::setThreshold);
+  connect(thresholdBar_, &ThresholdBar::entryRefused, this, [this](const QString& reason) {
+    showMessage(tr("Threshold not changed: %1").arg(reason), true);
+  });
   connect(thresholdBar_, &ThresholdBar::reasonableRangeEdited, this, [this](double lo, double hi) {
     study_.analysis.reasonableLo = lo;
     study_.analysis.reasonableHi = hi;
@@ -211,9 +215,9 @@ void MainWindow::buildMenus() {
   actionInternal_ = add(model, QStringLiteral("actionInternalValidation"),
                         tr("&Internal validation (bootstrap optimism)…"), QKeySequence(),
                         &MainWindow::onInternalValidation);
-  actionUpdate_ = add(model, QStringLiteral("actionUpdateModel"),
-                      tr("&Update the model on this cohort…"), QKeySequence(),
-                      &MainWindow::onUpdateModel);
+  actionUpdate_ =
+      add(model, QStringLiteral("actionUpdateModel"), tr("&Update the model on this cohort…"),
+          QKeySequence(), &MainWindow::onUpdateModel);
 
   QMenu* analysis = menuBar()->addMenu(tr("&Analysis"));
   analysis->setObjectName(QStringLiteral("menuAnalysis"));

@@ -7,6 +7,8 @@
 #include <QSlider>
 #include <cmath>
 
+#include "ui/views/threshold_spin_box.h"
+
 namespace calivera::ui {
 
 namespace {
@@ -37,8 +39,13 @@ ThresholdBar::ThresholdBar(QWidget* parent) : QWidget(parent) {
   slider_->setPageStep(50);
   slider_->setToolTip(tr("Drag, or use the arrow keys (Page Up/Down for larger steps)"));
   slider_->setMinimumWidth(240);
-  spin_ = makeProbabilityBox(QStringLiteral("thresholdSpin"), 4, 0.005);
-  spin_->setToolTip(tr("Exact threshold as a probability between 0 and 1"));
+  auto* entry = new ThresholdSpinBox;
+  entry->setObjectName(QStringLiteral("thresholdSpin"));
+  entry->setToolTip(
+      tr("Exact threshold: a probability (0.15), a percentage (15%) or a "
+         "harm-to-benefit ratio (1:9 means a threshold of 0.10)"));
+  connect(entry, &ThresholdSpinBox::entryRefused, this, &ThresholdBar::entryRefused);
+  spin_ = entry;
   label->setBuddy(spin_);
 
   auto* rangeLabel = new QLabel(tr("Thresholds you consider reasonable:"));

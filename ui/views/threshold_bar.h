@@ -25,6 +25,8 @@ class ThresholdBar : public QWidget {
  signals:
   void thresholdEdited(double threshold);
   void reasonableRangeEdited(double lo, double hi);
+  // A typed threshold that could not be read (reason in plain words); the threshold is unchanged.
+  void entryRefused(const QString& reason);
 
  private:
   QSlider* slider_ = nullptr;
