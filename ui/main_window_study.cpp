@@ -216,7 +216,7 @@ void MainWindow::applyThreshold() {
     for (ChartPanel* p : {roc_, calibration_, decision_, distribution_}) {
       if (p->linkedChart() != nullptr) p->linkedChart()->setThreshold(snapshot);
     }
-    confusion_->setSnapshot(snapshot);
+    confusion_->setSnapshot(snapshot, study_.result ? &study_.result->calibration : nullptr);
     subgroupView_->setThreshold(snapshot);
     predictorView_->setThreshold(snapshot);
     highlightThresholdRow();

@@ -18,12 +18,16 @@ class ThresholdIndex {
   ThresholdIndex(const std::vector<double>& risk, const std::vector<double>& outcome);
 
   ConfusionCounts countsAt(double threshold) const;
+  // Mean predicted risk of the patients flagged at `threshold` (risk >= threshold); NaN when
+  // nobody is flagged. Beside the observed proportion (PPV) it shows calibration where it acts.
+  double meanRiskFlaggedAt(double threshold) const;
   std::size_t size() const { return sortedRisk_.size(); }
   std::size_t events() const { return totalEvents_; }
 
  private:
   std::vector<double> sortedRisk_;            // ascending
   std::vector<std::size_t> eventsAtOrAbove_;  // eventsAtOrAbove_[i]: events among sortedRisk_[i..]
+  std::vector<double> riskAtOrAbove_;         // riskAtOrAbove_[i]: sum of sortedRisk_[i..]
   std::size_t totalEvents_ = 0;
 };
 

@@ -58,7 +58,10 @@ ThresholdSnapshot ThresholdState::snapshot() const {
 }
 
 ThresholdSnapshot ThresholdState::snapshotAt(double threshold) const {
-  return snapshotFromCounts(threshold, index_ ? index_->countsAt(threshold) : ConfusionCounts{});
+  ThresholdSnapshot s =
+      snapshotFromCounts(threshold, index_ ? index_->countsAt(threshold) : ConfusionCounts{});
+  if (index_) s.meanRiskFlagged = index_->meanRiskFlaggedAt(threshold);
+  return s;
 }
 
 }  // namespace calivera

@@ -8,6 +8,7 @@
 // ("not defined"); net benefit (Vickers & Elkin 2006) is NaN outside 0 < t < 1.
 
 #include <cstddef>
+#include <limits>
 #include <memory>
 #include <vector>
 
@@ -31,6 +32,9 @@ struct ThresholdSnapshot {
   double flaggedWithoutEventPer1000 = 0.0;
   double netBenefit = 0.0;
   double netBenefitTreatAll = 0.0;
+  // Mean predicted risk among the flagged patients (NaN when nobody is flagged); set by
+  // ThresholdState from its index, not derivable from the four counts.
+  double meanRiskFlagged = std::numeric_limits<double>::quiet_NaN();
 };
 
 // All derived quantities from the four counts at threshold t.

@@ -57,6 +57,17 @@ class ThresholdEntryUiTest : public QObject {
     type(box, "15");
     QCOMPARE(w.thresholdState().threshold(), 0.10);  // unchanged, not clamped to 1
     QVERIFY2(w.messageText().contains("15%"), qPrintable(w.messageText()));
+
+    // The panel's calibration sentence: a model fitted by maximum likelihood on these patients
+    // has O/E exactly 1, so it says the risks agree, and gives the flagged patients' rates from
+    // the same index as the counts.
+    auto* note = w.findChild<QLabel*>("calibrationAtThresholdText");
+    QVERIFY(note != nullptr && note->isVisible());
+    QVERIFY2(note->text().contains("agree"), qPrintable(note->text()));
+    const ThresholdSnapshot s = w.thresholdState().snapshot();
+    QVERIFY2(note->text().contains(QString("Among the %1 flagged patients")
+                                       .arg(s.counts.tp + s.counts.fp)),
+             qPrintable(note->text()));
   }
 };
 

@@ -6,6 +6,7 @@
 #include <QVBoxLayout>
 #include <cmath>
 
+#include "core/present/threshold_reading.h"
 #include "render/charts/chart_text.h"
 
 namespace calivera::ui {
@@ -95,6 +96,13 @@ ConfusionPanel::ConfusionPanel(QWidget* parent) : QWidget(parent) {
   naturalFrequency_->setWordWrap(true);
   naturalFrequency_->setTextInteractionFlags(Qt::TextSelectableByMouse);
   layout->addWidget(naturalFrequency_);
+  calibrationNote_ = new QLabel;
+  calibrationNote_->setObjectName(QStringLiteral("calibrationAtThresholdText"));
+  calibrationNote_->setWordWrap(true);
+  calibrationNote_->setTextFormat(Qt::PlainText);
+  calibrationNote_->setTextInteractionFlags(Qt::TextSelectableByMouse);
+  calibrationNote_->setAlignment(Qt::AlignLeft | Qt::AlignTop);
+  layout->addWidget(calibrationNote_);
   adequacyHeading_ = heading(tr("Is the cohort large enough?"), QStringLiteral("adequacyHeading"));
   layout->addWidget(adequacyHeading_);
   adequacy_ = new QLabel;
@@ -127,7 +135,15 @@ QString ConfusionPanel::naturalFrequencyText(const ThresholdSnapshot& s) {
            per1000(s.eventsMissedPer1000), per1000(s.flaggedWithoutEventPer1000));
 }
 
-void ConfusionPanel::setSnapshot(const ThresholdSnapshot& s) {
+void ConfusionPanel::setSnapshot(const ThresholdSnapshot& s, const Calibration* calibration) {
+  const std::string note =
+      calibration ? calibrationAtThresholdText(s, *calibration) : std::string();
+  calibrationNote_->setText(QString::fromStdString(note));
+  calibrationNote_->setVisible(!note.empty());
+  // A miscalibrated cohort is said in words first; the colour only repeats it.
+  calibrationNote_->setStyleSheet(note.find("is not an observed") != std::string::npos
+                                      ? QStringLiteral("color: #8a3b00;")
+                                      : QString());
   const ConfusionCounts& c = s.counts;
   title_->setText(tr("At threshold %1 (flag when risk ≥ %1)").arg(fixed(s.threshold, 4)));
   tp_->setText(QString::number(c.tp));
@@ -166,6 +182,8 @@ void ConfusionPanel::clear() {
   rates_->clear();
   netBenefit_->clear();
   naturalFrequency_->setText(naturalFrequencyText({}));
+  calibrationNote_->clear();
+  calibrationNote_->hide();
 }
 
 }  // namespace calivera::ui

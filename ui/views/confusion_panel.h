@@ -5,6 +5,7 @@
 
 #include <QWidget>
 
+#include "core/metrics/validation.h"
 #include "core/study/threshold_state.h"
 
 class QLabel;
@@ -16,7 +17,9 @@ class ConfusionPanel : public QWidget {
 
  public:
   explicit ConfusionPanel(QWidget* parent = nullptr);
-  void setSnapshot(const ThresholdSnapshot& snapshot);
+  // `calibration` (the validation's): says in words when predicted risks are not observed risks
+  // on this cohort, with the rates among the flagged patients; null hides that sentence.
+  void setSnapshot(const ThresholdSnapshot& snapshot, const Calibration* calibration = nullptr);
   void clear();
   // The sample-size verdict, shown under the counts so nobody reads them without it; an empty
   // text hides the section.
@@ -40,6 +43,7 @@ class ConfusionPanel : public QWidget {
   QLabel* rates_ = nullptr;
   QLabel* netBenefit_ = nullptr;
   QLabel* naturalFrequency_ = nullptr;
+  QLabel* calibrationNote_ = nullptr;
   QLabel* adequacyHeading_ = nullptr;
   QLabel* adequacy_ = nullptr;
 };
