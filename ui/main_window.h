@@ -64,6 +64,9 @@ class MainWindow : public QMainWindow {
   bool importCohort(const QString& path, const ImportSettings& settings,
                     std::shared_ptr<const Table> loaded = nullptr);
   bool loadModelFile(const QString& path);
+  // A model file saved by the update dialog, validated on the same patients: marked apparent,
+  // with the study's uncertainty settings run again for it.
+  bool validateUpdatedModel(const QString& path);
   bool useFittedModel(const FitSettings& fit, const Model& model,
                       const std::vector<std::string>& warnings);
   bool setColumnMapping(const std::map<std::string, std::string>& mapping);

@@ -182,6 +182,36 @@ class ModelToolsTest : public QObject {
     QCOMPARE(saved.count(), 0);
   }
 
+  // "Save and validate it here": the updated model on the patients it was updated on is apparent
+  // performance everywhere (checkbox, run, Hosmer-Lemeshow on g - 2 df, the message says why),
+  // and the study's bootstrap is run again for it instead of being dropped.
+  void savedUpdateIsValidatedAsApparentWithTheStudysSettings() {
+    MainWindow w;
+    QVERIFY(w.openInputs(kBirthwt, modelPath_, lowOutcome()));
+    QTRY_VERIFY_WITH_TIMEOUT(!w.job()->isRunning(), 60000);
+    UncertaintySettings settings;
+    settings.bootstrapReplicates = 20;
+    settings.seed = 3;
+    QVERIFY(w.runUncertainty(settings));
+    QTRY_VERIFY_WITH_TIMEOUT(!w.job()->isRunning(), 60000);
+    QVERIFY(w.study().uncertainty && w.study().uncertainty->bootstrap);
+
+    const QString path = dir_.filePath("recalibrated_here.json");
+    writeModelFile(
+        path.toStdString(),
+        updateModel(*w.study().model, dataOf(w), UpdateMethod::Recalibrate, UpdateOptions{}).model);
+    QVERIFY(w.validateUpdatedModel(path));
+    QTRY_VERIFY_WITH_TIMEOUT(!w.job()->isRunning(), 60000);
+    QVERIFY(w.study().analysis.apparent);
+    QVERIFY(w.findChild<QCheckBox*>("apparentCheck")->isChecked());
+    QCOMPARE(w.study().run->performance, std::string(kPerformanceApparent));
+    QCOMPARE(w.study().result->hosmerLemeshow.df, 8);
+    QVERIFY(std::abs(w.study().result->calibration.slope - 1.0) < 1e-6);
+    QVERIFY2(w.messageText().contains("apparent performance"), qPrintable(w.messageText()));
+    QVERIFY(w.study().uncertainty && w.study().uncertainty->bootstrap);
+    QCOMPARE(w.study().uncertainty->bootstrap->run.replicates, 20);
+  }
+
   // The fit dialog with a spline: the coefficient table and the deviance of R's glm with the
   // same spline space (tests/reference/data/birthwt_spline.csv, R 4.2.2, splines::ns).
   void fitDialogFitsASplineAsRDoes() {
