@@ -1,6 +1,7 @@
 // The Model menu's tools that work on the study's model and its analysed patients: internal
 // validation (bootstrap optimism) and model updating. Each runs in its own dialog with its own
 // background job; a model file they save can be validated in the study straight away.
+#include "core/uncertainty/internal_validation.h"
 #include "ui/async/background_job.h"
 #include "ui/dialogs/internal_validation_dialog.h"
 #include "ui/dialogs/model_update_dialog.h"
@@ -10,6 +11,14 @@ namespace calivera::ui {
 
 void MainWindow::onInternalValidation() {
   if (!study_.model || !cohort_ || !study_.data) return;
+  // Refused before the dialog opens, with the reason: optimism correction of a model that was
+  // not developed on this cohort would report "corrected" figures that mean nothing.
+  if (const std::string refusal = internalValidationRefusal(*study_.model, study_.data->sha256,
+                                                            cohort_->run->request.developmentData);
+      !refusal.empty()) {
+    showMessage(tr("Internal validation not run: %1.").arg(QString::fromStdString(refusal)), true);
+    return;
+  }
   InternalValidationDialog dialog(*study_.model, cohort_, *study_.data, this);
   connect(&dialog, &InternalValidationDialog::modelSaved, this, [this](const QString& path) {
     showMessage(tr("Shrunk model saved as %1. Load it (Model → Load model file) to validate it "

@@ -24,12 +24,16 @@ void printHelp() {
       << "usage: calivera internal --data FILE --outcome COLUMN --model FITTED.json\n"
          "                         [--bootstrap B] [--seed S] [--threads N] [--firth]\n"
          "                         [--shrunk-out FILE] [--json FILE] [--no-ici]\n"
+         "                         [--development-data]\n"
          "                         [--event-value V] [--missing TOKEN] [--delimiter C]\n\n"
          "Bootstrap optimism correction of AUC, calibration slope and intercept, Brier and ICI\n"
          "for a model fitted on FILE (e.g. by 'calivera fit'). B resamples (default 200) with\n"
          "seed S (default 1) on N threads (default all); same seed, same result for any N.\n"
          "--shrunk-out writes the model with coefficients times the corrected slope and the\n"
-         "intercept re-estimated so that mean predicted risk equals the observed proportion.\n";
+         "intercept re-estimated so that mean predicted risk equals the observed proportion.\n"
+         "The model must have been fitted on FILE: its file's record of its development data\n"
+         "(SHA-256, as 'calivera fit' writes it) must match, or --development-data states it.\n"
+         "A published model is validated with 'calivera validate' instead.\n";
 }
 
 }  // namespace
@@ -37,7 +41,7 @@ void printHelp() {
 int runInternalCommand(const std::vector<std::string>& words) {
   OptionSpec spec{{"--data", "--outcome", "--model", "--bootstrap", "--seed", "--threads",
                    "--shrunk-out", "--json"},
-                  {"--firth", "--no-ici", "--help"}};
+                  {"--firth", "--no-ici", "--development-data", "--help"}};
   addDataOptions(spec);
   const Arguments args(words, spec);
   if (args.has("--help")) {
@@ -70,7 +74,8 @@ int runInternalCommand(const std::vector<std::string>& words) {
   options.fit.firth = args.has("--firth");
   const UpdateData data{&cohort.table, cohort.selection.rows, cohort.outcome, cohort.sha256,
                         cohort.path};
-  const InternalValidation internal = internalValidation(model, data, options);
+  const InternalValidation internal =
+      internalValidation(model, data, options, args.has("--development-data"));
   const OptimismResult& result = internal.optimism;
   const std::vector<std::string>& warnings = internal.warnings;
 

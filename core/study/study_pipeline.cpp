@@ -67,6 +67,9 @@ PipelineOutput runPipeline(const PipelineRequest& request, const ProgressCallbac
         s.model = std::move(fitted.model);
         s.modelWarnings = fitted.warnings;
       }
+      // As `calivera fit` records it: the fingerprint of the data the model was fitted on, so the
+      // model saved from the workstation knows its development data too.
+      if (!s.model->development.dataSha256) s.model->development.dataSha256 = s.data->sha256;
       s.analysis.apparent = true;  // performance on the data the model was fitted on
       break;
     }

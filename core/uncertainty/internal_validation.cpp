@@ -11,17 +11,40 @@ bool fittedWithFirth(const Model& model) {
   return model.development.method && model.development.method->find("Firth") != std::string::npos;
 }
 
+std::string internalValidationRefusal(const Model& model, const std::string& dataSha256,
+                                      bool statedDevelopmentData) {
+  const bool recorded = model.development.dataSha256.has_value();
+  if (statedDevelopmentData || (recorded && *model.development.dataSha256 == dataSha256)) {
+    return {};
+  }
+  const std::string reason =
+      recorded ? "the model was developed on other data (its file records SHA-256 " +
+                     *model.development.dataSha256 + ", this cohort's is " + dataSha256 + ")"
+               : "the model file records no development data, so it was not fitted here";
+  return "internal validation (optimism correction) is for a model fitted on this cohort, and " +
+         reason +
+         ". For a published model, validate it on this cohort instead (external validation: "
+         "calivera validate, or the workstation's views); if this cohort is its development data, "
+         "say so (--development-data, or 'Cohort is the "
+         "development data' in the workstation)";
+}
+
 InternalValidation internalValidation(const Model& model, const UpdateData& data,
-                                      OptimismOptions options) {
+                                      OptimismOptions options, bool statedDevelopmentData) {
   if (data.table == nullptr) throw AnalysisError("internal validation: no cohort");
+  if (const std::string refusal =
+          internalValidationRefusal(model, data.dataSha256, statedDevelopmentData);
+      !refusal.empty()) {
+    throw InputError(refusal);
+  }
   InternalValidation out;
   options.fit.firth = options.fit.firth || fittedWithFirth(model);
   out.firth = options.fit.firth;
-  if (model.development.dataSha256 && !data.dataSha256.empty() &&
+  if (statedDevelopmentData && model.development.dataSha256 &&
       *model.development.dataSha256 != data.dataSha256) {
-    out.warnings.push_back("the model file records other development data (sha256 " +
+    out.warnings.push_back("the model file records other development data (SHA-256 " +
                            *model.development.dataSha256 +
-                           "); optimism correction is meant for the data a model was fitted on");
+                           "); run as stated: this cohort is the model's development data");
   }
   const Eigen::MatrixXd design = designMatrix(model, *data.table, data.rows);
   Eigen::MatrixXd X(design.rows(), design.cols() + 1);

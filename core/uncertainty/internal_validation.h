@@ -29,10 +29,23 @@ struct InternalValidation {
 bool fittedWithFirth(const Model& model);
 
 // `data` holds the analysed rows (complete cases over the model's columns and the outcome).
-// options.fit.firth is or-ed with fittedWithFirth(model). Throws AnalysisError when the fit on
-// the full data fails, Cancelled through options.bootstrap.progress.
+// options.fit.firth is or-ed with fittedWithFirth(model).
+//
+// Optimism correction estimates how much a model overfits the data it was developed on, by
+// repeating its development on resamples (Harrell, Lee & Mark 1996); for a model developed
+// elsewhere it has no meaning, and its "corrected" figures would look like evidence they are
+// not. So the cohort must be the model's development data: the model file's recorded SHA-256 of
+// its development data equals data.dataSha256, or the caller states it
+// (`statedDevelopmentData`: the workstation's checkbox, `internal --development-data`).
+// Otherwise throws InputError naming the reason and pointing to external validation.
+// Throws AnalysisError when the fit on the full data fails, Cancelled through
+// options.bootstrap.progress.
 InternalValidation internalValidation(const Model& model, const UpdateData& data,
-                                      OptimismOptions options);
+                                      OptimismOptions options, bool statedDevelopmentData = false);
+
+// Empty when internal validation may run on `data`; else the reason it may not.
+std::string internalValidationRefusal(const Model& model, const std::string& dataSha256,
+                                      bool statedDevelopmentData);
 
 // The model refitted on `data` (same terms, Firth as given), every coefficient times
 // `shrinkage` and the intercept re-estimated (optimism.h, shrinkModel). Throws AnalysisError for

@@ -17,6 +17,7 @@
 #include "core/metrics/validation_run.h"
 #include "core/model/model_io.h"
 #include "core/uncertainty/internal_validation.h"
+#include "core/util/sha256.h"
 #include "render/charts/chart_text.h"
 #include "ui/async/background_job.h"
 #include "ui/dialogs/fit_dialog.h"
@@ -90,7 +91,13 @@ class ModelToolsTest : public QObject {
     spec.predictors = {"age", "lwt", "race", "smoke", "ptl", "ht", "ui"};
     spec.modelName = "birthwt model";
     modelPath_ = dir_.filePath("fitted.json");
-    writeModelFile(modelPath_.toStdString(), fitCohortModel(table, spec).model);
+    Model fitted = fitCohortModel(table, spec).model;
+    fitted.development.dataSha256 = sha256OfFile(kBirthwt.toStdString());  // as `calivera fit`
+    writeModelFile(modelPath_.toStdString(), fitted);
+    // The same coefficients without a record of their development data: a model from elsewhere.
+    fitted.development.dataSha256.reset();
+    publishedPath_ = dir_.filePath("published.json");
+    writeModelFile(publishedPath_.toStdString(), fitted);
     ImportSettings import;
     import.outcomeColumn = "low";
     QVERIFY(window_.openInputs(kBirthwt, modelPath_, import));
@@ -180,6 +187,20 @@ class ModelToolsTest : public QObject {
     QSignalSpy saved(&dialog, &ModelUpdateDialog::modelSaved);
     QVERIFY(!dialog.saveChosenModel(dir_.filePath("no/such/folder/m.json"), false).isEmpty());
     QCOMPARE(saved.count(), 0);
+  }
+
+  // A model not developed on this cohort: internal validation is refused with the reason, and no
+  // dialog opens; stating that the cohort is its development data lets it run.
+  void internalValidationOfAModelFromElsewhereIsRefused() {
+    MainWindow w;
+    QVERIFY(w.openInputs(kBirthwt, publishedPath_, lowOutcome()));
+    QTRY_VERIFY_WITH_TIMEOUT(!w.job()->isRunning(), 60000);
+    w.findChild<QAction*>("actionInternalValidation")->trigger();
+    QVERIFY2(w.messageText().contains("is for a model fitted on this cohort"),
+             qPrintable(w.messageText()));
+    QVERIFY(w.messageText().contains("records no development data"));
+    QVERIFY(!internalValidationRefusal(*w.study().model, w.study().data->sha256, false).empty());
+    QVERIFY(internalValidationRefusal(*w.study().model, w.study().data->sha256, true).empty());
   }
 
   // "Save and validate it here": the updated model on the patients it was updated on is apparent
@@ -290,6 +311,7 @@ class ModelToolsTest : public QObject {
  private:
   QTemporaryDir dir_;
   QString modelPath_;
+  QString publishedPath_;
   MainWindow window_;
 };
 

@@ -119,10 +119,11 @@ void InternalValidationDialog::startRun() {
   save_->setEnabled(false);
   status_->setText(tr("Refitting on %1 resamples…").arg(options.bootstrap.replicates));
   std::function<InternalValidation(const ProgressCallback&)> work =
-      [model = model_, cohort = cohort_, data = updateDataOf(*cohort_, data_),
-       options](const ProgressCallback& progress) mutable {
+      [model = model_, cohort = cohort_, data = updateDataOf(*cohort_, data_), options,
+       statedDevelopmentData =
+           cohort_->run->request.developmentData](const ProgressCallback& progress) mutable {
         options.bootstrap.progress = progress;
-        return internalValidation(model, data, options);
+        return internalValidation(model, data, options, statedDevelopmentData);
       };
   std::function<void(InternalValidation&)> done = [this](InternalValidation& r) {
     result_ = std::move(r);
