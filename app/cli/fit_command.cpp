@@ -9,6 +9,7 @@
 #include "core/data/csv_reader.h"
 #include "core/fit/cohort_fit.h"
 #include "core/model/model_io.h"
+#include "core/present/number_text.h"
 #include "core/util/errors.h"
 #include "core/util/sha256.h"
 
@@ -59,10 +60,7 @@ std::string formatValue(double value, int digits = 5) {
 }
 
 std::string formatP(double p) {
-  if (p < 1e-4) return "<0.0001";
-  char buffer[16];
-  std::snprintf(buffer, sizeof buffer, "%.4f", p);
-  return buffer;
+  return formatPValue(p);
 }
 
 std::string pad(const std::string& text, std::size_t width, bool right = true) {

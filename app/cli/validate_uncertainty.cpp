@@ -5,6 +5,7 @@
 #include <cstring>
 #include <string>
 
+#include "core/present/number_text.h"
 #include "core/present/wording.h"
 #include "core/report/validation_json.h"
 #include "core/uncertainty/bootstrap_measures.h"
@@ -14,17 +15,13 @@
 namespace calivera::cli {
 namespace {
 
-// Four decimals, as the summary tables print their estimates; "undefined" for NaN.
+// Four decimals, as the summary tables print their estimates (core/present/number_text.h).
 std::string fixed4(double v) {
-  if (std::isnan(v)) return "undefined";
-  char buffer[64];
-  std::snprintf(buffer, sizeof buffer, "%.4f", v);
-  return std::strcmp(buffer, "-0.0000") == 0 ? std::string("0.0000") : std::string(buffer);
+  return formatNumber(v, 4);
 }
 
 std::string pValueText(double p) {
-  if (std::isnan(p)) return "undefined";
-  return p < 0.0001 ? std::string("< 0.0001") : fixed4(p);
+  return formatPValue(p);
 }
 
 void printEstimate(std::ostream& out, const char* name, const BootstrapEstimate& e) {

@@ -3,21 +3,16 @@
 #include <cmath>
 #include <cstdio>
 
+#include "core/present/number_text.h"
+
 namespace calivera {
 
 std::string formatFixed(double value, int decimals) {
-  if (std::isnan(value)) return "-";
-  if (std::isinf(value)) return value > 0 ? "inf" : "-inf";
-  char buffer[64];
-  std::snprintf(buffer, sizeof buffer, "%.*f", decimals, value);
-  std::string text = buffer;
-  // snprintf prints -0.000 for small negatives; a reader would take it for a sign.
-  if (text.front() == '-' && text.find_first_not_of("-0.") == std::string::npos) text.erase(0, 1);
-  return text;
+  return formatNumber(value, decimals);
 }
 
 std::string formatInterval(const Interval& ci, int decimals) {
-  return formatFixed(ci.lo, decimals) + " to " + formatFixed(ci.hi, decimals);
+  return formatRange(ci.lo, ci.hi, decimals);
 }
 
 std::string formatWithCi(double value, const Interval& ci, int decimals) {

@@ -8,7 +8,8 @@
 
 namespace calivera {
 
-// Fixed `decimals`; "-" for NaN, "inf"/"-inf" for infinities; never "-0.000".
+// Fixed `decimals` by the one policy of core/present/number_text.h ("not defined" for NaN,
+// "inf"/"-inf", never "-0.000").
 std::string formatFixed(double value, int decimals);
 // "0.812 (0.751 to 0.861)"
 std::string formatWithCi(double value, const Interval& ci, int decimals);

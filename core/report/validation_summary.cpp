@@ -5,6 +5,7 @@
 #include <iterator>
 #include <sstream>
 
+#include "core/present/number_text.h"
 #include "core/report/audit_run.h"
 #include "core/report/validation_json.h"
 
@@ -12,10 +13,7 @@ namespace calivera {
 namespace {
 
 std::string fixed(double value, int decimals) {
-  if (!std::isfinite(value)) return "undefined";
-  char buffer[64];
-  std::snprintf(buffer, sizeof buffer, "%.*f", decimals, value);
-  return buffer;
+  return formatNumber(value, decimals);
 }
 
 std::string withCi(double value, const Interval& ci, int decimals) {
@@ -24,8 +22,7 @@ std::string withCi(double value, const Interval& ci, int decimals) {
 }
 
 std::string pValue(double p) {
-  if (!std::isfinite(p)) return "undefined";
-  return p < 0.001 ? "< 0.001" : fixed(p, 3);
+  return formatPValue(p);
 }
 
 // Net benefit rows shown for a long threshold grid (the default 0.01..0.99): these customary

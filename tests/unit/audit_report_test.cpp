@@ -148,7 +148,7 @@ TEST(AuditReport, HidesPrevalenceWhenEventsAreHidden) {
 TEST(AuditFormat, FixedDecimalsIntervalsAndThresholds) {
   EXPECT_EQ(formatFixed(-0.0001, 3), "0.000");
   EXPECT_EQ(formatFixed(0.81249, 3), "0.812");
-  EXPECT_EQ(formatFixed(std::nan(""), 3), "-");
+  EXPECT_EQ(formatFixed(std::nan(""), 3), "not defined");
   EXPECT_EQ(formatWithCi(1.5, {1.25, 1.75}, 2), "1.50 (1.25 to 1.75)");
   EXPECT_EQ(formatThreshold(0.1), "0.10");
   EXPECT_EQ(formatThreshold(0.075), "0.075");

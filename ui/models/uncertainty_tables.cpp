@@ -4,6 +4,7 @@
 #include <filesystem>
 #include <limits>
 
+#include "core/present/number_text.h"
 #include "core/present/wording.h"
 #include "ui/models/result_tables.h"
 
@@ -92,8 +93,8 @@ void fillDelongTable(RecordTableModel& model, const ModelComparison& comparison)
   std::vector<std::vector<TableCell>> rows;
   for (const ModelPairComparison& pair : comparison.pairs) {
     const PairedAucTest& t = pair.auc;
-    TableCell p = number(t.pValue, 4);
-    if (std::isfinite(t.pValue) && t.pValue < 1e-4) p.text = QStringLiteral("< 0.0001");
+    TableCell p = number(t.pValue, 3);
+    p.text = QString::fromStdString(formatPValue(t.pValue));
     rows.push_back({text(pairName(comparison, t.first, t.second)), number(t.aucFirst, 3),
                     number(t.aucSecond, 3), number(t.difference, 4), interval(t.differenceCi, 4),
                     number(t.se, 4), number(t.z, 3), p, number(t.correlation, 3)});
