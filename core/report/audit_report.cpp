@@ -8,6 +8,7 @@
 #include <string_view>
 
 #include "core/present/caution.h"
+#include "core/present/number_text.h"
 #include "core/present/wording.h"
 #include "core/report/audit_blocks.h"
 #include "core/report/audit_disclosure.h"
@@ -208,30 +209,16 @@ std::string slopeReading(const Calibration& c) {
                          "little).";
 }
 
-// The bootstrap percentile CIs beside the analytic ones, matched by the summary's measure names.
-void addBootstrapColumn(const ValidationBootstrap& b, const DisclosurePlan& plan,
+// The bootstrap percentile CIs as a column beside the analytic ones: one cell per summary row,
+// given with the row itself (never matched by its label), "-" where no interval is computed.
+void addBootstrapColumn(const ValidationBootstrap& b, const std::vector<std::string>& cells,
                         ReportTable& table) {
-  const std::string hidden = kComplementaryMark;
-  const auto cell = [&](const std::string& measure) -> std::string {
-    if (measure == "AUC (c-statistic)") return bootstrapCiText(b.auc, 3);
-    if (measure == "Calibration intercept") return bootstrapCiText(b.calibrationIntercept, 3);
-    if (measure == "Calibration slope") return bootstrapCiText(b.calibrationSlope, 3);
-    if (measure == "Observed / expected") {
-      return plan.eventsHidden() ? hidden : bootstrapCiText(b.oeRatio, 3);
-    }
-    if (measure == "ICI / E50 / E90 / Emax") {
-      return "ICI " + bootstrapCiText(b.ici, 3) + "\nE90 " + bootstrapCiText(b.e90, 3);
-    }
-    if (measure == "Brier score (scaled)") {
-      return bootstrapCiText(b.brier, 3) + "\n(" +
-             (plan.eventsHidden() ? hidden : bootstrapCiText(b.brierScaled, 3)) + ")";
-    }
-    return "-";
-  };
   table.header.insert(table.header.begin() + 2, "Bootstrap 95% CI");
   table.widths = {0.21, 0.25, 0.18, 0.36};
   table.align.insert(table.align.begin() + 2, CellAlign::Left);
-  for (auto& row : table.rows) row.insert(row.begin() + 2, cell(row.front()));
+  for (std::size_t i = 0; i < table.rows.size(); ++i) {
+    table.rows[i].insert(table.rows[i].begin() + 2, i < cells.size() ? cells[i] : "-");
+  }
   table.note = bootstrapNote(b);
 }
 
@@ -244,52 +231,67 @@ void addSummary(const AuditReportInput& input, const DisclosurePlan& plan,
   table.header = {"Measure", "Estimate (95% CI)", "Reading"};
   table.widths = {0.24, 0.28, 0.48};
   table.align = {CellAlign::Left, CellAlign::Left, CellAlign::Left};
-  table.rows.push_back({"AUC (c-statistic)",
-                        formatWithCi(r.discrimination.auc, r.discrimination.aucCi, 3),
-                        aucReading(r.discrimination)});
-  table.rows.push_back({"Discrimination slope",
-                        formatFixed(r.discrimination.discriminationSlope, 3),
-                        "Mean predicted risk of patients with the event minus that of patients "
-                        "without it."});
-  table.rows.push_back(
-      {"Calibration intercept", formatWithCi(c.intercept, c.interceptCi, 3), interceptReading(c)});
-  table.rows.push_back({"Calibration slope", formatWithCi(c.slope, c.slopeCi, 3), slopeReading(c)});
-  table.rows.push_back(
-      {"Observed / expected",
-       plan.eventsHidden() ? std::string(kComplementaryMark) : formatWithCi(c.oeRatio, c.oeCi, 3),
-       "Observed events per predicted event (target 1)."});
-  table.rows.push_back(
-      {"Spiegelhalter z",
-       formatFixed(c.spiegelhalterZ, 2) + " (p = " + formatFixed(c.spiegelhalterP, 3) + ")",
-       "Tests whether squared errors exceed what the predicted risks imply."});
-  table.rows.push_back({"ICI / E50 / E90 / Emax",
-                        formatFixed(c.ici, 3) + " / " + formatFixed(c.e50, 3) + " / " +
-                            formatFixed(c.e90, 3) + " / " + formatFixed(c.emax, 3),
-                        "On average predicted risk differs from the smoothed observed risk by " +
-                            formatFixed(c.ici * 100.0, 1) + " percentage points."});
-  table.rows.push_back({"Brier score (scaled)",
-                        formatFixed(r.overall.brier, 3) + " (" +
-                            (plan.eventsHidden() ? std::string(kComplementaryMark)
-                                                 : formatFixed(r.overall.brierScaled, 3)) +
-                            ")",
-                        "Mean squared error of the risks (0 is perfect); scaled: share of the "
-                        "error of a prevalence-only model removed."});
+  const ValidationBootstrap* boot =
+      input.uncertainty && input.uncertainty->bootstrap ? &*input.uncertainty->bootstrap : nullptr;
+  const std::string hidden = kComplementaryMark;
+  // The bootstrap interval of one catalogued measure (core/uncertainty/bootstrap_measures.h).
+  const auto bootCi = [&](BootstrapEstimate ValidationBootstrap::*member) {
+    return boot ? bootstrapCiText(boot->*member, 3) : std::string();
+  };
+  std::vector<std::string> bootCells;
+  const auto add = [&](std::vector<std::string> row, std::string bootCell) {
+    table.rows.push_back(std::move(row));
+    bootCells.push_back(bootCell.empty() ? "-" : std::move(bootCell));
+  };
+  add({"AUC (c-statistic)", formatWithCi(r.discrimination.auc, r.discrimination.aucCi, 3),
+       aucReading(r.discrimination)},
+      bootCi(&ValidationBootstrap::auc));
+  add({"Discrimination slope", formatFixed(r.discrimination.discriminationSlope, 3),
+       "Mean predicted risk of patients with the event minus that of patients without it."},
+      {});
+  add({"Calibration intercept", formatWithCi(c.intercept, c.interceptCi, 3), interceptReading(c)},
+      bootCi(&ValidationBootstrap::calibrationIntercept));
+  add({"Calibration slope", formatWithCi(c.slope, c.slopeCi, 3), slopeReading(c)},
+      bootCi(&ValidationBootstrap::calibrationSlope));
+  add({"Observed / expected", plan.eventsHidden() ? hidden : formatWithCi(c.oeRatio, c.oeCi, 3),
+       "Observed events per predicted event (target 1)."},
+      plan.eventsHidden() && boot ? hidden : bootCi(&ValidationBootstrap::oeRatio));
+  add({"Spiegelhalter z",
+       formatFixed(c.spiegelhalterZ, 2) + " (p " + (c.spiegelhalterP < kPValueFloor ? "" : "= ") +
+           formatPValue(c.spiegelhalterP) + ")",
+       "Tests whether squared errors exceed what the predicted risks imply."},
+      {});
+  add({"ICI / E50 / E90 / Emax",
+       formatFixed(c.ici, 3) + " / " + formatFixed(c.e50, 3) + " / " + formatFixed(c.e90, 3) +
+           " / " + formatFixed(c.emax, 3),
+       "On average predicted risk differs from the smoothed observed risk by " +
+           formatFixed(c.ici * 100.0, 1) + " percentage points."},
+      boot ? "ICI " + bootCi(&ValidationBootstrap::ici) + "\nE90 " +
+                 bootCi(&ValidationBootstrap::e90)
+           : std::string());
+  add({"Brier score (scaled)",
+       formatFixed(r.overall.brier, 3) + " (" +
+           (plan.eventsHidden() ? hidden : formatFixed(r.overall.brierScaled, 3)) + ")",
+       "Mean squared error of the risks (0 is perfect); scaled: share of the error of a "
+       "prevalence-only model removed."},
+      boot ? bootCi(&ValidationBootstrap::brier) + "\n(" +
+                 (plan.eventsHidden() ? hidden : bootCi(&ValidationBootstrap::brierScaled)) + ")"
+           : std::string());
   const HosmerLemeshow& hl = r.hosmerLemeshow;
-  table.rows.push_back({"Hosmer-Lemeshow",
-                        "chi-square " + formatFixed(hl.statistic, 2) + ", df " +
-                            std::to_string(hl.df) + ", p = " + formatFixed(hl.pValue, 3),
-                        hl.pValue < 0.05 ? "Grouped observed and expected events differ more than "
-                                           "chance explains; read with the calibration curve."
-                                         : "No clear difference between grouped observed and "
-                                           "expected events; the test has little power in small "
-                                           "cohorts."});
+  add({"Hosmer-Lemeshow",
+       "chi-square " + formatFixed(hl.statistic, 2) + ", df " + std::to_string(hl.df) + ", p " +
+           (hl.pValue < kPValueFloor ? "" : "= ") + formatPValue(hl.pValue),
+       hl.pValue < 0.05 ? "Grouped observed and expected events differ more than chance "
+                          "explains; read with the calibration curve."
+                        : "No clear difference between grouped observed and expected events; "
+                          "the test has little power in small cohorts."},
+      {});
   if (!c.hierarchyLevel.empty()) {
-    table.rows.push_back({"Calibration level", c.hierarchyLevel,
-                          "Level reached on the calibration hierarchy (Van Calster et al. 2016)."});
+    add({"Calibration level", c.hierarchyLevel,
+         "Level reached on the calibration hierarchy (Van Calster et al. 2016)."},
+        {});
   }
-  if (input.uncertainty && input.uncertainty->bootstrap) {
-    addBootstrapColumn(*input.uncertainty->bootstrap, plan, table);
-  }
+  if (boot) addBootstrapColumn(*boot, bootCells, table);
   blocks.push_back(reportTable(table));
 }
 
