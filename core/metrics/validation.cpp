@@ -15,6 +15,7 @@
 #include "core/metrics/overall_metrics.h"
 #include "core/metrics/risk_histogram.h"
 #include "core/metrics/roc_curve.h"
+#include "core/metrics/size_warnings.h"
 #include "core/metrics/sorted_cohort.h"
 #include "core/metrics/threshold_table.h"
 #include "core/util/errors.h"
@@ -63,17 +64,8 @@ void checkInput(const ValidationInput& input, const ValidationOptions& options) 
 }
 
 void addSampleSizeWarnings(const CohortSummary& cohort, std::vector<std::string>& warnings) {
-  const std::size_t nonEvents = cohort.n - cohort.events;
-  if (cohort.events < 100 || nonEvents < 100) {
-    warnings.push_back("fewer than 100 events or non-events (" + std::to_string(cohort.events) +
-                       " events, " + std::to_string(nonEvents) +
-                       " non-events): estimates are imprecise (Vergouwe et al., J Clin Epidemiol "
-                       "2005)");
-  }
-  if (cohort.events < 200) {
-    warnings.push_back("fewer than 200 events (" + std::to_string(cohort.events) +
-                       "): calibration assessment is imprecise; at least 200 are recommended "
-                       "(Collins, Ogundimu & Altman, Stat Med 2016)");
+  for (std::string& w : sizeWarningTexts(cohort.events, cohort.n - cohort.events)) {
+    warnings.push_back(std::move(w));
   }
 }
 

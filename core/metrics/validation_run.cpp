@@ -10,8 +10,6 @@
 #include "core/util/sha256.h"
 
 namespace calivera {
-namespace {
-
 std::string exclusionWarning(const ExclusionReport& report) {
   std::string text = std::to_string(report.rowsExcluded) + " of " +
                      std::to_string(report.rowsRead) +
@@ -25,6 +23,8 @@ std::string exclusionWarning(const ExclusionReport& report) {
   }
   return text;
 }
+
+namespace {
 
 std::vector<double> riskFromColumn(const Table& table, const std::string& name,
                                    const std::vector<std::uint32_t>& rows) {

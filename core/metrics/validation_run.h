@@ -73,6 +73,10 @@ struct ValidationRun {
   std::string softwareVersion;  // CALIVERA_VERSION
 };
 
+// The one wording of a complete-case exclusion ("k of n rows excluded for a missing value ...");
+// the run's warnings hold it when rows were excluded.
+std::string exclusionWarning(const ExclusionReport& report);
+
 // Complete-case selection, outcome and risks on an already loaded table. Throws InputError for a
 // missing column, a non-numeric risk column or a risk outside [0, 1] (naming file, line, column).
 PreparedCohort prepareCohort(const Table& table, const OutcomeSpec& outcome, const Model* model,

@@ -83,24 +83,10 @@ std::string readHosmerLemeshow(const HosmerLemeshow& hl) {
   return buffer;
 }
 
-std::vector<std::string> sampleSizeWarnings(const CohortSummary& cohort) {
+std::vector<std::string> readingWarnings(const CohortSummary& cohort) {
+  // The sample-size shortfalls themselves are among the validation's own warnings
+  // (core/metrics/size_warnings.h); this adds what only the reading needs.
   std::vector<std::string> out;
-  const std::size_t nonEvents = cohort.n - cohort.events;
-  char buffer[512];
-  if (cohort.events < 100 || nonEvents < 100) {
-    std::snprintf(buffer, sizeof buffer,
-                  "Only %zu events and %zu non-events: below the common minimum of 100 of each "
-                  "for an external validation. Expect wide confidence intervals, and treat the "
-                  "calibration curve as a rough guide.",
-                  cohort.events, nonEvents);
-    out.emplace_back(buffer);
-  } else if (cohort.events < 200) {
-    std::snprintf(buffer, sizeof buffer,
-                  "%zu events: enough for a first look, but 200 or more events are preferred "
-                  "for precise calibration estimates.",
-                  cohort.events);
-    out.emplace_back(buffer);
-  }
   if (cohort.apparent) {
     out.emplace_back(
         "These results are apparent performance on the model's own development data; they are "

@@ -33,7 +33,8 @@ struct HierarchyReading {
 HierarchyReading readCalibrationHierarchy(const Calibration& calibration);
 std::string readDiscrimination(const Discrimination& discrimination);
 std::string readHosmerLemeshow(const HosmerLemeshow& hl);
-// One sentence per concern; empty when the cohort meets the yardsticks.
-std::vector<std::string> sampleSizeWarnings(const CohortSummary& cohort);
+// What the summary adds to the validation's own warnings (which hold the sample-size warnings,
+// core/metrics/size_warnings.h): the note that apparent performance is optimistic.
+std::vector<std::string> readingWarnings(const CohortSummary& cohort);
 
 }  // namespace calivera

@@ -7,6 +7,7 @@
 #include <ctime>
 #include <string_view>
 
+#include "core/metrics/size_warnings.h"
 #include "core/present/caution.h"
 #include "core/present/number_text.h"
 #include "core/present/wording.h"
@@ -389,22 +390,21 @@ std::vector<std::string> reportWarnings(const AuditReportInput& input) {
   const std::size_t nonEvents = cohort.n - cohort.events;
   const std::size_t below = input.settings.suppressBelow;
   const bool hideCounts = below >= 2 && (cohort.events < below || nonEvents < below);
-  if (cohort.events < 100 || nonEvents < 100) {
-    warnings.push_back(
-        hideCounts ? "Sample size: fewer than 100 events or non-events; estimates are imprecise "
-                     "(at least 100 of each, preferably 200 events, are recommended)."
-                   : "Sample size: " + std::to_string(cohort.events) + " events and " +
-                         std::to_string(nonEvents) +
-                         " non-events; at least 100 of each (preferably 200 events or more) are "
-                         "recommended for external validation, so estimates are imprecise.");
-  } else if (cohort.events < 200) {
-    warnings.push_back(
-        "Sample size: fewer than 200 events; intervals are wide for calibration "
-        "(200 or more events are preferred).");
+  // The run's own warnings (below) already hold the sample-size warnings of
+  // core/metrics/size_warnings.h, worded once; with hidden counts they are worded without them.
+  std::vector<std::string> runWarnings = input.result.warnings;
+  if (hideCounts) {
+    for (const SizeWarning w : sizeWarningsFor(cohort.events, nonEvents)) {
+      const std::string shown = sizeWarningText(w, cohort.events, nonEvents, true);
+      for (std::string& text : runWarnings) {
+        if (text == shown) text = sizeWarningText(w, cohort.events, nonEvents, false);
+      }
+    }
   }
   const bool pipelineNamesExclusions =
-      std::any_of(input.result.warnings.begin(), input.result.warnings.end(),
-                  [](const std::string& w) { return w.find("excluded") != std::string::npos; });
+      input.exclusions.rowsExcluded > 0 &&
+      std::find(runWarnings.begin(), runWarnings.end(), exclusionWarning(input.exclusions)) !=
+          runWarnings.end();
   if (input.exclusions.rowsExcluded > 0 && !pipelineNamesExclusions) {
     const std::size_t excluded = input.exclusions.rowsExcluded;
     warnings.push_back(
@@ -414,7 +414,7 @@ std::vector<std::string> reportWarnings(const AuditReportInput& input) {
         "related to the outcome, performance on the analysed rows can differ from the whole "
         "cohort.");
   }
-  for (const std::string& warning : input.result.warnings) {
+  for (const std::string& warning : runWarnings) {
     warnings.push_back(below >= 2 ? suppressSmallNumbersInText(warning, below) : warning);
   }
   return warnings;

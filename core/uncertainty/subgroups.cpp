@@ -5,6 +5,7 @@
 #include <map>
 #include <set>
 
+#include "core/metrics/size_warnings.h"
 #include "core/util/errors.h"
 
 namespace calivera {
@@ -104,14 +105,8 @@ SubgroupAnalysis validateSubgroups(const std::string& column,
     }
     if (input.linearPredictor) subset.linearPredictor = std::move(lp);
     const std::size_t nonEvents = result.n - result.events;
-    if (result.events < 100 || nonEvents < 100) {
-      result.tooSmall = true;
-      result.warnings.push_back("fewer than 100 events or non-events (" +
-                                std::to_string(result.events) + " / " + std::to_string(nonEvents) +
-                                "): too small to judge this subgroup reliably");
-    } else if (result.events < 200) {
-      result.warnings.push_back("fewer than 200 events: the calibration curve is imprecise");
-    }
+    result.tooSmall = result.events < kMinEventsAndNonEvents || nonEvents < kMinEventsAndNonEvents;
+    result.warnings = sizeWarningTexts(result.events, nonEvents);
     try {
       result.metrics = validate(subset, levelOptions);
       if (bootstrapOptions.bootstrap.replicates > 0) {

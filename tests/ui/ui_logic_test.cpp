@@ -7,6 +7,7 @@
 #include <fstream>
 #include <random>
 
+#include "core/metrics/size_warnings.h"
 #include "core/present/readings.h"
 #include "core/study/predictor_space.h"
 #include "core/study/spline_list.h"
@@ -300,11 +301,18 @@ class UiLogicTest : public QObject {
     QVERIFY(readCalibrationHierarchy(c).explanation.find("too high") != std::string::npos);
   }
 
-  void sampleSizeWarnings() {
+  void sizeWarningsAreWordedOnce() {
+    // Each shortfall once, from core/metrics/size_warnings.h; the reading adds only the
+    // apparent-performance note.
+    QCOMPARE(sizeWarningTexts(40, 460).size(), std::size_t{2});
+    QCOMPARE(sizeWarningTexts(150, 4850).size(), std::size_t{1});
+    QVERIFY(sizeWarningTexts(400, 4600).empty());
+    QVERIFY(sizeWarningText(SizeWarning::FewEventsOrNonEvents, 40, 460, false).find("40") ==
+            std::string::npos);
     CohortSummary small{500, 40, 0.08, false};
-    QCOMPARE(::calivera::sampleSizeWarnings(small).size(), std::size_t{1});
-    CohortSummary fine{5000, 400, 0.08, false};
-    QVERIFY(::calivera::sampleSizeWarnings(fine).empty());
+    QVERIFY(readingWarnings(small).empty());
+    CohortSummary apparent{5000, 400, 0.08, true};
+    QCOMPARE(readingWarnings(apparent).size(), std::size_t{1});
   }
 };
 

@@ -150,7 +150,7 @@ QString summaryHtml(const StudyState& study) {
   const ValidationBootstrap* b = (u != nullptr && u->bootstrap) ? &*u->bootstrap : nullptr;
   if (u != nullptr) html += sampleSizeHtml(u->sampleSize);
 
-  std::vector<std::string> warnings = sampleSizeWarnings(r.cohort);
+  std::vector<std::string> warnings = readingWarnings(r.cohort);
   warnings.insert(warnings.end(), study.modelWarnings.begin(), study.modelWarnings.end());
   warnings.insert(warnings.end(), r.warnings.begin(), r.warnings.end());
   if (b != nullptr) {
