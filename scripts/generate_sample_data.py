@@ -193,7 +193,10 @@ text = f'''// SYNTHETIC demo model: the "Ashcombe 30-day Complication Score" and
   }},
   // model variable -> local column, added by Kestrel Bay's analysts: their cohort calls
   // creatinine "creat_umol"
-  "column_mapping": {{"creatinine": "creat_umol"}}
+  "column_mapping": {{"creatinine": "creat_umol"}},
+  // the level of each categorical variable that no indicator term names (scored 0); any other
+  // level in a cohort is then an error instead of being scored as this one
+  "reference_levels": {{"reserve": "robust", "urgency": "elective", "sex": "female"}}
 }}
 '''
 with open("sample_data/published_model.json", "w") as f:

@@ -225,6 +225,9 @@ CohortFit fitCohortModel(const Table& table, const CohortFitSpec& spec) {
       term.level = level;
       model.terms.push_back(term);
     }
+    // Recorded in the model file, so a level the model does not know is refused when it is
+    // validated elsewhere instead of being scored as the reference (category_levels.h).
+    model.referenceLevels[name] = {coding.reference};
     result.codings.push_back(std::move(coding));
   }
 

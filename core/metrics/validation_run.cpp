@@ -4,6 +4,7 @@
 #include <sstream>
 #include <utility>
 
+#include "core/model/category_levels.h"
 #include "core/model/linear_predictor.h"
 #include "core/model/model_io.h"
 #include "core/util/errors.h"
@@ -73,6 +74,9 @@ PreparedCohort prepareCohort(const Table& table, const OutcomeSpec& outcome, con
   }
   prepared.input.outcome = outcomeValues(table, outcome, prepared.rows);
   if (model) {
+    for (std::string& w : checkCategoryLevels(*model, table, prepared.rows)) {
+      prepared.warnings.push_back(std::move(w));
+    }
     std::vector<double> lp = linearPredictor(*model, table, prepared.rows);
     prepared.input.risk.resize(lp.size());
     for (std::size_t i = 0; i < lp.size(); ++i) prepared.input.risk[i] = logisticRisk(lp[i]);

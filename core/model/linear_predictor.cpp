@@ -5,6 +5,7 @@
 #include <cmath>
 #include <sstream>
 
+#include "core/model/category_levels.h"
 #include "core/util/errors.h"
 
 namespace calivera {
@@ -157,6 +158,8 @@ std::vector<std::string> requiredColumns(const Model& model) {
 
 Eigen::MatrixXd designMatrix(const Model& model, const Table& table,
                              const std::vector<std::uint32_t>& rows) {
+  // Unknown category levels are an error before any term is evaluated (category_levels.h).
+  checkCategoryLevels(model, table, rows);
   Eigen::MatrixXd design(static_cast<Eigen::Index>(rows.size()),
                          static_cast<Eigen::Index>(model.terms.size()));
   for (std::size_t j = 0; j < model.terms.size(); ++j) {

@@ -2,11 +2,10 @@
 // Evaluating a Model on a cohort Table: the columns it needs, its design matrix, linear predictor
 // and risks. Column names pass through the model's columnMapping first.
 
+#include <Eigen/Dense>
 #include <cstdint>
 #include <string>
 #include <vector>
-
-#include <Eigen/Dense>
 
 #include "core/data/table.h"
 #include "core/model/model.h"
@@ -16,9 +15,10 @@ namespace calivera {
 // Cohort columns the model reads (after mapping), in first-use order: the complete-case set.
 std::vector<std::string> requiredColumns(const Model& model);
 
-// Throws InputError when a term names a column the cohort lacks, a numeric transformation meets a
-// text column (naming file, line and text), or a log/power term meets a value <= 0 (naming the
-// line). One row per selected row, one column per term (no intercept column).
+// Throws InputError when a term names a column the cohort lacks, a cohort level is unknown to the
+// model (core/model/category_levels.h), a numeric transformation meets a text column (naming file,
+// line and text), or a log/power term meets a value <= 0 (naming the line). One row per selected
+// row, one column per term (no intercept column).
 Eigen::MatrixXd designMatrix(const Model& model, const Table& table,
                              const std::vector<std::uint32_t>& rows);
 

@@ -62,6 +62,11 @@ struct Model {
   DevelopmentRecord development;
   // Model variable name -> local cohort column, for published models whose names differ.
   std::map<std::string, std::string> columnMapping;
+  // Categorical model variable -> its reference level(s): the levels scored 0 by every indicator
+  // term (one for a fitted factor; several for a "level vs the rest" indicator), so that any
+  // other level is an error rather than scored as the reference (core/model/category_levels.h).
+  // Written by `calivera fit`; optional in a model file.
+  std::map<std::string, std::vector<std::string>> referenceLevels;
   // Free-form provenance of updates (which model it updates, on which data, which method).
   std::optional<std::string> provenance;
   // The file readModelFile read this model from, for messages; empty when built in memory.

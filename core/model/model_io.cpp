@@ -337,7 +337,7 @@ Model parseModelJson(const std::string& text, const std::string& sourceName) {
   if (!root.is_object()) file.fail("the model file must hold one JSON object");
   rejectUnknownFields(root,
                       {"format", "name", "outcome", "intercept", "terms", "development",
-                       "column_mapping", "provenance"},
+                       "column_mapping", "reference_levels", "provenance"},
                       file);
   const std::string format = readString(root, "format", file);
   if (format != kModelFormatId) {
@@ -366,6 +366,26 @@ Model parseModelJson(const std::string& text, const std::string& sourceName) {
         file.fail("column_mapping: '" + item.key() + "' must map to a column name");
       }
       model.columnMapping[item.key()] = item.value().get<std::string>();
+    }
+  }
+  if (root.contains("reference_levels")) {
+    const Json& references = requireObject(root["reference_levels"], "reference_levels", file);
+    for (const auto& item : references.items()) {
+      std::vector<std::string>& levels = model.referenceLevels[item.key()];
+      if (item.value().is_string()) {
+        levels.push_back(item.value().get<std::string>());
+        continue;
+      }
+      if (!item.value().is_array() || item.value().empty()) {
+        file.fail("reference_levels: '" + item.key() +
+                  "' must map to a level or a non-empty list of levels (text)");
+      }
+      for (const Json& level : item.value()) {
+        if (!level.is_string()) {
+          file.fail("reference_levels: '" + item.key() + "' lists a level that is not text");
+        }
+        levels.push_back(level.get<std::string>());
+      }
     }
   }
   model.provenance = optionalString(root, "provenance", file);
@@ -401,6 +421,13 @@ std::string modelToJson(const Model& model) {
   if (dev.description) development["description"] = *dev.description;
   if (!development.empty()) root["development"] = development;
   if (!model.columnMapping.empty()) root["column_mapping"] = model.columnMapping;
+  if (!model.referenceLevels.empty()) {
+    Json references = Json::object();
+    for (const auto& [variable, levels] : model.referenceLevels) {
+      references[variable] = levels.size() == 1 ? Json(levels.front()) : Json(levels);
+    }
+    root["reference_levels"] = references;
+  }
   if (model.provenance) root["provenance"] = *model.provenance;
   // nlohmann writes doubles in the shortest form that parses back to the same value.
   return root.dump(2) + "\n";

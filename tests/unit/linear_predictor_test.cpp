@@ -61,6 +61,9 @@ TEST(LinearPredictor, EachTransformationMatchesHandComputation) {
   Term product = term("age x female", "", TransformKind::Product, -0.1);
   product.factors = {age, female};
   model.terms = {age, creat, inverseSquare, powerZero, female, grade2, spline, product};
+  // "grade 2 vs the rest" and "female vs male": the levels scored 0 are declared, as a model file
+  // must for any level that has no indicator term (core/model/category_levels.h).
+  model.referenceLevels = {{"grade", {"1", "3"}}, {"sex", {"male"}}};
 
   const Table table = cohort();
   const std::vector<double> lp = linearPredictor(model, table, allRows(table));
@@ -155,6 +158,7 @@ TEST(LinearPredictor, AbsentLevelGivesZerosAndNonNumericLevelOnNumericColumnFail
   Term unknown = term("sex=other", "sex", TransformKind::Indicator, 1.0);
   unknown.level = "other";
   model.terms = {unknown};
+  model.referenceLevels = {{"sex", {"female", "male"}}};  // "other" is absent from the cohort
   const Table table = cohort();
   EXPECT_EQ(linearPredictor(model, table, allRows(table)), (std::vector<double>{0, 0, 0}));
   Term bad = term("grade=high", "grade", TransformKind::Indicator, 1.0);
