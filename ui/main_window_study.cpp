@@ -103,10 +103,12 @@ void MainWindow::applyPipeline(PipelineOutput& output, const QString& studyPathO
   rebuildViews();
   updateStatus();
   updateActions();
-  if (!output.notes.empty()) {
-    QString text;
-    for (const auto& n : output.notes) text += (text.isEmpty() ? "" : "\n") + toQ(n);
-    showMessage(text, false);
+  QString text;
+  for (const auto& w : output.inputWarnings) text += (text.isEmpty() ? "" : "\n") + toQ(w);
+  if (!text.isEmpty()) text += tr("\nResults are recomputed from the files as they are now.");
+  for (const auto& n : output.notes) text += (text.isEmpty() ? "" : "\n") + toQ(n);
+  if (!text.isEmpty()) {
+    showMessage(text, !output.inputWarnings.empty());
   } else if (study_.result) {
     clearMessage();
   }
@@ -264,26 +266,11 @@ bool MainWindow::openStudy(const QString& path) {
     showMessage(tr("Could not open the study: %1").arg(toQ(e.what())), true);
     return false;
   }
-  QStringList changed;
-  for (const InputCheck& c : checkInputs(candidate)) {
-    changed << tr("The %1 %2 is %3.").arg(toQ(c.role), toQ(c.path), toQ(c.problem));
-  }
   PipelineRequest request;
   request.study = candidate;
-  request.withUncertainty = true;  // recompute what the study's uncertainty settings ask for
-  const bool started = startPipeline(request, tr("Opening study"), path);
-  if (started && !changed.isEmpty()) {
-    // Shown after the run so the pipeline's own notes do not hide it.
-    const QString warning =
-        changed.join('\n') + tr("\nResults are recomputed from the files as they are now.");
-    connect(
-        job_, &BackgroundJob::finished, this,
-        [this, warning]() {
-          showMessage(warning + (messageText().isEmpty() ? QString() : "\n" + messageText()), true);
-        },
-        Qt::SingleShotConnection);
-  }
-  return started;
+  request.withUncertainty = true;      // recompute what the study's uncertainty settings ask for
+  request.checkRecordedInputs = true;  // hashed on the worker, reported with the results
+  return startPipeline(request, tr("Opening study"), path);
 }
 
 bool MainWindow::saveStudy(const QString& path) {

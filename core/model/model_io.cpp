@@ -9,6 +9,8 @@
 
 #include "core/util/atomic_file.h"
 #include "core/util/errors.h"
+#include "core/util/input_file.h"
+#include "core/util/strict_json.h"
 
 namespace calivera {
 namespace {
@@ -325,15 +327,8 @@ Json transformedJson(const Term& term, bool isFactor) {
 
 Model parseModelJson(const std::string& text, const std::string& sourceName) {
   const Context file{sourceName, ""};
-  Json root;
-  try {
-    root = Json::parse(text, nullptr, true, /*ignore_comments=*/true);
-  } catch (const Json::parse_error& error) {
-    file.fail("malformed JSON at byte " + std::to_string(error.byte) + " (" + error.what() + ")");
-  } catch (const Json::out_of_range& error) {
-    // A number beyond the double range (1e999): the only way JSON can spell a non-finite value.
-    file.fail(std::string("a number is not finite (") + error.what() + ")");
-  }
+  // Duplicate keys and deep nesting are refused here (core/util/strict_json.h).
+  const Json root = parseStrictJson(text, sourceName, /*allowComments=*/true);
   if (!root.is_object()) file.fail("the model file must hold one JSON object");
   rejectUnknownFields(root,
                       {"format", "name", "outcome", "intercept", "terms", "development",
@@ -393,12 +388,7 @@ Model parseModelJson(const std::string& text, const std::string& sourceName) {
 }
 
 Model readModelFile(const std::string& path) {
-  std::ifstream in(path, std::ios::binary);
-  if (!in) throw InputError(path + ": cannot open the model file");
-  std::ostringstream buffer;
-  buffer << in.rdbuf();
-  if (in.bad()) throw InputError(path + ": read failed");
-  Model model = parseModelJson(buffer.str(), path);
+  Model model = parseModelJson(readSmallFile(path, "model file", kMaxModelFileBytes), path);
   model.sourcePath = path;
   return model;
 }

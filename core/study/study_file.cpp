@@ -8,7 +8,9 @@
 #include "core/model/model_io.h"
 #include "core/util/atomic_file.h"
 #include "core/util/errors.h"
+#include "core/util/input_file.h"
 #include "core/util/sha256.h"
+#include "core/util/strict_json.h"
 
 namespace calivera {
 
@@ -135,12 +137,8 @@ std::string studyToJson(const StudyState& study, const std::string& studyPath) {
 }
 
 StudyState parseStudyJson(const std::string& text, const std::string& studyPath) {
-  json j;
-  try {
-    j = json::parse(text);
-  } catch (const json::parse_error& e) {
-    throw InputError(studyPath + ": not valid JSON (byte " + std::to_string(e.byte) + ")");
-  }
+  // Duplicate keys and deep nesting are refused here (core/util/strict_json.h).
+  const json j = parseStrictJson(text, studyPath, /*allowComments=*/false);
   const Reader in(studyPath);
   if (!j.is_object()) in.fail("(top level)", "expected an object");
   if (in.get<std::string>(j, "format", "format", "") != kStudyFormatId) {
@@ -242,11 +240,7 @@ void writeStudyFile(const std::string& path, const StudyState& study) {
 }
 
 StudyState readStudyFile(const std::string& path) {
-  std::ifstream in(path, std::ios::binary);
-  if (!in) throw InputError(path + ": cannot open the study file");
-  std::ostringstream text;
-  text << in.rdbuf();
-  return parseStudyJson(text.str(), path);
+  return parseStudyJson(readSmallFile(path, "study file", kMaxStudyFileBytes), path);
 }
 
 std::vector<InputCheck> checkInputs(const StudyState& study) {

@@ -3,6 +3,7 @@
 #include <filesystem>
 
 #include "core/model/model_io.h"
+#include "core/study/study_file.h"
 #include "core/study/study_uncertainty.h"
 #include "core/util/errors.h"
 #include "core/util/sha256.h"
@@ -36,6 +37,11 @@ PipelineOutput runPipeline(const PipelineRequest& request, const ProgressCallbac
   s.uncertainty.reset();
   reportProgress(progress, 0.0);
 
+  if (request.checkRecordedInputs) {
+    for (const InputCheck& c : checkInputs(s)) {
+      out.inputWarnings.push_back("The " + c.role + " " + c.path + " is " + c.problem + ".");
+    }
+  }
   if (!s.data) throw InputError("no cohort file is chosen");
   if (request.table && request.table->sourceName == s.data->path) {
     out.table = request.table;

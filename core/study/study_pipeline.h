@@ -23,6 +23,9 @@ struct PipelineRequest {
   // reopening a study. Otherwise uncertainty results are kept when the validation basis is
   // unchanged and replaced by the sample-size assessment alone when it changed.
   bool withUncertainty = false;
+  // Compare each input's SHA-256 with the one the study recorded (a reopened study), here on the
+  // worker thread: hashing a large cohort must never hold up the interface.
+  bool checkRecordedInputs = false;
 };
 
 struct PipelineOutput {
@@ -31,6 +34,8 @@ struct PipelineOutput {
   std::shared_ptr<const CohortData> cohort;    // null when no validation could run yet
   std::vector<std::string> unmappedVariables;  // model variables the cohort lacks
   std::vector<std::string> notes;  // why no validation ran, why no uncertainty analysis ran
+  // Inputs missing or changed since the study was saved (checkRecordedInputs), one sentence each.
+  std::vector<std::string> inputWarnings;
 };
 
 PipelineOutput runPipeline(const PipelineRequest& request, const ProgressCallback& progress);

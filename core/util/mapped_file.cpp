@@ -11,6 +11,7 @@
 #include <cstring>
 
 #include "core/util/errors.h"
+#include "core/util/input_file.h"
 
 namespace calivera {
 namespace {
@@ -33,7 +34,9 @@ class Descriptor {
 }  // namespace
 
 MappedFile::MappedFile(const std::string& path) {
-  const Descriptor fd(::open(path.c_str(), O_RDONLY | O_CLOEXEC));
+  // Checked before open(): opening a FIFO without a writer would block for good.
+  requireRegularFile(path, "input file");
+  const Descriptor fd(::open(path.c_str(), O_RDONLY | O_CLOEXEC | O_NONBLOCK));
   if (fd.get() < 0) throw InputError(path + ": cannot open (" + std::strerror(errno) + ")");
   struct stat info {};
   if (::fstat(fd.get(), &info) != 0) {

@@ -10,6 +10,7 @@
 #include <vector>
 
 #include "core/util/errors.h"
+#include "core/util/input_file.h"
 
 namespace calivera {
 namespace {
@@ -47,6 +48,7 @@ std::string sha256OfBytes(std::string_view bytes) {
 }
 
 std::string sha256OfFile(const std::string& path) {
+  requireRegularFile(path, "input file");  // a FIFO or /dev/zero would never end
   std::ifstream in(path, std::ios::binary);
   if (!in) throw InputError(path + ": cannot open (" + std::strerror(errno) + ")");
   DigestContext context = newContext();

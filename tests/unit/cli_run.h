@@ -34,12 +34,15 @@ inline std::string readWhole(const std::filesystem::path& path) {
   return buffer.str();
 }
 
-inline CliRun runCalivera(const std::vector<std::string>& words) {
+// `seconds` > 0 runs it under timeout(1): a test of input that once hung ends with status 124
+// instead of holding up the whole suite.
+inline CliRun runCalivera(const std::vector<std::string>& words, int seconds = 0) {
   static int counter = 0;
   const auto dir = std::filesystem::temp_directory_path();
   const auto errPath =
       dir / ("calivera_cli_err_" + std::to_string(::getpid()) + "_" + std::to_string(counter++));
-  std::string command = shellQuote(CALIVERA_BINARY);
+  std::string command = (seconds > 0 ? "timeout " + std::to_string(seconds) + " " : std::string()) +
+                        shellQuote(CALIVERA_BINARY);
   for (const std::string& word : words) command += " " + shellQuote(word);
   command += " 2>" + shellQuote(errPath.string());
   CliRun run;

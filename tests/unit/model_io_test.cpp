@@ -168,7 +168,7 @@ TEST(ModelIo, CommentsAreAllowed) {
 
 TEST(ModelIo, MalformedJsonGivesTheBytePosition) {
   const std::string message = errorOf(R"({"format": "calivera-model/1", "name": })");
-  EXPECT_NE(message.find("m.json: malformed JSON at byte 40"), std::string::npos) << message;
+  EXPECT_NE(message.find("m.json: not valid JSON: malformed at byte 40"), std::string::npos) << message;
 }
 
 TEST(ModelIo, ErrorsNameFileTermAndField) {

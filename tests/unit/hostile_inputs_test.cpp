@@ -1,0 +1,79 @@
+// Hostile and faulty inputs (issue 11): special files refused at once, duplicate keys and deep
+// nesting in model and study files refused with the file and the key named, exit status 2 and no
+// output file. Every run has a time limit, so a regression that hangs fails instead of stalling.
+#include <gtest/gtest.h>
+#include <sys/stat.h>
+
+#include <filesystem>
+#include <string>
+
+#include "tests/unit/birthwt_run.h"
+#include "tests/unit/cli_run.h"
+
+namespace calivera {
+namespace {
+
+using testing::CliRun;
+using testing::runCalivera;
+using testing::TempDir;
+
+constexpr int kLimitSeconds = 20;
+
+class HostileInputs : public ::testing::Test {
+ protected:
+  void SetUp() override {
+    testing::writeBirthwtModel(dir_.file("m.json"), {"age", "lwt"}, "two terms");
+  }
+  CliRun validate(const std::string& data, const std::string& model) {
+    return runCalivera({"validate", "--data", data, "--outcome", "low", "--model", model, "--json",
+                        dir_.file("out.json")},
+                       kLimitSeconds);
+  }
+  void expectRefused(const CliRun& run, const std::string& part) {
+    EXPECT_EQ(run.status, 2) << run.err;
+    EXPECT_NE(run.err.find(part), std::string::npos) << run.err;
+    EXPECT_FALSE(std::filesystem::exists(dir_.file("out.json")));
+  }
+  TempDir dir_{"hostile"};
+};
+
+TEST_F(HostileInputs, FifoAndDevicesAreRefusedAtOnce) {
+  const std::string fifo = dir_.file("cohort.fifo");
+  ASSERT_EQ(::mkfifo(fifo.c_str(), 0600), 0);
+  expectRefused(validate(fifo, dir_.file("m.json")), "is a FIFO (named pipe), not a regular file");
+  expectRefused(validate(testing::birthwtPath(), "/dev/zero"),
+                "/dev/zero: the model file is a character device");
+  expectRefused(validate(dir_.file(""), dir_.file("m.json")), "is a directory");
+  const CliRun compare =
+      runCalivera({"validate", "--data", testing::birthwtPath(), "--outcome", "low", "--model",
+                   dir_.file("m.json"), "--compare", "/dev/zero", "--json", dir_.file("out.json")},
+                  kLimitSeconds);
+  expectRefused(compare, "/dev/zero");
+  const CliRun study = runCalivera({"run", fifo}, kLimitSeconds);
+  EXPECT_EQ(study.status, 2) << study.err;
+}
+
+TEST_F(HostileInputs, DuplicateKeysAndDeepNestingInAModelFileAreRefused) {
+  const std::string duplicate =
+      dir_.write("dup.json",
+                 R"({"format": "calivera-model/1", "name": "m", "outcome": "low",
+          "intercept": {"coefficient": 1.0, "coefficient": 2.0}, "terms": []})");
+  expectRefused(validate(testing::birthwtPath(), duplicate),
+                "dup.json: the key 'coefficient' appears twice in one object");
+  std::string deep = R"({"format": "calivera-model/1", "name": "m", "outcome": "low", "x": )";
+  for (int i = 0; i < 5000; ++i) deep += "[";
+  for (int i = 0; i < 5000; ++i) deep += "]";
+  deep += "}";
+  expectRefused(validate(testing::birthwtPath(), dir_.write("deep.json", deep)),
+                "deep.json: nested deeper than 64 levels");
+}
+
+TEST_F(HostileInputs, DuplicateKeyInAStudyFileIsRefused) {
+  const std::string study =
+      dir_.write("dup.cvstudy", R"({"format": "calivera-study/1", "format": "calivera-study/1"})");
+  const CliRun run = runCalivera({"run", study, "--json", dir_.file("out.json")}, kLimitSeconds);
+  expectRefused(run, "dup.cvstudy: the key 'format' appears twice in one object");
+}
+
+}  // namespace
+}  // namespace calivera
