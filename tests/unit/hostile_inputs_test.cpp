@@ -7,6 +7,7 @@
 #include <filesystem>
 #include <string>
 
+#include "core/report/csv_text.h"
 #include "tests/unit/birthwt_run.h"
 #include "tests/unit/cli_run.h"
 
@@ -73,6 +74,43 @@ TEST_F(HostileInputs, DuplicateKeyInAStudyFileIsRefused) {
       dir_.write("dup.cvstudy", R"({"format": "calivera-study/1", "format": "calivera-study/1"})");
   const CliRun run = runCalivera({"run", study, "--json", dir_.file("out.json")}, kLimitSeconds);
   expectRefused(run, "dup.cvstudy: the key 'format' appears twice in one object");
+}
+
+// Formula injection: a level or model name starting with =, +, -, @ reaches a spreadsheet as text
+// (leading apostrophe, quoted), while numbers, negative ones included, stay numbers.
+TEST(CsvCells, FormulasAreNeutralisedNumbersAreNot) {
+  EXPECT_EQ(csvCell("=HYPERLINK(\"x\")"), "\"'=HYPERLINK(\"\"x\"\")\"");
+  EXPECT_EQ(csvCell("@SUM(A1)"), "\"'@SUM(A1)\"");
+  EXPECT_EQ(csvCell("+cmd"), "\"'+cmd\"");
+  EXPECT_EQ(csvCell("-2+3"), "\"'-2+3\"");
+  EXPECT_EQ(csvCell("\tx"), "\"'\tx\"");
+  EXPECT_EQ(csvCell("-0.41"), "-0.41");
+  EXPECT_EQ(csvCell("+1e-5"), "+1e-5");
+  EXPECT_EQ(csvCell("plain"), "plain");
+  EXPECT_EQ(csvCell("a,b"), "\"a,b\"");
+  EXPECT_EQ(csvCell("=x", false), "'=x");
+  CsvText csv({"level", "value"});
+  csv.field("=1+1").num(-0.25).end();
+  EXPECT_EQ(csv.str(), "level,value\n\"'=1+1\",-0.25\n");
+}
+
+// A subgroup level named like a formula reaches --csv-dir neutralised.
+TEST_F(HostileInputs, SubgroupLevelNamedLikeAFormulaIsNeutralisedInCsv) {
+  std::string text = testing::readWhole(testing::birthwtPath());
+  for (std::size_t at = text.find(",white,"); at != std::string::npos;
+       at = text.find(",white,", at)) {
+    text.replace(at, 7, ",=cmd(),");
+  }
+  const std::string data = dir_.write("formula.csv", text);
+  testing::writeBirthwtModel(dir_.file("m2.json"), {"age", "lwt"}, "two terms");
+  const CliRun run =
+      runCalivera({"validate", "--data", data, "--outcome", "low", "--model", dir_.file("m2.json"),
+                   "--subgroup", "race", "--csv-dir", dir_.file("tables")},
+                  kLimitSeconds);
+  ASSERT_EQ(run.status, 0) << run.err;
+  const std::string csv = testing::readWhole(dir_.file("tables") + "/subgroups.csv");
+  EXPECT_NE(csv.find("\"'=cmd()\""), std::string::npos) << csv;
+  EXPECT_EQ(csv.find(",=cmd()"), std::string::npos) << csv;
 }
 
 }  // namespace

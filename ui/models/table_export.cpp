@@ -3,25 +3,26 @@
 #include <QAbstractItemModel>
 #include <QSaveFile>
 
+#include "core/report/csv_text.h"
+
 namespace calivera::ui {
 
 namespace {
 
-QString csvField(QString text) {
-  if (text.contains(QLatin1Char(',')) || text.contains(QLatin1Char('"')) ||
-      text.contains(QLatin1Char('\n')) || text.contains(QLatin1Char('\r'))) {
-    text.replace(QStringLiteral("\""), QStringLiteral("\"\""));
-    return QStringLiteral("\"") + text + QStringLiteral("\"");
-  }
-  return text;
+// The one cell rule of core (quoting and formula neutralisation, core/report/csv_text.h).
+QString csvField(const QString& text) {
+  return QString::fromStdString(csvCell(text.toStdString()));
+}
+
+QString tsvField(const QString& text, QChar separator) {
+  return QString::fromStdString(
+      csvCell(QString(text).replace(separator, ' ').toStdString(), false));
 }
 
 QString joined(const QAbstractItemModel& model, const std::vector<int>& rows, QChar separator,
                bool quote) {
   QString out;
-  auto field = [&](const QString& s) {
-    return quote ? csvField(s) : QString(s).replace(separator, ' ');
-  };
+  auto field = [&](const QString& s) { return quote ? csvField(s) : tsvField(s, separator); };
   const int columns = model.columnCount();
   for (int c = 0; c < columns; ++c) {
     if (c > 0) out += separator;
