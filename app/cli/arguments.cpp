@@ -70,8 +70,8 @@ std::vector<std::string> splitList(const std::string& text, const std::string& o
   std::size_t start = 0;
   while (true) {
     const std::size_t comma = text.find(',', start);
-    const std::string item = text.substr(start, comma == std::string::npos ? std::string::npos
-                                                                           : comma - start);
+    const std::string item =
+        text.substr(start, comma == std::string::npos ? std::string::npos : comma - start);
     if (item.empty()) throw InputError(option + ": empty item in list '" + text + "'");
     items.push_back(item);
     if (comma == std::string::npos) break;

@@ -15,6 +15,7 @@
 #include "core/uncertainty/uncertainty_json.h"
 #include "core/util/atomic_file.h"
 #include "core/util/errors.h"
+#include "core/util/output_transaction.h"
 
 namespace calivera::cli {
 namespace {
@@ -69,6 +70,13 @@ int runInternalCommand(const std::vector<std::string>& words) {
   options.includeIci = !args.has("--no-ici");
 
   const std::string modelPath = args.required("--model");
+  {
+    std::vector<std::pair<std::string, std::string>> outputs;
+    if (const auto s = args.value("--shrunk-out")) outputs.emplace_back("--shrunk-out", *s);
+    if (const auto j = args.value("--json")) outputs.emplace_back("--json", *j);
+    refuseOverwritingInputs(outputs,
+                            {{"model file", modelPath}, {"cohort file", args.required("--data")}});
+  }
   const Model model = readModelFile(modelPath);
   LocalCohort cohort = loadLocalCohort(args, model);
   options.fit.firth = args.has("--firth");

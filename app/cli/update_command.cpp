@@ -14,6 +14,7 @@
 #include "core/uncertainty/uncertainty_json.h"
 #include "core/util/atomic_file.h"
 #include "core/util/errors.h"
+#include "core/util/output_transaction.h"
 
 namespace calivera::cli {
 namespace {
@@ -53,6 +54,12 @@ int runUpdateCommand(const std::vector<std::string>& words) {
       args.value("--alpha") ? parseNumber(*args.value("--alpha"), "--alpha") : 0.05;
   if (!(alpha > 0.0 && alpha < 1.0)) throw InputError("--alpha: must lie between 0 and 1");
   const std::string modelPath = args.required("--model");
+  {
+    std::vector<std::pair<std::string, std::string>> outputs{{"--out", out}};
+    if (const auto j = args.value("--json")) outputs.emplace_back("--json", *j);
+    refuseOverwritingInputs(outputs,
+                            {{"model file", modelPath}, {"cohort file", args.required("--data")}});
+  }
   const Model model = readModelFile(modelPath);
   LocalCohort cohort = loadLocalCohort(args, model);
 

@@ -5,6 +5,7 @@
 // The analysis is core's runValidation(); this file only parses options and writes outputs.
 #include "app/cli/validate_command.h"
 
+#include <filesystem>
 #include <iostream>
 #include <sstream>
 
@@ -20,6 +21,7 @@
 #include "core/study/reproduce_command.h"
 #include "core/util/atomic_file.h"
 #include "core/util/errors.h"
+#include "core/util/output_transaction.h"
 #ifdef CALIVERA_HAVE_PDF
 #include "render/report/audit_pdf_writer.h"
 #endif
@@ -181,6 +183,19 @@ int executeValidation(const ValidationRequest& request, const UncertaintyRequest
     throw InputError("--pdf: this build has no PDF report (built without the UI)");
   }
 #endif
+  // No output may overwrite an input (the cohort, the model, a compared model), nor another
+  // output; checked before any work is done.
+  std::vector<std::pair<std::string, std::string>> outputPaths;
+  if (outputs.jsonPath) outputPaths.emplace_back("--json", *outputs.jsonPath);
+  if (outputs.pdfPath) outputPaths.emplace_back("--pdf", *outputs.pdfPath);
+  if (outputs.csvDir) outputPaths.emplace_back("--csv-dir", *outputs.csvDir);
+  std::vector<std::pair<std::string, std::string>> inputPaths{{"cohort file", request.dataPath}};
+  if (request.modelPath && !request.model)
+    inputPaths.emplace_back("model file", *request.modelPath);
+  for (const std::string& m : uncertaintyWanted.compareModelPaths) {
+    inputPaths.emplace_back("compared model file", m);
+  }
+  refuseOverwritingInputs(outputPaths, inputPaths);
   // The line that reproduces this run, from the request as given (before the run fills it in).
   const std::string reproduce =
       reproduceLine.empty()
@@ -202,13 +217,20 @@ int executeValidation(const ValidationRequest& request, const UncertaintyRequest
     pdf = report::renderAuditReportPdf(input, paper);
   }
 #endif
-  if (outputs.csvDir) writeValidationTables(*outputs.csvDir, run, uncertainty);
+  // Every file of the run, all or none (core/util/output_transaction.h); the JSON last.
+  OutputTransaction files;
 #ifdef CALIVERA_HAVE_PDF
-  if (outputs.pdfPath) writeFileAtomically(*outputs.pdfPath, pdf);
+  if (outputs.pdfPath) files.add(*outputs.pdfPath, std::move(pdf));
 #endif
-  if (outputs.jsonPath) {
-    writeFileAtomically(*outputs.jsonPath, jsonText);
-  } else {
+  if (outputs.csvDir) {
+    for (auto& [name, text] : allValidationTables(run, uncertainty)) {
+      files.add((std::filesystem::path(*outputs.csvDir) / name).string(), std::move(text),
+                /*createFolder=*/true);
+    }
+  }
+  if (outputs.jsonPath) files.add(*outputs.jsonPath, jsonText);
+  files.commit();
+  if (!outputs.jsonPath) {
     printSampleSizeSummary(std::cout, uncertainty);  // uncertainty: adequacy before results
     std::ostringstream beforeCaution;
     printUncertaintySummary(beforeCaution, uncertainty);

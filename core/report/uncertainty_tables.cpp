@@ -162,11 +162,16 @@ std::vector<std::pair<std::string, std::string>> uncertaintyTables(
   return tables;
 }
 
-void writeValidationTables(const std::string& directory, const ValidationRun& run,
-                           const UncertaintyResults& results) {
+std::vector<std::pair<std::string, std::string>> allValidationTables(
+    const ValidationRun& run, const UncertaintyResults& results) {
   std::vector<std::pair<std::string, std::string>> tables = validationTables(run);
   for (auto& table : uncertaintyTables(results)) tables.push_back(std::move(table));
-  writeTables(directory, tables);
+  return tables;
+}
+
+void writeValidationTables(const std::string& directory, const ValidationRun& run,
+                           const UncertaintyResults& results) {
+  writeTables(directory, allValidationTables(run, results));
 }
 
 }  // namespace calivera

@@ -37,6 +37,10 @@ namespace calivera {
 std::vector<std::pair<std::string, std::string>> uncertaintyTables(
     const UncertaintyResults& results);
 
+// (file name, CSV text) of the validation tables and then the uncertainty tables.
+std::vector<std::pair<std::string, std::string>> allValidationTables(
+    const ValidationRun& run, const UncertaintyResults& results);
+
 // The validation tables and the uncertainty tables, all or none (see writeTables).
 void writeValidationTables(const std::string& directory, const ValidationRun& run,
                            const UncertaintyResults& results);

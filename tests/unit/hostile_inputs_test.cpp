@@ -76,6 +76,55 @@ TEST_F(HostileInputs, DuplicateKeyInAStudyFileIsRefused) {
   expectRefused(run, "dup.cvstudy: the key 'format' appears twice in one object");
 }
 
+// An output equal to an input is refused before anything runs: the cohort and the model stay as
+// they were (they used to be overwritten by --json and update --out).
+TEST_F(HostileInputs, OutputsNeverOverwriteInputs) {
+  const std::string data = dir_.write("cohort.csv", testing::readWhole(testing::birthwtPath()));
+  const std::string before = testing::readWhole(data);
+  const CliRun json = runCalivera({"validate", "--data", data, "--outcome", "low", "--model",
+                                   dir_.file("m.json"), "--json", data},
+                                  kLimitSeconds);
+  EXPECT_EQ(json.status, 2);
+  EXPECT_NE(json.err.find("must not overwrite an input"), std::string::npos) << json.err;
+  EXPECT_EQ(testing::readWhole(data), before);
+  const std::string model = testing::readWhole(dir_.file("m.json"));
+  const CliRun update =
+      runCalivera({"update", "--data", data, "--outcome", "low", "--model", dir_.file("m.json"),
+                   "--method", "intercept", "--out", dir_.file("./m.json")},
+                  kLimitSeconds);
+  EXPECT_EQ(update.status, 2);
+  EXPECT_EQ(testing::readWhole(dir_.file("m.json")), model);
+  const CliRun same =
+      runCalivera({"validate", "--data", data, "--outcome", "low", "--model", dir_.file("m.json"),
+                   "--json", dir_.file("r.pdf"), "--pdf", dir_.file("r.pdf")},
+                  kLimitSeconds);
+  EXPECT_EQ(same.status, 2);
+  EXPECT_NE(same.err.find("name the same file"), std::string::npos) << same.err;
+}
+
+// Outputs are all or none: when the last output cannot be written, the earlier ones of the same
+// run do not appear and an earlier --csv-dir result is left exactly as it was.
+TEST_F(HostileInputs, AFailedOutputLeavesNoOtherOutputAndKeepsEarlierTables) {
+  const std::vector<std::string> base{"validate",          "--data",    testing::birthwtPath(),
+                                      "--outcome",         "low",       "--model",
+                                      dir_.file("m.json"), "--csv-dir", dir_.file("tables")};
+  ASSERT_EQ(runCalivera(base, kLimitSeconds).status, 0);
+  const std::string earlier = testing::readWhole(dir_.file("tables") + "/thresholds.csv");
+  ASSERT_FALSE(earlier.empty());
+  // A JSON path under a regular file cannot be created: the run fails on its last output, after
+  // its tables (with other groups, so other contents) were already rendered.
+  dir_.write("blocker", "x");
+  std::vector<std::string> failing = base;
+  failing.insert(failing.end(), {"--groups", "5", "--json", dir_.file("blocker/out.json")});
+  const CliRun run = runCalivera(failing, kLimitSeconds);
+  EXPECT_EQ(run.status, 2) << run.err;
+  EXPECT_NE(run.err.find("blocker"), std::string::npos) << run.err;
+  EXPECT_EQ(testing::readWhole(dir_.file("tables") + "/thresholds.csv"), earlier);
+  for (const auto& entry : std::filesystem::directory_iterator(dir_.file("tables"))) {
+    EXPECT_EQ(entry.path().filename().string().find(".tmp-"), std::string::npos) << entry.path();
+  }
+}
+
 // Formula injection: a level or model name starting with =, +, -, @ reaches a spreadsheet as text
 // (leading apostrophe, quoted), while numbers, negative ones included, stay numbers.
 TEST(CsvCells, FormulasAreNeutralisedNumbersAreNot) {
