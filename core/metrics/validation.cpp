@@ -4,6 +4,7 @@
 
 #include <algorithm>
 #include <cmath>
+#include <limits>
 #include <sstream>
 
 #include "core/metrics/auc_delong.h"
@@ -161,7 +162,15 @@ ValidationResult validate(const ValidationInput& input, const ValidationOptions&
   r.discrimination.aucCi = auc.ciLogit;
   r.discrimination.aucCiPlain = auc.ciPlain;
   if (auc.varianceIncomplete) {
-    r.warnings.push_back("a single event or non-event: the DeLong SE omits its variance term");
+    // With one event (or non-event) the DeLong variance lacks a term it cannot estimate: the
+    // interval would look like evidence it is not, so there is none ("not defined").
+    constexpr double kNaN = std::numeric_limits<double>::quiet_NaN();
+    r.discrimination.aucSe = kNaN;
+    r.discrimination.aucCi = Interval{kNaN, kNaN};
+    r.discrimination.aucCiPlain = Interval{kNaN, kNaN};
+    r.warnings.push_back(
+        "AUC interval not estimable: with a single event or a single non-event the DeLong "
+        "variance cannot be estimated, so no standard error or 95% CI is given");
   }
   r.discrimination.discriminationSlope = discriminationSlope(risk, y);
   r.discrimination.roc = thinRocCurve(rocCurve(sorted), options.rocMaxPoints);

@@ -54,7 +54,7 @@ json calibrationJson(const Calibration& c) {
           {"slope_model_intercept", jsonNumber(c.slopeModelIntercept)},
           {"oe_ratio", jsonNumber(c.oeRatio)},
           {"oe_ci", jsonInterval(c.oeCi)},
-          {"oe_ci_method", "exp(ln(O/E) +/- 1.96 sqrt(1/O))"},
+          {"oe_ci_method", "exp(ln(O/E) +/- z sqrt(1/O)), z = 1.959964 (standard normal 0.975 quantile)"},
           {"spiegelhalter_z", jsonNumber(c.spiegelhalterZ)},
           {"spiegelhalter_p", jsonNumber(c.spiegelhalterP)},
           {"ici", jsonNumber(c.ici)},

@@ -153,7 +153,7 @@ SampleSizeAssessment assessSampleSize(const std::vector<double>& outcome,
     c.targetCiWidth = width;
     c.targetSe = se;
     c.requiredN = roundUp(n);
-    c.requiredEvents = std::isfinite(c.requiredN) ? std::round(c.requiredN * phi) : kNaN;
+    c.requiredEvents = std::isfinite(c.requiredN) ? roundUp(c.requiredN * phi) : kNaN;
     c.achievedCiWidth = achievedWidth;
     c.met = std::isfinite(c.requiredN) && static_cast<double>(a.n) >= c.requiredN;
     c.note = std::move(note);

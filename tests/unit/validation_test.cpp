@@ -244,3 +244,29 @@ TEST(LoessCalibration, BlockMomentFitsEqualDirectLocalFits) {
 
 }  // namespace
 }  // namespace calivera
+
+namespace calivera {
+namespace {
+
+// One event (issue 11): the AUC's DeLong variance cannot be estimated, so no SE and no interval
+// are reported, and a warning says why (the point estimate, a proportion of ordered pairs, stays).
+TEST(Validate, OneEventGivesNoAucInterval) {
+  ValidationInput in;
+  for (int i = 0; i < 40; ++i) {
+    in.risk.push_back(0.01 + 0.02 * i);
+    in.outcome.push_back(i == 30 ? 1.0 : 0.0);
+  }
+  ValidationOptions options;
+  options.thresholds = {0.1, 0.5};
+  const ValidationResult r = validate(in, options);
+  EXPECT_DOUBLE_EQ(r.discrimination.auc, 30.0 / 39.0);  // 30 of the 39 non-events rank lower
+  EXPECT_TRUE(std::isnan(r.discrimination.aucSe));
+  EXPECT_TRUE(std::isnan(r.discrimination.aucCi.lo) && std::isnan(r.discrimination.aucCi.hi));
+  EXPECT_TRUE(std::isnan(r.discrimination.aucCiPlain.lo));
+  bool said = false;
+  for (const std::string& w : r.warnings) said = said || w.find("AUC interval not estimable") == 0;
+  EXPECT_TRUE(said);
+}
+
+}  // namespace
+}  // namespace calivera
