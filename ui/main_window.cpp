@@ -23,6 +23,7 @@
 #include <QToolBar>
 #include <QVBoxLayout>
 
+#include "core/study/limits.h"
 #include "ui/async/background_job.h"
 #include "ui/dialogs/reproduce_dialog.h"
 #include "ui/models/record_table_model.h"
@@ -269,7 +270,7 @@ void MainWindow::buildToolBar() {
   groupsLabel->setObjectName(QStringLiteral("groupsLabel"));
   groups_ = new QSpinBox;
   groups_->setObjectName(QStringLiteral("groupsSpin"));
-  groups_->setRange(2, 50);
+  groups_->setRange(static_cast<int>(kGroupsLimit.min), static_cast<int>(kGroupsLimit.max));
   groups_->setValue(study_.analysis.groups);
   groups_->setToolTip(tr("Number of risk groups for the calibration table and Hosmer-Lemeshow"));
   connect(groups_, &QSpinBox::valueChanged, this, [this](int g) { study_.analysis.groups = g; });

@@ -18,6 +18,7 @@
 #include "core/report/validation_json.h"
 #include "core/report/validation_summary.h"
 #include "core/report/validation_tables.h"
+#include "core/study/limits.h"
 #include "core/study/reproduce_command.h"
 #include "core/util/atomic_file.h"
 #include "core/util/errors.h"
@@ -125,8 +126,10 @@ ValidateOutputs validateOutputsFrom(const Arguments& arguments) {
   }
   if (const auto n = arguments.value("--suppress-below")) {
     const long long below = parseInteger(*n, "--suppress-below");
-    if (below < 2 || below > 1000) {
-      throw InputError("--suppress-below: must be between 2 and 1000");
+    if (below < kSuppressBelowLimit.min || below > kSuppressBelowLimit.max) {
+      throw InputError("--suppress-below: must be between " +
+                       std::to_string(kSuppressBelowLimit.min) + " and " +
+                       std::to_string(kSuppressBelowLimit.max));
     }
     out.suppressBelow = static_cast<std::size_t>(below);
   }
@@ -160,7 +163,10 @@ ValidationRequest validationRequestFrom(const Arguments& arguments) {
   request.developmentData = arguments.has("--development-data");
   if (const auto g = arguments.value("--groups")) {
     const long long groups = parseInteger(*g, "--groups");
-    if (groups < 2 || groups > 1000) throw InputError("--groups: must be between 2 and 1000");
+    if (groups < kGroupsLimit.min || groups > kGroupsLimit.max) {
+      throw InputError("--groups: must be between " + std::to_string(kGroupsLimit.min) + " and " +
+                       std::to_string(kGroupsLimit.max));
+    }
     request.options.groups = static_cast<int>(groups);
   }
   if (const auto t = arguments.value("--thresholds")) {

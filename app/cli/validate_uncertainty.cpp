@@ -8,6 +8,7 @@
 #include "core/present/number_text.h"
 #include "core/present/wording.h"
 #include "core/report/validation_json.h"
+#include "core/study/limits.h"
 #include "core/uncertainty/bootstrap_measures.h"
 #include "core/uncertainty/uncertainty_json.h"
 #include "core/util/errors.h"
@@ -50,19 +51,24 @@ UncertaintyRequest uncertaintyRequest(const Arguments& args) {
   UncertaintyRequest request;
   if (const auto b = args.value("--bootstrap")) {
     const long long replicates = parseInteger(*b, "--bootstrap");
-    if (replicates < 1 || replicates > 100000) {
-      throw InputError("--bootstrap: give 1 to 100000 replicates");
+    if (replicates < 1 || replicates > kBootstrapLimit.max) {
+      throw InputError("--bootstrap: give 1 to " + std::to_string(kBootstrapLimit.max) +
+                       " replicates");
     }
     request.bootstrapReplicates = static_cast<int>(replicates);
   }
   if (const auto s = args.value("--seed")) {
     const long long seed = parseInteger(*s, "--seed");
-    if (seed < 0) throw InputError("--seed: give a non-negative whole number");
+    if (seed < kSeedLimit.min || seed > kSeedLimit.max) {
+      throw InputError("--seed: give a whole number from 0 to " + std::to_string(kSeedLimit.max));
+    }
     request.seed = static_cast<std::uint64_t>(seed);
   }
   if (const auto t = args.value("--threads")) {
     const long long threads = parseInteger(*t, "--threads");
-    if (threads < 1 || threads > 1024) throw InputError("--threads: give 1 to 1024");
+    if (threads < 1 || threads > kThreadsLimit.max) {
+      throw InputError("--threads: give 1 to " + std::to_string(kThreadsLimit.max));
+    }
     request.threads = static_cast<unsigned>(threads);
   }
   const std::vector<std::string> models = args.values("--model");

@@ -121,7 +121,12 @@ std::vector<double> thresholdRange(double from, double to, double step) {
   // The count comes from one division (with a small allowance for FROM/TO/STEP written in
   // decimal); each value is FROM + k STEP from k, never a running sum, and is snapped to the
   // nearest 12-decimal number so 0.01 + 6 * 0.01 is the same double as the literal 0.07.
-  const auto count = static_cast<long long>(std::floor((to - from) / step + 1e-9));
+  const double steps = std::floor((to - from) / step + 1e-9);
+  if (steps + 1.0 > static_cast<double>(kMaxThresholdCount)) {
+    throw InputError("threshold range: " + formatNumber(steps + 1.0) + " thresholds; at most " +
+                     std::to_string(kMaxThresholdCount) + " are computed (use a larger STEP)");
+  }
+  const auto count = static_cast<long long>(steps);
   std::vector<double> values;
   values.reserve(static_cast<std::size_t>(count + 1));
   for (long long k = 0; k <= count; ++k) {

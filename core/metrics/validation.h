@@ -150,6 +150,10 @@ struct ValidationResult {
 ValidationResult validate(const ValidationInput& input, const ValidationOptions& options);
 
 // FROM + k * STEP for k = 0.. while <= TO (+ tolerance), computed without accumulated rounding.
+// Thresholds of one grid (decision curve, threshold table): more only costs memory and time.
+inline constexpr long long kMaxThresholdCount = 10000;
+
+// FROM, FROM + STEP, ... up to TO; InputError for a bad range or more than kMaxThresholdCount.
 std::vector<double> thresholdRange(double from, double to, double step);
 
 }  // namespace calivera

@@ -1,11 +1,13 @@
 #include "core/study/study_file.h"
 
+#include <cmath>
 #include <filesystem>
 #include <fstream>
 #include <nlohmann/json.hpp>
 #include <sstream>
 
 #include "core/model/model_io.h"
+#include "core/study/limits.h"
 #include "core/util/atomic_file.h"
 #include "core/util/errors.h"
 #include "core/util/input_file.h"
@@ -63,6 +65,28 @@ class Reader {
     } catch (const json::exception&) {
       fail(path, "has the wrong type");
     }
+  }
+  // A whole number within `limit` (core/study/limits.h), checked before any conversion.
+  long long integer(const json& parent, const std::string& key, const std::string& path,
+                    long long fallback, const IntegerLimit& limit) const {
+    if (!parent.contains(key) || parent.at(key).is_null()) return fallback;
+    const json& v = parent.at(key);
+    if (!v.is_number()) fail(path, "has the wrong type (expected a number)");
+    const double value = v.get<double>();
+    const std::string problem = integerProblem(value, limit);
+    if (!problem.empty()) {
+      fail(path, problem + " (" + limit.what + ": " + std::to_string(limit.min) + " to " +
+                     std::to_string(limit.max) + ")");
+    }
+    return static_cast<long long>(value);
+  }
+  double probability(const json& parent, const std::string& key, const std::string& path,
+                     double fallback, bool open) const {
+    const double v = get<double>(parent, key, path, fallback);
+    if (!std::isfinite(v) || (open ? !(v > 0.0 && v < 1.0) : !(v >= 0.0 && v <= 1.0))) {
+      fail(path, open ? "must lie strictly between 0 and 1" : "must lie between 0 and 1");
+    }
+    return v;
   }
   InputFileRecord file(const json& j, const std::string& path, const fs::path& folder) const {
     if (!j.is_object()) fail(path, "expected an object");
@@ -191,15 +215,15 @@ StudyState parseStudyJson(const std::string& text, const std::string& studyPath)
   s.columnMapping =
       in.get<std::map<std::string, std::string>>(j, "columnMapping", "columnMapping", {});
   const json& a = in.object(j, "analysis", "analysis");
-  s.analysis.threshold = in.get<double>(a, "threshold", "analysis.threshold", 0.1);
-  s.analysis.reasonableLo = in.get<double>(a, "reasonableLo", "analysis.reasonableLo", 0.05);
-  s.analysis.reasonableHi = in.get<double>(a, "reasonableHi", "analysis.reasonableHi", 0.3);
-  s.analysis.groups = in.get<int>(a, "groups", "analysis.groups", 10);
-  s.analysis.apparent = in.get<bool>(a, "apparent", "analysis.apparent", false);
-  if (!(s.analysis.threshold >= 0 && s.analysis.threshold <= 1)) {
-    in.fail("analysis.threshold", "must lie between 0 and 1");
+  s.analysis.threshold = in.probability(a, "threshold", "analysis.threshold", 0.1, false);
+  s.analysis.reasonableLo = in.probability(a, "reasonableLo", "analysis.reasonableLo", 0.05, true);
+  s.analysis.reasonableHi = in.probability(a, "reasonableHi", "analysis.reasonableHi", 0.3, true);
+  if (!(s.analysis.reasonableLo < s.analysis.reasonableHi)) {
+    in.fail("analysis.reasonableLo", "must be below analysis.reasonableHi");
   }
-  if (s.analysis.groups < 2) in.fail("analysis.groups", "must be at least 2");
+  s.analysis.groups =
+      static_cast<int>(in.integer(a, "groups", "analysis.groups", 10, kGroupsLimit));
+  s.analysis.apparent = in.get<bool>(a, "apparent", "analysis.apparent", false);
   if (j.contains("predictorView") && j.at("predictorView").is_object()) {
     const json& pv = j.at("predictorView");
     s.predictorView =
@@ -209,13 +233,11 @@ StudyState parseStudyJson(const std::string& text, const std::string& studyPath)
   if (j.contains("uncertainty") && !j.at("uncertainty").is_null()) {
     const json& u = in.object(j, "uncertainty", "uncertainty");
     UncertaintySettings& out = s.uncertaintySettings;
-    out.bootstrapReplicates = in.get<int>(u, "bootstrap", "uncertainty.bootstrap", 0);
-    if (out.bootstrapReplicates < 0 || out.bootstrapReplicates > kMaxBootstrapReplicates) {
-      in.fail("uncertainty.bootstrap",
-              "must lie between 0 and " + std::to_string(kMaxBootstrapReplicates));
-    }
-    out.seed = in.get<std::uint64_t>(u, "seed", "uncertainty.seed", 1);
-    out.threads = in.get<unsigned>(u, "threads", "uncertainty.threads", 0);
+    out.bootstrapReplicates =
+        static_cast<int>(in.integer(u, "bootstrap", "uncertainty.bootstrap", 0, kBootstrapLimit));
+    out.seed = static_cast<std::uint64_t>(in.integer(u, "seed", "uncertainty.seed", 1, kSeedLimit));
+    out.threads =
+        static_cast<unsigned>(in.integer(u, "threads", "uncertainty.threads", 0, kThreadsLimit));
     if (u.contains("compareModels") && !u.at("compareModels").is_null()) {
       const json& list = u.at("compareModels");
       if (!list.is_array()) in.fail("uncertainty.compareModels", "expected an array");

@@ -23,12 +23,13 @@
 #include <string>
 #include <vector>
 
+#include "core/study/limits.h"
 #include "core/study/study.h"
 
 namespace calivera {
 
 inline constexpr const char* kStudyFormatId = "calivera-study/1";
-inline constexpr int kMaxBootstrapReplicates = 100000;  // as the command line's --bootstrap
+inline constexpr int kMaxBootstrapReplicates = static_cast<int>(kBootstrapLimit.max);
 
 // Paths are written relative to the folder of `studyPath` as well as absolute.
 std::string studyToJson(const StudyState& study, const std::string& studyPath);

@@ -125,6 +125,39 @@ TEST_F(HostileInputs, AFailedOutputLeavesNoOtherOutputAndKeepsEarlierTables) {
   }
 }
 
+// Study file numbers are range-checked against the one table of limits before any conversion
+// (core/study/limits.h): "groups": 3e69 was undefined behaviour, 2000000000 ran out of memory.
+TEST_F(HostileInputs, StudyFileNumbersOutsideTheirLimitsAreRefused) {
+  const auto study = [&](const std::string& analysis) {
+    return dir_.write("s.cvstudy", R"({"format": "calivera-study/1", "import": {},
+        "model": {"source": "none"}, "analysis": )" +
+                                       analysis + "}");
+  };
+  const std::pair<const char*, const char*> cases[] = {
+      {R"({"groups": 3e69})", "analysis.groups': is outside its allowed range"},
+      {R"({"groups": 2000000000})", "analysis.groups': is outside its allowed range"},
+      {R"({"groups": 7.5})", "analysis.groups': must be a whole number"},
+      {R"({"reasonableLo": 0.9, "reasonableHi": -5})", "analysis.reasonableHi"},
+      {R"({"reasonableLo": 0.4, "reasonableHi": 0.2})", "must be below analysis.reasonableHi"},
+      {R"({"threshold": 15})", "analysis.threshold': must lie between 0 and 1"},
+  };
+  for (const auto& [analysis, message] : cases) {
+    const CliRun run = runCalivera({"run", study(analysis)}, kLimitSeconds);
+    EXPECT_EQ(run.status, 2) << analysis;
+    EXPECT_NE(run.err.find(message), std::string::npos) << analysis << ": " << run.err;
+    EXPECT_NE(run.err.find("s.cvstudy"), std::string::npos) << run.err;
+  }
+}
+
+TEST_F(HostileInputs, AHugeThresholdGridIsRefusedNotAllocated) {
+  const CliRun run =
+      runCalivera({"validate", "--data", testing::birthwtPath(), "--outcome", "low", "--model",
+                   dir_.file("m.json"), "--thresholds", "0.000000001:0.999999999:0.000000001"},
+                  kLimitSeconds);
+  EXPECT_EQ(run.status, 2);
+  EXPECT_NE(run.err.find("at most 10000"), std::string::npos) << run.err;
+}
+
 // Formula injection: a level or model name starting with =, +, -, @ reaches a spreadsheet as text
 // (leading apostrophe, quoted), while numbers, negative ones included, stay numbers.
 TEST(CsvCells, FormulasAreNeutralisedNumbersAreNot) {

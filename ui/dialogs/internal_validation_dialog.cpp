@@ -13,6 +13,7 @@
 #include <filesystem>
 
 #include "core/model/model_io.h"
+#include "core/study/limits.h"
 #include "render/charts/chart_text.h"
 #include "ui/async/background_job.h"
 #include "ui/async/job_progress_row.h"
@@ -58,7 +59,7 @@ InternalValidationDialog::InternalValidationDialog(Model model,
   form->addRow(tr("Seed:"), seed_);
   threads_ = new QSpinBox;
   threads_->setObjectName(QStringLiteral("internalThreads"));
-  threads_->setRange(0, 1024);
+  threads_->setRange(0, static_cast<int>(kThreadsLimit.max));
   threads_->setSpecialValueText(tr("all cores"));
   form->addRow(tr("Threads:"), threads_);
   ici_ = new QCheckBox(tr("Include ICI (a smoothed calibration curve per replicate; slower)"));

@@ -18,6 +18,7 @@
 #include <set>
 #include <thread>
 
+#include "core/study/limits.h"
 #include "core/study/study_file.h"
 
 namespace calivera::ui {
@@ -87,7 +88,7 @@ UncertaintyDialog::UncertaintyDialog(const UncertaintySettings& current, const T
   seed_->setValue(static_cast<int>(std::min<std::uint64_t>(current.seed, 2147483647)));
   threads_ = new QSpinBox;
   threads_->setObjectName(QStringLiteral("bootstrapThreadsSpin"));
-  threads_->setRange(0, 1024);
+  threads_->setRange(0, static_cast<int>(kThreadsLimit.max));
   threads_->setSpecialValueText(
       tr("all cores (%1)").arg(std::max(1u, std::thread::hardware_concurrency())));
   threads_->setValue(static_cast<int>(current.threads));
