@@ -20,6 +20,8 @@
 #include "core/data/csv_text_columns.h"
 #include "core/util/errors.h"
 #include "core/util/mapped_file.h"
+#include "core/util/shown_text.h"
+#include "core/util/utf8.h"
 
 namespace calivera {
 namespace {
@@ -359,6 +361,33 @@ bool parseParallel(std::string_view text, std::size_t dataBegin, unsigned thread
   return true;
 }
 
+// Column names and text values must be UTF-8: every output (JSON, CSV, PDF, the workstation)
+// carries them, and invalid bytes found only when writing the JSON would fail late, with a
+// library message and no location. Each distinct level is checked once; the message names the
+// line of its first row and the column.
+void requireUtf8Text(const Table& table) {
+  for (std::size_t c = 0; c < table.columns.size(); ++c) {
+    const Column& column = table.columns[c];
+    if (!validUtf8(column.name)) {
+      throw InputError(table.sourceName + ":1: column " + std::to_string(c + 1) +
+                       ": the column name is not valid UTF-8 (" + shownText(column.name) +
+                       "); save the file as UTF-8");
+    }
+    if (column.kind != ColumnKind::Text) continue;
+    for (std::size_t level = 0; level < column.levels.size(); ++level) {
+      if (validUtf8(column.levels[level])) continue;
+      std::size_t row = 0;
+      while (row < column.codes.size() && column.codes[row] != static_cast<std::int32_t>(level)) {
+        ++row;
+      }
+      throw InputError(table.sourceName + ":" + std::to_string(table.lineOfRow(row)) + ": column " +
+                       std::to_string(c + 1) + " ('" + shownText(column.name) +
+                       "'): the value is not valid UTF-8 (" + shownText(column.levels[level]) +
+                       "); save the file as UTF-8");
+    }
+  }
+}
+
 CsvReadResult parseText(std::string_view text, const std::string& sourceName,
                         const CsvOptions& options, const MappedFile* file) {
   CsvReadResult result;
@@ -430,6 +459,7 @@ CsvReadResult parseText(std::string_view text, const std::string& sourceName,
   }
   csv::fillTextColumns(text, dataBegin, header.line(), result.delimiter, missing, quoteFree, file,
                        table);
+  requireUtf8Text(table);
   return result;
 }
 

@@ -74,24 +74,6 @@ std::string unmatchedList(const std::vector<Unmatched>& unmatched) {
 
 }  // namespace
 
-std::string shownText(const std::string& text, std::size_t maxChars) {
-  std::string out;
-  for (std::size_t i = 0; i < text.size(); ++i) {
-    if (out.size() >= maxChars) return out + "...";
-    const auto c = static_cast<unsigned char>(text[i]);
-    if (c == 0) {
-      out += "\\0";
-    } else if (c < 0x20 || c == 0x7f) {
-      char buffer[8];
-      std::snprintf(buffer, sizeof buffer, "\\x%02x", c);
-      out += buffer;
-    } else {
-      out += static_cast<char>(c);
-    }
-  }
-  return out;
-}
-
 std::vector<std::string> checkCategoryLevels(const Model& model, const Table& table,
                                              const std::vector<std::uint32_t>& rows) {
   std::map<std::string, std::vector<std::string>> indicatorLevels;

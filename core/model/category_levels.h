@@ -19,15 +19,12 @@
 
 #include "core/data/table.h"
 #include "core/model/model.h"
+#include "core/util/shown_text.h"
 
 namespace calivera {
 
 // Throws InputError for unknown levels; returns the warnings of an assumed reference level.
 std::vector<std::string> checkCategoryLevels(const Model& model, const Table& table,
                                              const std::vector<std::uint32_t>& rows);
-
-// A level or name as it may be echoed in a message: at most `maxChars` bytes (then "..."), NUL
-// as \0 and other control characters as \xNN.
-std::string shownText(const std::string& text, std::size_t maxChars = 40);
 
 }  // namespace calivera

@@ -8,6 +8,7 @@
 #include <string>
 
 #include "core/report/csv_text.h"
+#include "core/util/utf8.h"
 #include "tests/unit/birthwt_run.h"
 #include "tests/unit/cli_run.h"
 
@@ -156,6 +157,21 @@ TEST_F(HostileInputs, AHugeThresholdGridIsRefusedNotAllocated) {
                   kLimitSeconds);
   EXPECT_EQ(run.status, 2);
   EXPECT_NE(run.err.find("at most 10000"), std::string::npos) << run.err;
+}
+
+// Invalid UTF-8 is refused when the cohort is read, naming the line and the column (it used to
+// fail only when the JSON was written, exit 1 with a library message).
+TEST_F(HostileInputs, InvalidUtf8IsRefusedAtReadingWithItsLocation) {
+  const std::string data =
+      dir_.write("latin1.csv", "low,age,lwt,site\n0,20,120,A\n1,30,130,Z\xfcrich\n0,25,110,A\n");
+  const CliRun run = runCalivera({"validate", "--data", data, "--outcome", "low", "--risk", "age",
+                                  "--json", dir_.file("out.json")},
+                                 kLimitSeconds);
+  expectRefused(run, "latin1.csv:3: column 4 ('site'): the value is not valid UTF-8 (Z\\xfcrich)");
+  EXPECT_TRUE(validUtf8("Z\xc3\xbcrich"));
+  EXPECT_FALSE(validUtf8("\xed\xa0\x80"));      // a surrogate
+  EXPECT_FALSE(validUtf8("\xc0\xaf"));          // overlong
+  EXPECT_FALSE(validUtf8("\xf4\x90\x80\x80"));  // above U+10FFFF
 }
 
 // Formula injection: a level or model name starting with =, +, -, @ reaches a spreadsheet as text
