@@ -8,6 +8,7 @@ packages=(
   libeigen3-dev libboost-math-dev nlohmann-json3-dev libssl-dev
   libgtest-dev libgmock-dev
   poppler-utils fonts-dejavu-core
+  clang libclang-rt-14-dev
 )
 missing=()
 for p in "${packages[@]}"; do

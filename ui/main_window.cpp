@@ -112,6 +112,7 @@ MainWindow::MainWindow(QWidget* parent) : QMainWindow(parent) {
 
   status_ = new QLabel;
   status_->setObjectName(QStringLiteral("studyStatus"));
+  status_->setTextFormat(Qt::PlainText);  // names from files are never markup
   statusBar()->setObjectName(QStringLiteral("statusBar"));
   statusBar()->addWidget(status_, 1);
 

@@ -22,6 +22,7 @@
 #include "core/study/study_file.h"
 #include "core/study/study_uncertainty.h"
 #include "core/util/errors.h"
+#include "core/util/shown_text.h"
 #include "render/charts/charts.h"
 #include "ui/async/background_job.h"
 #include "ui/dialogs/fit_dialog.h"
@@ -136,9 +137,14 @@ void MainWindow::rebuildViews() {
   }
   if (study_.model) {
     fillCoefficientTable(*coefficientModel_, *study_.model);
-    QString info = tr("<b>%1</b>").arg(toQ(study_.model->name).toHtmlEscaped());
+    // Names from files: escaped, invisible controls written out, long ones cut so a word-wrapped
+    // label cannot widen the window; the tooltip holds them in full.
+    const auto shown = [](const std::string& text, std::size_t chars) {
+      return toQ(visibleName(text, chars)).toHtmlEscaped();
+    };
+    QString info = tr("<b>%1</b>").arg(shown(study_.model->name, 80));
     if (!study_.model->outcome.empty()) {
-      info += tr(" — predicts %1").arg(toQ(study_.model->outcome).toHtmlEscaped());
+      info += tr(" — predicts %1").arg(shown(study_.model->outcome, 80));
     }
     info +=
         study_.modelSource == ModelSource::Fitted
@@ -146,7 +152,14 @@ void MainWindow::rebuildViews() {
                   .arg(study_.fit.firth ? tr("Firth's penalized likelihood")
                                         : tr("maximum likelihood"))
             : tr("<br>Read from %1.")
-                  .arg(study_.modelFile ? toQ(study_.modelFile->path).toHtmlEscaped() : QString());
+                  .arg(
+                      study_.modelFile
+                          ? shown(std::filesystem::path(study_.modelFile->path).filename().string(),
+                                  60)
+                          : QString());
+    modelInfo_->setToolTip(
+        toQ(visibleName(study_.model->name, 4096)) +
+        (study_.modelFile ? "\n" + toQ(visibleName(study_.modelFile->path, 4096)) : QString()));
     if (study_.model->development.n) {
       info += tr(" Development data: %1 patients").arg(*study_.model->development.n);
       if (study_.model->development.events) {
@@ -237,15 +250,25 @@ void MainWindow::highlightThresholdRow() {
 }
 
 void MainWindow::updateStatus() {
+  // Names from files are shown plain (the label is plain text), with invisible and bidirectional
+  // controls written out and long names cut; the tooltip holds them in full.
+  const auto name = [](const std::string& text, std::size_t chars) {
+    return toQ(visibleName(text, chars));
+  };
   QStringList parts;
+  QStringList full;
   if (study_.data) {
-    parts << tr("Cohort: %1 (%2 rows)")
-                 .arg(QFileInfo(toQ(study_.data->path)).fileName())
-                 .arg(table_ ? table_->rowCount : 0);
+    const std::string file = std::filesystem::path(study_.data->path).filename().string();
+    parts << tr("Cohort: %1 (%2 rows)").arg(name(file, 40)).arg(table_ ? table_->rowCount : 0);
+    full << tr("Cohort: %1").arg(name(study_.data->path, 4096));
   } else {
     parts << tr("No cohort: File → Import cohort CSV");
   }
-  if (study_.model) parts << tr("Model: %1").arg(toQ(study_.model->name));
+  if (study_.model) {
+    parts << tr("Model: %1").arg(name(study_.model->name, 50));
+    full << tr("Model: %1").arg(name(study_.model->name, 4096));
+  }
+  status_->setToolTip(full.join('\n'));
   if (study_.result) {
     parts << tr("%1 patients analysed, %2 events")
                  .arg(study_.result->cohort.n)

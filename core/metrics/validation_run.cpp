@@ -70,7 +70,15 @@ PreparedCohort prepareCohort(const Table& table, const OutcomeSpec& outcome, con
     prepared.warnings.push_back(exclusionWarning(prepared.exclusions));
   }
   if (prepared.rows.empty()) {
-    throw AnalysisError(table.sourceName + ": no row has all of the needed columns");
+    // Name the columns that are missing in every row: the usual reason, and the one to fix.
+    std::string empty;
+    for (const ColumnExclusion& c : prepared.exclusions.byColumn) {
+      if (c.rowsMissing == prepared.exclusions.rowsRead) {
+        empty += (empty.empty() ? "" : ", ") + std::string("'") + c.column + "'";
+      }
+    }
+    throw AnalysisError(table.sourceName + ": no row has all of the needed columns" +
+                        (empty.empty() ? std::string() : " (missing in every row: " + empty + ")"));
   }
   prepared.input.outcome = outcomeValues(table, outcome, prepared.rows);
   if (model) {

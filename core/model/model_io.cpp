@@ -10,6 +10,7 @@
 #include "core/util/atomic_file.h"
 #include "core/util/errors.h"
 #include "core/util/input_file.h"
+#include "core/util/number_format.h"
 #include "core/util/strict_json.h"
 
 namespace calivera {
@@ -183,7 +184,12 @@ Term readTransformed(const Json& object, const Context& context, bool isFactor) 
     case TransformKind::Linear:
       term.center = numberOr(object, "center", 0.0, context);
       term.scale = numberOr(object, "scale", 1.0, context);
-      if (term.scale == 0.0) context.fail("field 'scale' must not be 0");
+      // A zero or subnormal scale would blow (x - center) / scale up to infinity inside the fit,
+      // far from this file; refused here, naming the term and the field.
+      if (!std::isnormal(term.scale)) {
+        context.fail("field 'scale' must not be 0 or subnormal (got " +
+                     formatShortest(term.scale) + ")");
+      }
       break;
     case TransformKind::Power:
       term.power = readNumber(object, "power", context);

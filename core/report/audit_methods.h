@@ -1,6 +1,6 @@
 #pragma once
 // The fixed text of an audit report: one paragraph per method with its published source (the
-// sources listed in the team's METHODS.md) and the reporting checklist oriented on TRIPOD
+// sources listed in the team's docs/methods.md) and the reporting checklist oriented on TRIPOD
 // (Collins et al., BMJ 2015;350:g7594) and TRIPOD+AI (Collins et al., BMJ 2024;385:e078378).
 
 #include <string>

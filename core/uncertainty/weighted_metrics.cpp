@@ -58,9 +58,21 @@ double weightedAuc(const std::vector<double>& lp, const std::vector<double>& y,
 
 double weightedOffsetIntercept(const std::vector<double>& offset, const std::vector<double>& y,
                                const std::vector<double>& weights) {
-  double a = 0.0;
-  for (int iteration = 0; iteration < kMaxIterations; ++iteration) {
-    double score = 0.0, information = 0.0;
+  // The score S(a) = sum w (y - expit(a + offset)) falls strictly as a rises, so its one root is
+  // found by Newton's method kept inside a bracket [lo, hi] with S(lo) > 0 > S(hi), bisecting
+  // whenever a Newton step would leave it. Plain Newton from 0 diverges when the offset is large
+  // and uncentred (every expit near 0 or 1, information near 0).
+  double sumW = 0.0, sumWy = 0.0, sumWo = 0.0;
+  for (std::size_t i = 0; i < offset.size(); ++i) {
+    const double w = weightOf(weights, i);
+    sumW += w;
+    sumWy += w * y[i];
+    sumWo += w * offset[i];
+  }
+  if (!(sumW > 0.0) || !(sumWy > 0.0) || !(sumWy < sumW)) return kNaN;  // no finite root
+  const auto scoreAndInformation = [&](double a, double& information) {
+    double score = 0.0;
+    information = 0.0;
     for (std::size_t i = 0; i < offset.size(); ++i) {
       const double w = weightOf(weights, i);
       if (w == 0.0) continue;
@@ -68,10 +80,31 @@ double weightedOffsetIntercept(const std::vector<double>& offset, const std::vec
       score += w * (y[i] - p);
       information += w * p * (1.0 - p);
     }
-    if (!(information > 0.0)) return kNaN;
-    const double step = score / information;
-    a += step;
-    if (std::fabs(step) < kStepTolerance * (1.0 + std::fabs(a))) return a;
+    return score;
+  };
+  const double mean = sumWy / sumW;
+  double a = std::log(mean / (1.0 - mean)) - sumWo / sumW;  // exact when the offset is constant
+  double information = 0.0;
+  double lo = a - 1.0, hi = a + 1.0;
+  for (int k = 0; k < 64 && scoreAndInformation(lo, information) <= 0.0; ++k) lo -= (hi - lo);
+  for (int k = 0; k < 64 && scoreAndInformation(hi, information) >= 0.0; ++k) hi += (hi - lo);
+  for (int iteration = 0; iteration < 4 * kMaxIterations; ++iteration) {
+    const double score = scoreAndInformation(a, information);
+    if (score > 0.0) {
+      lo = a;
+    } else if (score < 0.0) {
+      hi = a;
+    } else {
+      return a;
+    }
+    double next = information > 0.0 ? a + score / information : kNaN;
+    if (!(next > lo && next < hi)) next = 0.5 * (lo + hi);  // the Newton step left the bracket
+    const double step = next - a;
+    a = next;
+    if (std::fabs(step) < kStepTolerance * (1.0 + std::fabs(a)) ||
+        hi - lo < kStepTolerance * (1.0 + std::fabs(a))) {
+      return a;
+    }
   }
   return kNaN;
 }

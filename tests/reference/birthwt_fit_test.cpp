@@ -1,6 +1,6 @@
 // fitLogistic against R 4.2.2's glm on MASS::birthwt (Debian r-cran-mass, GPL-2 | GPL-3), values
 // from tests/reference/scripts/birthwt_glm.R, and against the table printed in Hosmer &
-// Lemeshow's Applied Logistic Regression (METHODS.md, from memory).
+// Lemeshow's Applied Logistic Regression (docs/methods.md, from memory).
 #include <gtest/gtest.h>
 
 #include "core/fit/logistic_fit.h"
@@ -62,7 +62,7 @@ TEST(BirthwtReference, MainModelMatchesRGlm) {
 }
 
 TEST(BirthwtReference, MainModelMatchesPublishedTable) {
-  // Hosmer & Lemeshow, Applied Logistic Regression, 2nd ed. (METHODS.md; values from memory,
+  // Hosmer & Lemeshow, Applied Logistic Regression, 2nd ed. (docs/methods.md; values from memory,
   // printed to 3 decimals, so the tolerance is half a unit in the last place).
   const Birthwt d = loadBirthwt();
   Eigen::MatrixXd X(d.low.size(), 6);

@@ -47,9 +47,9 @@ SortedCohort hanleyMcNeilCohort() {
 
 TEST(PublishedHanleyMcNeil, AucDelongSeAndBothIntervals) {
   const AucEstimate e = aucWithDelong(hanleyMcNeilCohort());
-  EXPECT_NEAR(e.auc, 0.8932, kFourDecimals);         // METHODS.md: computed, matches paper's 0.893
-  EXPECT_NEAR(e.se, 0.030724, kSixDecimals);         // METHODS.md: DeLong SE, computed
-  EXPECT_NEAR(e.ciLogit.lo, 0.816, kThreeDecimals);  // METHODS.md: computed
+  EXPECT_NEAR(e.auc, 0.8932, kFourDecimals);         // docs/methods.md: computed, matches paper's 0.893
+  EXPECT_NEAR(e.se, 0.030724, kSixDecimals);         // docs/methods.md: DeLong SE, computed
+  EXPECT_NEAR(e.ciLogit.lo, 0.816, kThreeDecimals);  // docs/methods.md: computed
   EXPECT_NEAR(e.ciLogit.hi, 0.940, kThreeDecimals);
   EXPECT_NEAR(e.ciPlain.lo, 0.833, kThreeDecimals);
   EXPECT_NEAR(e.ciPlain.hi, 0.953, kThreeDecimals);
@@ -70,7 +70,7 @@ TEST(PublishedHanleyMcNeil, ComponentsReproduceTheEstimateAndTheRocArea) {
   EXPECT_NEAR(areaUnderCurve(rocCurve(cohort)), e.auc, 1e-12);
 }
 
-// Newcombe, Stat Med 1998;17:857-72 cases (cases memory, intervals computed; METHODS.md).
+// Newcombe, Stat Med 1998;17:857-72 cases (cases memory, intervals computed; docs/methods.md).
 TEST(PublishedNewcombe, WilsonIntervals) {
   const struct {
     std::size_t k, n;
@@ -89,13 +89,13 @@ TEST(PublishedNewcombe, WilsonIntervals) {
 
 TEST(PublishedNewcombe, ClopperPearson81Of263) {
   const Interval ci = clopperPearsonInterval(81, 263);
-  EXPECT_NEAR(ci.lo, 0.2527, kFourDecimals);  // METHODS.md: computed
+  EXPECT_NEAR(ci.lo, 0.2527, kFourDecimals);  // docs/methods.md: computed
   EXPECT_NEAR(ci.hi, 0.3676, kFourDecimals);
   EXPECT_EQ(clopperPearsonInterval(0, 20).lo, 0.0);
   EXPECT_EQ(clopperPearsonInterval(20, 20).hi, 1.0);
 }
 
-// Rufibach, J Clin Epidemiol 2010;63:938 (read, recomputed; METHODS.md): y = (1, 0).
+// Rufibach, J Clin Epidemiol 2010;63:938 (read, recomputed; docs/methods.md): y = (1, 0).
 TEST(PublishedRufibach, BrierAndSpiegelhalter) {
   const std::vector<double> y{1, 0};
   const std::vector<double> p1{0.2, 0.2};
@@ -109,7 +109,7 @@ TEST(PublishedRufibach, BrierAndSpiegelhalter) {
 }
 
 // Vickers, van Calster & Steyerberg, Diagn Progn Res 2019;3:18, worked table with prevalence 0.30
-// (read; METHODS.md). The table gives NB values per threshold, not the cohort, so a cohort of 1000
+// (read; docs/methods.md). The table gives NB values per threshold, not the cohort, so a cohort of 1000
 // patients (300 events) is built whose flagged counts reproduce the model's NB exactly:
 // t = 0.10: TP 290, FP 441 (0.290 - 441/9000 = 0.241); t = 0.20: TP 250, FP 176
 // (0.250 - 176/4000 = 0.206); t = 0.50: TP 150, FP 15 (0.150 - 0.015 = 0.135). The check is that

@@ -39,7 +39,7 @@ Term indicator(const std::string& column, const std::string& level) {
   return t;
 }
 
-// The published model (METHODS.md, memory), optionally distorted to c + k * LP.
+// The published model (docs/methods.md, memory), optionally distorted to c + k * LP.
 Model publishedModel(double c = 0.0, double k = 1.0) {
   Model m;
   m.name = "birthwt published";

@@ -1,7 +1,7 @@
 // Paired DeLong test against values computed by hand in R from the 1988
 // definitions (tests/reference/scripts/paired_delong_birthwt.R; data birthwt
 // from r-cran-mass), and the single-AUC DeLong SE of the Hanley-McNeil rating
-// table (METHODS.md, computed).
+// table (docs/methods.md, computed).
 #include <gtest/gtest.h>
 
 #include <fstream>
@@ -41,7 +41,7 @@ TEST(PairedDelong, MatchesTheHandComputationInROnBirthwt) {
 
 TEST(PairedDelong, HanleyMcNeilRatingTableDelongSe) {
   // Hanley & McNeil, Radiology 1982 (table from memory; AUC 0.8932 and DeLong
-  // SE 0.030724 computed, METHODS.md).
+  // SE 0.030724 computed, docs/methods.md).
   const int nonDiseased[] = {33, 6, 6, 11, 2};
   const int diseased[] = {3, 2, 2, 11, 33};
   std::vector<double> score, y;

@@ -8,6 +8,7 @@
 #include <string>
 
 #include "core/report/csv_text.h"
+#include "core/util/shown_text.h"
 #include "core/util/utf8.h"
 #include "tests/unit/birthwt_run.h"
 #include "tests/unit/cli_run.h"
@@ -172,6 +173,13 @@ TEST_F(HostileInputs, InvalidUtf8IsRefusedAtReadingWithItsLocation) {
   EXPECT_FALSE(validUtf8("\xed\xa0\x80"));      // a surrogate
   EXPECT_FALSE(validUtf8("\xc0\xaf"));          // overlong
   EXPECT_FALSE(validUtf8("\xf4\x90\x80\x80"));  // above U+10FFFF
+}
+
+TEST(ShownText, BidiControlsAreWrittenOutAndLongNamesCut) {
+  EXPECT_EQ(visibleName("gnp\u202Eexe.png"), "gnp[U+202E]exe.png");
+  EXPECT_EQ(visibleName("a\tb"), "a[U+0009]b");
+  EXPECT_EQ(visibleName(std::string(100, 'y'), 10), std::string(10, 'y') + "...");
+  EXPECT_EQ(visibleName("caf\xc3\xa9"), "caf\xc3\xa9");  // ordinary UTF-8 unchanged
 }
 
 // Formula injection: a level or model name starting with =, +, -, @ reaches a spreadsheet as text

@@ -26,7 +26,7 @@ Eigen::VectorXd vec(const std::vector<double>& v) {
 }
 
 TEST(LogisticFit, FirthMatchesHalfCountCorrectionForOneBinaryCovariate) {
-  // METHODS.md (computed): 5/0 events/non-events at x = 1 and 3/7 at x = 0; with one binary
+  // docs/methods.md (computed): 5/0 events/non-events at x = 1 and 3/7 at x = 0; with one binary
   // covariate Firth's estimate equals the log odds ratio after adding 1/2 to every cell.
   std::vector<double> x, y;
   addCell(x, y, 1, 5, 0);

@@ -56,3 +56,32 @@ TEST(WeightedMeasures, OneClassGivesNanAuc) {
 
 }  // namespace
 }  // namespace calivera
+
+namespace calivera {
+namespace {
+
+// A large, uncentred offset (issue 11): plain Newton from 0 meets expit(a + offset) of 1 for
+// every patient and diverges; the bracketed Newton finds the one root of the score. Checked by
+// the defining property, the score at the returned intercept is zero, and against the
+// closed form for a constant offset (logit of the event rate minus the offset).
+TEST(WeightedOffsetIntercept, ConvergesWithALargeUncentredOffset) {
+  std::vector<double> offset, y;
+  for (int i = 0; i < 400; ++i) {
+    offset.push_back(40.0 + 0.01 * (i % 97));
+    y.push_back(i % 7 == 0 ? 1.0 : 0.0);
+  }
+  const double a = weightedOffsetIntercept(offset, y, {});
+  ASSERT_TRUE(std::isfinite(a));
+  double score = 0.0;
+  for (std::size_t i = 0; i < y.size(); ++i) score += y[i] - 1.0 / (1.0 + std::exp(-(a + offset[i])));
+  EXPECT_NEAR(score, 0.0, 1e-6);  // of 400 patients: the root to the fit's tolerance
+  EXPECT_NEAR(a, -42.2, 0.3);
+  const std::vector<double> constant(400, 55.0);
+  const double rate = 58.0 / 400.0;  // 58 of the 400 rows have i % 7 == 0
+  EXPECT_NEAR(weightedOffsetIntercept(constant, y, {}), std::log(rate / (1 - rate)) - 55.0, 1e-9);
+  // One outcome class: no finite intercept.
+  EXPECT_TRUE(std::isnan(weightedOffsetIntercept(offset, std::vector<double>(400, 0.0), {})));
+}
+
+}  // namespace
+}  // namespace calivera

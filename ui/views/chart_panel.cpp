@@ -23,7 +23,10 @@ ChartPanel::ChartPanel(const QString& objectName, QWidget* parent) : QChartView(
   legend_->setObjectName(objectName + QStringLiteral("Legend"));
   auto* placeholder = new QChart;
   charts::applyChartStyle(placeholder, tr("Run the validation to see this view"));
+  // QChartView makes a default chart, and setChart does not delete the chart it replaces.
+  QChart* initial = chart();
   setChart(placeholder);
+  delete initial;
 }
 
 void ChartPanel::setLinkedChart(charts::LinkedChart* chart) {

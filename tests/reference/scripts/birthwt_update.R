@@ -1,6 +1,6 @@
 # Model updating on birthwt (r-cran-mass) with R's glm as the reference: the published model
 # low ~ age + lwt + race + ftv (Hosmer & Lemeshow, Applied Logistic Regression 2nd ed.;
-# coefficients from memory, METHODS.md) updated by intercept (offset), logistic recalibration
+# coefficients from memory, docs/methods.md) updated by intercept (offset), logistic recalibration
 # (a + b LP) and full refit; deviances and likelihood-ratio tests of each update against the
 # refit (closed testing, Vergouwe et al. 2017, sequence from memory).
 # Run: Rscript tests/reference/scripts/birthwt_update.R > tests/reference/data/birthwt_update.json

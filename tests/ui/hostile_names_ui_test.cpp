@@ -1,0 +1,54 @@
+// Names from files in the workstation (issue 11): markup in a model name is shown as text, a
+// right-to-left override is written out instead of reversing what follows, and a 400-character
+// name is cut (full name in the tooltip) instead of widening the window.
+// Data: MASS::birthwt (Debian r-cran-mass).
+#include <QLabel>
+#include <QTemporaryDir>
+#include <QtTest>
+
+#include "core/data/csv_reader.h"
+#include "core/fit/cohort_fit.h"
+#include "core/model/model_io.h"
+#include "ui/async/background_job.h"
+#include "ui/main_window.h"
+
+using namespace calivera;
+using namespace calivera::ui;
+
+class HostileNamesUiTest : public QObject {
+  Q_OBJECT
+
+ private slots:
+  void namesShowPlainVisibleAndShort() {
+    QTemporaryDir dir;
+    QVERIFY(dir.isValid());
+    const std::string data = CALIVERA_SOURCE_DIR "/tests/reference/data/birthwt.csv";
+    CohortFitSpec spec;
+    spec.outcome = OutcomeSpec{"low", std::nullopt};
+    spec.predictors = {"age", "lwt"};
+    spec.modelName = "<b>bold</b> gnp\u202Eexe.png " + std::string(400, 'x');
+    const QString model = dir.filePath("m.json");
+    writeModelFile(model.toStdString(),
+                   fitCohortModel(readCsvFile(data, CsvOptions{}).table, spec).model);
+    MainWindow w;
+    w.resize(1366, 768);
+    w.show();
+    ImportSettings import;
+    import.outcomeColumn = "low";
+    QVERIFY(w.openInputs(QString::fromStdString(data), model, import));
+    QTRY_VERIFY_WITH_TIMEOUT(!w.job()->isRunning(), 60000);
+    auto* status = w.findChild<QLabel*>("studyStatus");
+    QVERIFY(status != nullptr);
+    QCOMPARE(status->textFormat(), Qt::PlainText);
+    QVERIFY2(status->text().contains("<b>bold</b>"), qPrintable(status->text()));
+    QVERIFY(status->text().contains("gnp[U+202E]exe.png"));
+    QVERIFY(!status->text().contains(QChar(0x202E)));
+    QVERIFY(!status->text().contains(QString(400, 'x')));
+    QVERIFY(status->toolTip().contains(QString(400, 'x')));
+    QVERIFY2(w.width() <= 1366 && w.minimumSizeHint().width() < 1366,
+             qPrintable(QString::number(w.minimumSizeHint().width())));
+  }
+};
+
+QTEST_MAIN(HostileNamesUiTest)
+#include "hostile_names_ui_test.moc"
