@@ -98,7 +98,7 @@ TEST_F(HostileInputs, OutputsNeverOverwriteInputs) {
   EXPECT_EQ(testing::readWhole(dir_.file("m.json")), model);
   const CliRun same =
       runCalivera({"validate", "--data", data, "--outcome", "low", "--model", dir_.file("m.json"),
-                   "--json", dir_.file("r.pdf"), "--pdf", dir_.file("r.pdf")},
+                   "--json", dir_.file("r.out"), "--csv-dir", dir_.file("r.out")},
                   kLimitSeconds);
   EXPECT_EQ(same.status, 2);
   EXPECT_NE(same.err.find("name the same file"), std::string::npos) << same.err;
