@@ -48,6 +48,9 @@ int runRunCommand(const std::vector<std::string>& words) {
   const StudyState study = readStudyFile(studyPath);
   // An input that changed since the study was saved still runs (the fingerprints in every output
   // are those of the files as read now), but the user is told before anything else.
+  for (const std::string& note : study.pathNotes) {
+    std::cerr << "warning: " << studyPath << ": " << note << '\n';
+  }
   for (const InputCheck& check : checkInputs(study)) {
     std::cerr << "warning: " << studyPath << ": " << check.role << " " << check.path << " "
               << check.problem << '\n';

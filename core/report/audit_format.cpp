@@ -4,6 +4,7 @@
 #include <cstdio>
 
 #include "core/present/number_text.h"
+#include "core/util/shown_text.h"
 
 namespace calivera {
 
@@ -35,7 +36,11 @@ std::string formatPercent(double proportion, int decimals) {
 
 std::string fileNameOnly(const std::string& path) {
   const auto slash = path.find_last_of("/\\");
-  return slash == std::string::npos ? path : path.substr(slash + 1);
+  return reportName(slash == std::string::npos ? path : path.substr(slash + 1));
+}
+
+std::string reportName(const std::string& text) {
+  return visibleName(text, kReportNameChars);
 }
 
 }  // namespace calivera

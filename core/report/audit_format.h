@@ -22,4 +22,10 @@ std::string formatPercent(double proportion, int decimals);
 // The last component of a path: reports name files, never folders (they can name people).
 std::string fileNameOnly(const std::string& path);
 
+// A name from a file (model, level, file name, title) as the report prints it: controls and
+// bidirectional overrides written out, cut after kReportNameChars characters, so a 2,000-character
+// level cannot run over the page or its caution and fingerprint footer (core/util/shown_text.h).
+inline constexpr std::size_t kReportNameChars = 80;
+std::string reportName(const std::string& text);
+
 }  // namespace calivera

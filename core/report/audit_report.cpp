@@ -139,7 +139,8 @@ void addIdentification(const AuditReportInput& input, const DisclosurePlan& plan
       keyValueTable(std::string(kTablePrefix) + "Model file and development record");
   modelTable.rows.push_back({"File name", fileNameOnly(input.modelFile.name)});
   modelTable.rows.push_back({"SHA-256", input.modelFile.sha256});
-  modelTable.rows.push_back({"Model name", model.name.empty() ? "not stated" : model.name});
+  modelTable.rows.push_back(
+      {"Model name", model.name.empty() ? "not stated" : reportName(model.name)});
   modelTable.rows.push_back(
       {"Outcome predicted", model.outcome.empty() ? "not stated" : model.outcome});
   std::string terms;
@@ -505,7 +506,7 @@ AuditDocument buildAuditDocument(const AuditReportInput& input) {
       input.result, input.exclusions, tableRows, input.settings.suppressBelow,
       input.uncertainty ? disclosureExtras(*input.uncertainty) : DisclosureExtras{});
   AuditDocument doc;
-  doc.title = input.title.empty() ? "Model validation audit report" : input.title;
+  doc.title = input.title.empty() ? "Model validation audit report" : reportName(input.title);
   doc.subtitle = "Created " + input.createdAt + "  |  Calivera " + input.softwareVersion;
   doc.caution = auditCautionText();
   doc.footer = {

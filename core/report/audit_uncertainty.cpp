@@ -311,14 +311,16 @@ void addSubgroupSection(const UncertaintyResults& results, const DisclosurePlan&
     std::vector<std::string> notes;
     for (std::size_t l = 0; l < analysis.levels.size(); ++l) {
       const SubgroupResult& level = analysis.levels[l];
-      std::vector<std::string> row{level.level, plan.levelN(c, l), plan.levelEvents(c, l)};
+      std::vector<std::string> row{reportName(level.level), plan.levelN(c, l),
+                                   plan.levelEvents(c, l)};
       if (plan.levelHidden(c, l)) {
         row.insert(row.end(),
                    {kWithheld, kWithheld, kWithheld, kWithheld, "withheld: small counts"});
         table.rows.push_back(row);
         continue;
       }
-      for (const std::string& w : level.warnings) notes.push_back(level.level + ": " + w);
+      for (const std::string& w : level.warnings)
+        notes.push_back(reportName(level.level) + ": " + w);
       if (!level.metrics) {
         row.insert(row.end(), {"-", "-", "-", "-", "no measures"});
         table.rows.push_back(row);

@@ -79,6 +79,10 @@ struct StudyState {
   std::map<std::string, std::string> heldValues;
   UncertaintySettings uncertaintySettings;
 
+  // Read, not saved: an input found through its relative path outside the study file's folder
+  // ("../../../../etc/passwd"), one sentence each, shown to the user when the study opens.
+  std::vector<std::string> pathNotes;
+
   // Computed, not saved (recomputed from the inputs when a study is reopened).
   std::optional<Model> model;
   std::vector<std::string> modelWarnings;  // separation, non-convergence, unit checks

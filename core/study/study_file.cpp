@@ -46,7 +46,8 @@ std::string delimiterName(char d) {
 // Reads fields with messages that name the file and the JSON path of the field.
 class Reader {
  public:
-  explicit Reader(std::string source) : source_(std::move(source)) {}
+  Reader(std::string source, std::vector<std::string>* pathNotes)
+      : source_(std::move(source)), pathNotes_(pathNotes) {}
 
   [[noreturn]] void fail(const std::string& field, const std::string& what) const {
     throw InputError(source_ + ": field '" + field + "': " + what);
@@ -100,12 +101,19 @@ class Reader {
     if ((r.path.empty() || !fs::exists(r.path, ec)) && !relative.empty() &&
         (r.path.empty() || fs::exists(folder / relative, ec))) {
       r.path = fs::absolute(folder / relative).lexically_normal().string();
+      const fs::path within = fs::path(r.path).lexically_relative(folder);
+      if (pathNotes_ && (within.empty() || *within.begin() == "..")) {
+        pathNotes_->push_back("The " + path + " file was found through its relative path '" +
+                              relative + "', which leaves the study file's folder: " + r.path +
+                              ".");
+      }
     }
     return r;
   }
 
  private:
   std::string source_;
+  std::vector<std::string>* pathNotes_ = nullptr;
 };
 
 }  // namespace
@@ -163,13 +171,13 @@ std::string studyToJson(const StudyState& study, const std::string& studyPath) {
 StudyState parseStudyJson(const std::string& text, const std::string& studyPath) {
   // Duplicate keys and deep nesting are refused here (core/util/strict_json.h).
   const json j = parseStrictJson(text, studyPath, /*allowComments=*/false);
-  const Reader in(studyPath);
+  StudyState s;
+  const Reader in(studyPath, &s.pathNotes);
   if (!j.is_object()) in.fail("(top level)", "expected an object");
   if (in.get<std::string>(j, "format", "format", "") != kStudyFormatId) {
     in.fail("format", std::string("expected \"") + kStudyFormatId + "\"");
   }
   const fs::path folder = fs::absolute(studyPath).parent_path();
-  StudyState s;
   if (j.contains("data") && !j.at("data").is_null()) s.data = in.file(j.at("data"), "data", folder);
 
   const json& import = in.object(j, "import", "import");

@@ -38,6 +38,7 @@ PipelineOutput runPipeline(const PipelineRequest& request, const ProgressCallbac
   reportProgress(progress, 0.0);
 
   if (request.checkRecordedInputs) {
+    out.inputWarnings = s.pathNotes;
     for (const InputCheck& c : checkInputs(s)) {
       out.inputWarnings.push_back("The " + c.role + " " + c.path + " is " + c.problem + ".");
     }

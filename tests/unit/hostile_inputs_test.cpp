@@ -7,6 +7,7 @@
 #include <filesystem>
 #include <string>
 
+#include "core/report/audit_format.h"
 #include "core/report/csv_text.h"
 #include "core/util/shown_text.h"
 #include "core/util/utf8.h"
@@ -173,6 +174,31 @@ TEST_F(HostileInputs, InvalidUtf8IsRefusedAtReadingWithItsLocation) {
   EXPECT_FALSE(validUtf8("\xed\xa0\x80"));      // a surrogate
   EXPECT_FALSE(validUtf8("\xc0\xaf"));          // overlong
   EXPECT_FALSE(validUtf8("\xf4\x90\x80\x80"));  // above U+10FFFF
+}
+
+// A study whose input is found through a relative path leaving its folder says so (the run still
+// uses it: moving a study with its data is legitimate, but the user sees where the file is).
+TEST_F(HostileInputs, RelativePathLeavingTheStudyFolderIsShown) {
+  testing::writeBirthwtModel(dir_.file("m3.json"), {"age", "lwt"}, "two terms");
+  dir_.write("data.csv", testing::readWhole(testing::birthwtPath()));
+  std::filesystem::create_directories(dir_.file("studies"));
+  const std::string study = dir_.write("studies/s.cvstudy",
+                                       R"({"format": "calivera-study/1",
+          "data": {"path": "/nonexistent/data.csv", "relativePath": "../data.csv", "sha256": ""},
+          "import": {"outcome": "low"},
+          "model": {"source": "file", "file": {"path": ")" +
+                                           dir_.file("m3.json") + R"(", "sha256": ""}},
+          "analysis": {"groups": 8}})");
+  const CliRun run = runCalivera({"run", study, "--json", dir_.file("out.json")}, kLimitSeconds);
+  EXPECT_EQ(run.status, 0) << run.err;
+  EXPECT_NE(run.err.find("'../data.csv', which leaves the study file's folder"), std::string::npos)
+      << run.err;
+}
+
+TEST(ReportNames, LongNamesAreCutForThePrintedReport) {
+  const std::string level(2000, 'L');
+  EXPECT_EQ(reportName(level).size(), kReportNameChars + 3);
+  EXPECT_EQ(fileNameOnly("/a/b/" + std::string(300, 'f') + ".csv").size(), kReportNameChars + 3);
 }
 
 TEST(ShownText, BidiControlsAreWrittenOutAndLongNamesCut) {
