@@ -12,6 +12,7 @@
 #include <QProgressBar>
 #include <QPushButton>
 #include <QScrollArea>
+#include <QScrollBar>
 #include <QShortcut>
 #include <QSortFilterProxyModel>
 #include <QSpinBox>
@@ -22,6 +23,7 @@
 #include <QTextBrowser>
 #include <QToolBar>
 #include <QVBoxLayout>
+#include <algorithm>
 
 #include "core/study/limits.h"
 #include "ui/async/background_job.h"
@@ -326,7 +328,10 @@ QWidget* MainWindow::buildLinkedViewsTab() {
   side->setWidget(confusion_);
   side->setWidgetResizable(true);
   side->setHorizontalScrollBarPolicy(Qt::ScrollBarAlwaysOff);
-  side->setFixedWidth(340);
+  // At least as wide as the panel's own minimum (its count table) plus a scroll bar, so nothing
+  // in it is clipped at any window size; the splitter may give it more.
+  side->setMinimumWidth(std::max(340, confusion_->minimumSizeHint().width() +
+                                          side->verticalScrollBar()->sizeHint().width() + 6));
   page->addWidget(grid);
   page->addWidget(side);
   page->setStretchFactor(0, 1);

@@ -979,7 +979,9 @@ class MainWindowTest : public QObject {
   void screenshots() {
     const QByteArray dir = qgetenv("CALIVERA_SCREENSHOT_DIR");
     MainWindow w;
-    w.resize(1280, 800);
+    // CALIVERA_SCREENSHOT_SIZE=WxH (default 1366x768, the smallest common laptop screen).
+    const QList<QByteArray> size = qgetenv("CALIVERA_SCREENSHOT_SIZE").split('x');
+    w.resize(size.size() == 2 ? size[0].toInt() : 1366, size.size() == 2 ? size[1].toInt() : 768);
     w.show();
     const QString sample = QStringLiteral(CALIVERA_SOURCE_DIR "/resources/sample_study.cvstudy");
     if (QFile::exists(sample)) {
