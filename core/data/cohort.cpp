@@ -6,6 +6,7 @@
 
 #include "core/data/csv_field.h"
 #include "core/util/errors.h"
+#include "core/util/shown_text.h"
 
 namespace calivera {
 namespace {
@@ -59,7 +60,7 @@ std::string listValues(const Table& table, const std::vector<DistinctValue>& val
   std::string list;
   for (std::size_t i = 0; i < values.size() && i < kShown; ++i) {
     list += i == 0 ? "" : ", ";
-    list += "'" + values[i].text + "' (" + std::to_string(values[i].rows) +
+    list += "'" + shownText(values[i].text) + "' (" + std::to_string(values[i].rows) +
             (values[i].rows == 1 ? " row" : " rows") + ", first on line " +
             std::to_string(table.lineOfRow(values[i].firstRow)) + ")";
   }
@@ -71,12 +72,12 @@ std::string listValues(const Table& table, const std::vector<DistinctValue>& val
 std::vector<std::int8_t> eventIndicator(const Table& table, const Column& column,
                                         const OutcomeSpec& spec) {
   std::vector<std::int8_t> event(table.rowCount, -1);
-  const std::string columnText = "column '" + column.name + "': ";
+  const std::string columnText = "column '" + shownText(column.name) + "': ";
   if (!spec.eventValue) {
     if (column.kind == ColumnKind::Text) {
       const FieldLocation& first = *column.firstNonNumeric;
       throw InputError(table.sourceName + ":" + std::to_string(first.line) + ": " + columnText +
-                       "outcome value '" + first.text +
+                       "outcome value '" + shownText(first.text, 60) +
                        "' is not 0 or 1 (give the value that means an event)");
     }
     for (std::size_t row = 0; row < table.rowCount; ++row) {

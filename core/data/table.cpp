@@ -1,6 +1,7 @@
 #include "core/data/table.h"
 
 #include "core/util/errors.h"
+#include "core/util/shown_text.h"
 
 namespace calivera {
 
@@ -27,8 +28,9 @@ const Column& Table::requireNumeric(std::string_view name) const {
   if (column.kind == ColumnKind::Text) {
     const std::size_t line = column.firstNonNumeric ? column.firstNonNumeric->line : 0;
     const std::string text = column.firstNonNumeric ? column.firstNonNumeric->text : "";
-    throw InputError(sourceName + ":" + std::to_string(line) + ": column '" + column.name + "': '" +
-                     text + "' is not a number");
+    // Field text is echoed cut and with controls escaped (a 100 MB field, a NUL byte).
+    throw InputError(sourceName + ":" + std::to_string(line) + ": column '" +
+                     shownText(column.name) + "': '" + shownText(text, 60) + "' is not a number");
   }
   return column;
 }

@@ -195,6 +195,20 @@ TEST_F(HostileInputs, RelativePathLeavingTheStudyFolderIsShown) {
       << run.err;
 }
 
+// A huge or hidden-byte field is echoed cut and escaped, never whole (a 100 MB field reached
+// stderr in full; a NUL cut the message).
+TEST_F(HostileInputs, BadFieldTextIsEchoedCutAndEscaped) {
+  const std::string huge(100000, 'q');
+  const std::string data =
+      dir_.write("bad.csv", "low,age\n0,20\n1," + huge + "\n0,2" + std::string(1, '\0') + "x\n");
+  const CliRun run =
+      runCalivera({"validate", "--data", data, "--outcome", "low", "--risk", "age"}, kLimitSeconds);
+  EXPECT_EQ(run.status, 2);
+  EXPECT_LT(run.err.size(), 400u) << run.err.size();
+  EXPECT_NE(run.err.find("bad.csv:3: column 'age': 'qqqq"), std::string::npos) << run.err;
+  EXPECT_NE(run.err.find("...' is not a number"), std::string::npos) << run.err;
+}
+
 TEST(ReportNames, LongNamesAreCutForThePrintedReport) {
   const std::string level(2000, 'L');
   EXPECT_EQ(reportName(level).size(), kReportNameChars + 3);
