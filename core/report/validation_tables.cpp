@@ -5,8 +5,8 @@
 #include <sstream>
 
 #include "core/report/csv_text.h"
-#include "core/util/atomic_file.h"
 #include "core/util/errors.h"
+#include "core/util/output_transaction.h"
 
 namespace calivera {
 namespace {
@@ -150,21 +150,12 @@ std::vector<std::pair<std::string, std::string>> validationTables(const Validati
 
 void writeTables(const std::string& directory,
                  const std::vector<std::pair<std::string, std::string>>& tables) {
-  namespace fs = std::filesystem;
-  std::error_code error;
-  fs::create_directories(directory, error);
-  if (error) throw InputError(directory + ": cannot create folder (" + error.message() + ")");
-  std::vector<fs::path> written;
-  try {
-    for (const auto& [name, text] : tables) {
-      const fs::path path = fs::path(directory) / name;
-      writeFileAtomically(path.string(), text);
-      written.push_back(path);
-    }
-  } catch (...) {
-    for (const fs::path& path : written) fs::remove(path, error);
-    throw;
+  // All or none, and earlier tables untouched on failure (core/util/output_transaction.h).
+  OutputTransaction files;
+  for (const auto& [name, text] : tables) {
+    files.add((std::filesystem::path(directory) / name).string(), text, /*createFolder=*/true);
   }
+  files.commit();
 }
 
 void writeValidationTables(const std::string& directory, const ValidationRun& run) {

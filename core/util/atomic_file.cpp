@@ -9,23 +9,20 @@
 #include "core/util/errors.h"
 
 namespace calivera {
-namespace {
-
-std::filesystem::path temporaryNameFor(const std::filesystem::path& target) {
+std::string temporaryPathFor(const std::string& targetPath) {
+  const std::filesystem::path target(targetPath);
   std::random_device device;
   // Appended piece by piece: GCC 12 gives a false -Wrestrict warning for the chain of operator+.
   std::string name = ".";
   name += target.filename().string();
   name += ".tmp-";
   name += std::to_string(device());
-  return target.parent_path() / name;
+  return (target.parent_path() / name).string();
 }
-
-}  // namespace
 
 void writeFileAtomically(const std::string& path, const std::function<void(std::ostream&)>& write) {
   const std::filesystem::path target(path);
-  const std::filesystem::path temporary = temporaryNameFor(target);
+  const std::filesystem::path temporary = temporaryPathFor(path);
   try {
     {
       std::ofstream out(temporary, std::ios::binary | std::ios::trunc);

@@ -9,6 +9,10 @@
 
 namespace calivera {
 
+// A temporary name beside `target` (same folder, so a rename moves it into place atomically):
+// ".NAME.tmp-RANDOM".
+std::string temporaryPathFor(const std::string& target);
+
 // Throws InputError naming the path when the folder is not writable.
 void writeFileAtomically(const std::string& path, std::string_view contents);
 

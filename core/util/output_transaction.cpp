@@ -4,23 +4,14 @@
 #include <cstring>
 #include <filesystem>
 #include <fstream>
-#include <random>
 
+#include "core/util/atomic_file.h"
 #include "core/util/errors.h"
 
 namespace calivera {
 namespace fs = std::filesystem;
 
 namespace {
-
-std::string temporaryNameFor(const fs::path& target) {
-  std::random_device device;
-  std::string name = ".";
-  name += target.filename().string();
-  name += ".tmp-";
-  name += std::to_string(device());
-  return (target.parent_path() / name).string();
-}
 
 // The same file by any name: both exist and are equivalent, or their normal forms agree.
 bool sameFile(const std::string& a, const std::string& b) {
@@ -61,7 +52,7 @@ void OutputTransaction::commit() {
         throw InputError(target.parent_path().string() + ": cannot create the folder (" +
                          error.message() + ")");
       }
-      const std::string temporary = temporaryNameFor(target);
+      const std::string temporary = temporaryPathFor(s.path);
       std::ofstream out(temporary, std::ios::binary | std::ios::trunc);
       if (!out) throw InputError(s.path + ": cannot write (" + std::strerror(errno) + ")");
       s.temporary = temporary;
@@ -72,6 +63,15 @@ void OutputTransaction::commit() {
   } catch (...) {
     removeTemporaries();
     throw;
+  }
+  // A target that exists but is not a regular file (a folder of that name) would fail its rename
+  // after earlier ones succeeded: refused before any rename.
+  for (const Staged& s : staged_) {
+    std::error_code error;
+    if (fs::exists(s.path, error) && !fs::is_regular_file(s.path, error)) {
+      removeTemporaries();
+      throw InputError(s.path + ": exists and is not a regular file, so it cannot be replaced");
+    }
   }
   // Every file is written in full: now the renames, in order (the JSON, staged last, last).
   for (Staged& s : staged_) {
