@@ -7,6 +7,7 @@
 #include "core/data/cohort.h"
 #include "core/fit/cohort_fit.h"
 #include "core/metrics/validation_run.h"
+#include "core/study/reproduce_command.h"
 #include "core/util/errors.h"
 #include "core/util/sha256.h"
 
@@ -68,20 +69,13 @@ std::vector<std::string> modelVariables(const Model& model) {
 }
 
 ValidationRequest validationRequestFor(const StudyState& study, const Model& model) {
-  ValidationRequest request;
-  if (study.data) request.dataPath = study.data->path;
-  request.csv = csvOptionsFor(study.import);
-  request.outcome = OutcomeSpec{study.import.outcomeColumn, study.import.eventValue};
-  // The pipeline has read (or fitted) the model already; runValidation takes it as it is, under
-  // the file's path where there is one.
+  // The command line's request for this study (the one `calivera run` executes), with the model
+  // the pipeline has already read or fitted, under the file's path where there is one.
+  ValidationRequest request = studyRequests(study).validation;
   request.model = model;
   if (study.modelSource == ModelSource::File && study.modelFile) {
     request.modelLabel = study.modelFile->path;
   }
-  request.columnMapping = study.columnMapping;
-  request.developmentData = study.analysis.apparent;
-  request.options.groups = study.analysis.groups;
-  request.options.thresholds = thresholdRange(0.01, 0.99, 0.01);
   return request;
 }
 

@@ -57,9 +57,8 @@ LoadedTable loadCohortFile(const std::string& path, const ImportSettings& settin
 // Model variables (term variables and product factors), in first-use order, before mapping.
 std::vector<std::string> modelVariables(const Model& model);
 
-// The request the study stands for: the cohort, its import settings, the model (its file, or the
-// fitted model held in the study), the column mapping, groups and the development-data statement.
-// `calivera validate` with studyValidateArguments() (core/study/study_command.h) builds the same.
+// The request the study stands for (studyRequests, core/study/reproduce_command.h, the one
+// `calivera run` executes) with `model`, as the pipeline read or fitted it, held in memory.
 ValidationRequest validationRequestFor(const StudyState& study, const Model& model);
 
 // Validates `model` on the cohort through core's runValidation (the command line's path):
