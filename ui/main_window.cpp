@@ -43,8 +43,8 @@ namespace calivera::ui {
 MainWindow::MainWindow(QWidget* parent) : QMainWindow(parent) {
   setObjectName(QStringLiteral("mainWindow"));
   setWindowTitle(tr("Calivera workstation"));
-  job_ = new BackgroundJob(this);
-  job_->setObjectName(QStringLiteral("backgroundJob"));
+  controller_ = new StudyController(this);
+  BackgroundJob* job = controller_->job();
 
   auto* central = new QWidget;
   central->setObjectName(QStringLiteral("centralArea"));
@@ -73,15 +73,13 @@ MainWindow::MainWindow(QWidget* parent) : QMainWindow(parent) {
 
   thresholdBar_ = new ThresholdBar;
   layout->addWidget(thresholdBar_);
-  connect(thresholdBar_, &ThresholdBar::thresholdEdited, this, &MainWindow::setThreshold);
+  connect(thresholdBar_, &ThresholdBar::thresholdEdited, controller_,
+          &StudyController::setThreshold);
   connect(thresholdBar_, &ThresholdBar::entryRefused, this, [this](const QString& reason) {
     showMessage(tr("Threshold not changed: %1").arg(reason), true);
   });
-  connect(thresholdBar_, &ThresholdBar::reasonableRangeEdited, this, [this](double lo, double hi) {
-    study_.analysis.reasonableLo = lo;
-    study_.analysis.reasonableHi = hi;
-    rebuildViews();
-  });
+  connect(thresholdBar_, &ThresholdBar::reasonableRangeEdited, controller_,
+          &StudyController::setReasonableRange);
 
   tabs_ = new QTabWidget;
   tabs_->setObjectName(QStringLiteral("mainTabs"));
@@ -93,18 +91,16 @@ MainWindow::MainWindow(QWidget* parent) : QMainWindow(parent) {
   tabs_->addTab(buildTablesTab(), tr("&Tables"));
   tabs_->addTab(buildModelTab(), tr("&Model"));
   predictorView_ = new PredictorView;
-  connect(predictorView_, &PredictorView::thresholdPicked, this, &MainWindow::setThreshold);
-  connect(predictorView_, &PredictorView::settingsChanged, this,
-          [this](const std::vector<std::string>& chosen,
-                 const std::map<std::string, std::string>& held) {
-            study_.predictorView = chosen;
-            study_.heldValues = held;
-          });
+  connect(predictorView_, &PredictorView::thresholdPicked, controller_,
+          &StudyController::setThreshold);
+  connect(predictorView_, &PredictorView::settingsChanged, controller_,
+          &StudyController::setPredictorViewChoices);
   tabs_->addTab(predictorView_, tr("&Predictor space"));
   comparisonView_ = new ComparisonView;
   tabs_->addTab(comparisonView_, tr("&Comparison"));
   subgroupView_ = new SubgroupView;
-  connect(subgroupView_, &SubgroupView::thresholdPicked, this, &MainWindow::setThreshold);
+  connect(subgroupView_, &SubgroupView::thresholdPicked, controller_,
+          &StudyController::setThreshold);
   connect(subgroupView_->chartPanel(), &ChartPanel::exportRequested, this,
           &MainWindow::onExportChart);
   connect(subgroupView_->chartPanel(), &ChartPanel::nudgeRequested, this,
@@ -122,24 +118,41 @@ MainWindow::MainWindow(QWidget* parent) : QMainWindow(parent) {
   buildMenus();
   buildToolBar();
 
-  connect(job_, &BackgroundJob::progressChanged, this,
+  connect(job, &BackgroundJob::progressChanged, this,
           [this](int permille) { progress_->setValue(permille); });
-  connect(job_, &BackgroundJob::started, this, [this](const QString& what) {
+  connect(job, &BackgroundJob::started, this, [this](const QString& what) {
     progress_->setFormat(what + QStringLiteral(" %p%"));
     progress_->setVisible(true);
     updateActions();
   });
-  connect(job_, &BackgroundJob::finished, this, [this]() {
+  connect(job, &BackgroundJob::finished, this, [this]() {
     progress_->setVisible(false);
     updateActions();
   });
-  connect(job_, &BackgroundJob::failed, this,
+  connect(job, &BackgroundJob::failed, this,
           [this](const QString& message) { showMessage(message, true); });
-  connect(job_, &BackgroundJob::cancelled, this,
+  connect(job, &BackgroundJob::cancelled, this,
           [this]() { showMessage(tr("Cancelled. The previous results are unchanged."), false); });
 
-  thresholdBar_->setThreshold(study_.analysis.threshold);
-  thresholdBar_->setReasonableRange(study_.analysis.reasonableLo, study_.analysis.reasonableHi);
+  // The views observe the controller; nothing else changes them.
+  connect(controller_, &StudyController::resultsChanged, this, [this]() {
+    showStudySettings();
+    rebuildViews();
+    updateStatus();
+    updateActions();
+  });
+  connect(controller_, &StudyController::thresholdChanged, this, [this](double t) {
+    thresholdBar_->setThreshold(t);
+    applyThreshold();
+  });
+  connect(controller_, &StudyController::studyPathChanged, this, [this](const QString& path) {
+    addRecentStudy(path);
+    updateStatus();
+  });
+  connect(controller_, &StudyController::message, this, &MainWindow::showMessage);
+  connect(controller_, &StudyController::messageCleared, this, &MainWindow::clearMessage);
+
+  showStudySettings();
   rebuildRecentMenu();
   rebuildViews();
   updateStatus();
@@ -150,7 +163,7 @@ MainWindow::MainWindow(QWidget* parent) : QMainWindow(parent) {
 MainWindow::~MainWindow() = default;
 
 void MainWindow::nudgeThreshold(int steps) {
-  if (threshold_.nudge(steps)) setThreshold(threshold_.threshold());
+  controller_->nudgeThreshold(steps);
 }
 
 void MainWindow::buildBanner(QWidget* host) {
@@ -228,17 +241,18 @@ void MainWindow::buildMenus() {
   actionRun_ = analysis->addAction(tr("&Run validation"));
   actionRun_->setObjectName(QStringLiteral("actionRunValidation"));
   actionRun_->setShortcut(QKeySequence(Qt::CTRL | Qt::Key_R));
-  connect(actionRun_, &QAction::triggered, this, [this]() { runValidation(); });
+  connect(actionRun_, &QAction::triggered, controller_, &StudyController::runValidation);
   actionCancel_ = analysis->addAction(tr("&Cancel running job"));
   actionCancel_->setObjectName(QStringLiteral("actionCancel"));
   actionCancel_->setShortcut(QKeySequence(Qt::Key_Escape));
-  connect(actionCancel_, &QAction::triggered, job_, &BackgroundJob::cancel);
+  connect(actionCancel_, &QAction::triggered, controller_->job(), &BackgroundJob::cancel);
   actionUncertainty_ = add(
       analysis, QStringLiteral("actionUncertainty"), tr("&Intervals, comparison and subgroups…"),
       QKeySequence(Qt::CTRL | Qt::SHIFT | Qt::Key_B), &MainWindow::onUncertainty);
   QAction* reproduce = analysis->addAction(tr("Re&produce on the command line…"));
   reproduce->setObjectName(QStringLiteral("actionReproduce"));
-  connect(reproduce, &QAction::triggered, this, [this]() { showReproduceDialog(this, study_); });
+  connect(reproduce, &QAction::triggered, this,
+          [this]() { showReproduceDialog(this, controller_->study()); });
   analysis->addSeparator();
   QAction* up = analysis->addAction(tr("Raise threshold by 0.005"));
   up->setObjectName(QStringLiteral("actionThresholdUp"));
@@ -274,16 +288,16 @@ void MainWindow::buildToolBar() {
   groups_ = new QSpinBox;
   groups_->setObjectName(QStringLiteral("groupsSpin"));
   groups_->setRange(static_cast<int>(kGroupsLimit.min), static_cast<int>(kGroupsLimit.max));
-  groups_->setValue(study_.analysis.groups);
+  groups_->setValue(controller_->study().analysis.groups);
   groups_->setToolTip(tr("Number of risk groups for the calibration table and Hosmer-Lemeshow"));
-  connect(groups_, &QSpinBox::valueChanged, this, [this](int g) { study_.analysis.groups = g; });
+  connect(groups_, &QSpinBox::valueChanged, controller_, &StudyController::setGroups);
   apparent_ = new QCheckBox(tr("Cohort is the development data"));
   apparent_->setObjectName(QStringLiteral("apparentCheck"));
   apparent_->setToolTip(
       tr("Tick when the model was developed on this very cohort: the results "
          "are then apparent (optimistic) performance, and Hosmer-Lemeshow uses "
          "g − 2 degrees of freedom"));
-  connect(apparent_, &QCheckBox::toggled, this, [this](bool on) { study_.analysis.apparent = on; });
+  connect(apparent_, &QCheckBox::toggled, controller_, &StudyController::setApparent);
   bar->addWidget(groupsLabel);
   bar->addWidget(groups_);
   bar->addWidget(apparent_);
@@ -317,7 +331,7 @@ QWidget* MainWindow::buildLinkedViewsTab() {
   gridLayout->addWidget(decision_, 1, 0);
   gridLayout->addWidget(distribution_, 1, 1);
   for (ChartPanel* panel : {roc_, calibration_, decision_, distribution_}) {
-    connect(panel, &ChartPanel::thresholdPicked, this, &MainWindow::setThreshold);
+    connect(panel, &ChartPanel::thresholdPicked, controller_, &StudyController::setThreshold);
     connect(panel, &ChartPanel::exportRequested, this, &MainWindow::onExportChart);
     connect(panel, &ChartPanel::nudgeRequested, this, &MainWindow::nudgeThreshold);
   }
@@ -402,27 +416,29 @@ std::vector<ChartPanel*> MainWindow::chartPanels() const {
 }
 
 void MainWindow::closeEvent(QCloseEvent* event) {
-  job_->cancel();
-  job_->waitForFinished();
+  controller_->job()->cancel();
+  controller_->job()->waitForFinished();
   event->accept();
 }
 
 void MainWindow::updateActions() {
-  const bool busy = job_->isRunning();
+  const StudyState& study = controller_->study();
+  const bool busy = controller_->job()->isRunning();
   for (QAction* a : {actionOpen_, actionImport_, actionLoadModel_, actionFit_, actionRun_}) {
     a->setEnabled(!busy);
   }
-  actionMap_->setEnabled(!busy && study_.model.has_value() && table_ != nullptr);
+  actionMap_->setEnabled(!busy && study.model.has_value() && controller_->table() != nullptr);
   actionCancel_->setEnabled(busy);
-  actionUncertainty_->setEnabled(!busy && study_.result != nullptr && cohort_ != nullptr);
+  actionUncertainty_->setEnabled(!busy && study.result != nullptr &&
+                                 controller_->cohort() != nullptr);
   for (QAction* a : {actionInternal_, actionUpdate_}) {
-    a->setEnabled(!busy && study_.model.has_value() && cohort_ != nullptr);
+    a->setEnabled(!busy && study.model.has_value() && controller_->cohort() != nullptr);
   }
-  actionSave_->setEnabled(study_.data.has_value());
-  actionSaveAs_->setEnabled(study_.data.has_value());
-  actionExportCharts_->setEnabled(study_.result != nullptr);
-  actionExportTable_->setEnabled(study_.result != nullptr);
-  actionExportReport_->setEnabled(reportExportAvailable() && study_.result != nullptr);
+  actionSave_->setEnabled(study.data.has_value());
+  actionSaveAs_->setEnabled(study.data.has_value());
+  actionExportCharts_->setEnabled(study.result != nullptr);
+  actionExportTable_->setEnabled(study.result != nullptr);
+  actionExportReport_->setEnabled(reportExportAvailable() && study.result != nullptr);
 }
 
 }  // namespace calivera::ui

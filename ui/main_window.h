@@ -1,20 +1,19 @@
 #pragma once
-// The workstation's main window: caution banner, threshold bar, linked views (ROC, calibration,
-// decision curve, risk distribution, confusion matrix and natural frequencies), summary, tables
-// and the predictor-space views. All heavy work runs through one BackgroundJob; results are
-// applied only when a run succeeds, so a failing file never disturbs the current study.
+// The workstation's main window: layout and actions. The caution banner, threshold bar, linked
+// views (ROC, calibration, decision curve, risk distribution, confusion matrix and natural
+// frequencies), summary, tables and the predictor-space views all observe one StudyController,
+// which owns the study, its run and the threshold, and runs every computation in the background;
+// results are applied only when a run succeeds, so a failing file never disturbs the current study.
 //
-// Every widget has an objectName; tests drive the window through them and through the public
-// methods below, which are what the menu actions call.
+// Every widget has an objectName; tests drive the window through them and through controller(),
+// whose methods are what the menu actions call.
 
 #include <QMainWindow>
 #include <QStringList>
 #include <memory>
 #include <vector>
 
-#include "core/study/study.h"
-#include "core/study/study_pipeline.h"
-#include "core/study/threshold_state.h"
+#include "ui/study_controller.h"
 
 class QAction;
 class QLabel;
@@ -55,39 +54,14 @@ class MainWindow : public QMainWindow {
   explicit MainWindow(QWidget* parent = nullptr);
   ~MainWindow() override;
 
-  // Starts loading; the result arrives asynchronously (job()->finished()). Return false when the
-  // request was refused (a job is running, the file cannot be read), with a message shown.
-  bool openStudy(const QString& path);
-  bool saveStudy(const QString& path);
-  // Cohort and model in one run (the command line's --data/--model); model may be empty.
-  bool openInputs(const QString& data, const QString& model, const ImportSettings& settings);
-  bool importCohort(const QString& path, const ImportSettings& settings,
-                    std::shared_ptr<const Table> loaded = nullptr);
-  bool loadModelFile(const QString& path);
-  // A model file saved by the update dialog, validated on the same patients: marked apparent,
-  // with the study's uncertainty settings run again for it.
-  bool validateUpdatedModel(const QString& path);
-  bool useFittedModel(const FitSettings& fit, const Model& model,
-                      const std::vector<std::string>& warnings);
-  bool setColumnMapping(const std::map<std::string, std::string>& mapping);
-  bool runValidation();
-  // Bootstrap intervals and bands, comparison and subgroups on the current analysis, in the
-  // background. Success replaces study().uncertainty and study().uncertaintySettings; cancel or
-  // failure keeps the previous results, with a message.
-  bool runUncertainty(const UncertaintySettings& settings);
-  void setThreshold(double threshold);
+  // The study, its run and its threshold; every action goes through it (ui/study_controller.h).
+  StudyController& controller() const { return *controller_; }
 
   // Exports every chart as NAME.png and NAME.svg into `folder`; empty string on success.
   QString exportAllCharts(const QString& folder);
 
-  const StudyState& study() const { return study_; }
-  const ThresholdState& thresholdState() const { return threshold_; }
-  std::shared_ptr<const CohortData> cohort() const { return cohort_; }
-  std::shared_ptr<const Table> table() const { return table_; }
-  BackgroundJob* job() const { return job_; }
   QString messageText() const;
   std::vector<ChartPanel*> chartPanels() const;
-  QString studyPath() const { return studyPath_; }
   // Milliseconds the last threshold move took to update every linked view (not painting).
   double lastThresholdUpdateMs() const { return lastUpdateMs_; }
 
@@ -98,6 +72,7 @@ class MainWindow : public QMainWindow {
   void closeEvent(QCloseEvent* event) override;
 
  private:
+  const StudyState& study() const { return controller_->study(); }
   void buildBanner(QWidget* host);
   void buildMenus();
   void buildToolBar();
@@ -107,10 +82,10 @@ class MainWindow : public QMainWindow {
   QTableView* makeTableView(const QString& objectName, RecordTableModel* model,
                             QSortFilterProxyModel** proxyOut);
 
-  bool startPipeline(PipelineRequest request, const QString& description,
-                     const QString& studyPathOnSuccess);
-  void applyPipeline(PipelineOutput& output, const QString& studyPathOnSuccess);
+  // Every view from the controller's study, run and uncertainty results, at its threshold.
   void rebuildViews();
+  // The settings widgets (threshold bar, groups, development-data box) from the study.
+  void showStudySettings();
   // Bootstrap bands and the further models' curves from study_.uncertainty, when present.
   void addUncertaintyLayers(charts::RocChart& roc, charts::CalibrationChart& calibration,
                             charts::DecisionCurveChart& decision) const;
@@ -137,14 +112,9 @@ class MainWindow : public QMainWindow {
   void onInternalValidation();  // main_window_model_tools.cpp
   void onUpdateModel();
 
-  StudyState study_;
-  QString studyPath_;
-  std::shared_ptr<const Table> table_;
-  std::shared_ptr<const CohortData> cohort_;
-  ThresholdState threshold_;
+  StudyController* controller_ = nullptr;
   double lastUpdateMs_ = 0.0;
 
-  BackgroundJob* job_ = nullptr;
   QLabel* banner_ = nullptr;
   QWidget* messageBar_ = nullptr;
   QLabel* messageText_ = nullptr;

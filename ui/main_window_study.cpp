@@ -1,4 +1,5 @@
-// MainWindow: studies, background runs, and keeping every linked view in step with the threshold.
+// MainWindow: the views drawn from the controller's study and run, kept in step with its threshold,
+// and the menu actions that open dialogs and hand their choices to the controller.
 #include <QApplication>
 #include <QCheckBox>
 #include <QClipboard>
@@ -67,56 +68,8 @@ bool reportExportAvailable() {
 #endif
 }
 
-bool MainWindow::startPipeline(PipelineRequest request, const QString& description,
-                               const QString& studyPathOnSuccess) {
-  if (job_->isRunning()) {
-    showMessage(tr("Another computation is still running; wait for it or cancel it."), true);
-    return false;
-  }
-  std::function<PipelineOutput(const ProgressCallback&)> work =
-      [request = std::move(request)](const ProgressCallback& progress) {
-        return runPipeline(request, progress);
-      };
-  std::function<void(PipelineOutput&)> done = [this, studyPathOnSuccess](PipelineOutput& out) {
-    applyPipeline(out, studyPathOnSuccess);
-  };
-  return job_->start<PipelineOutput>(description, work, done);
-}
-
-void MainWindow::applyPipeline(PipelineOutput& output, const QString& studyPathOnSuccess) {
-  study_ = std::move(output.study);
-  table_ = output.table;
-  cohort_ = output.cohort;
-  if (!studyPathOnSuccess.isEmpty()) {
-    studyPath_ = studyPathOnSuccess;
-    addRecentStudy(studyPath_);
-  }
-  if (cohort_) {
-    threshold_.setData(cohort_->risk(), cohort_->outcome());
-  } else {
-    threshold_.clear();
-  }
-  threshold_.setThreshold(study_.analysis.threshold);
-  thresholdBar_->setThreshold(threshold_.threshold());
-  thresholdBar_->setReasonableRange(study_.analysis.reasonableLo, study_.analysis.reasonableHi);
-  groups_->setValue(study_.analysis.groups);
-  apparent_->setChecked(study_.analysis.apparent);
-  rebuildViews();
-  updateStatus();
-  updateActions();
-  QString text;
-  for (const auto& w : output.inputWarnings) text += (text.isEmpty() ? "" : "\n") + toQ(w);
-  if (!text.isEmpty()) text += tr("\nResults are recomputed from the files as they are now.");
-  for (const auto& n : output.notes) text += (text.isEmpty() ? "" : "\n") + toQ(n);
-  if (!text.isEmpty()) {
-    showMessage(text, !output.inputWarnings.empty());
-  } else if (study_.result) {
-    clearMessage();
-  }
-}
-
 void MainWindow::rebuildViews() {
-  const ValidationResult* r = study_.result.get();
+  const ValidationResult* r = study().result.get();
   if (r == nullptr) {
     for (ChartPanel* p : {roc_, calibration_, decision_, distribution_}) p->setLinkedChart(nullptr);
     thresholdModel_->setTable({}, {}, {});
@@ -126,7 +79,7 @@ void MainWindow::rebuildViews() {
     auto* roc = new charts::RocChart(r->discrimination);
     auto* calibration = new charts::CalibrationChart(r->calibration, r->distribution);
     auto* decision = new charts::DecisionCurveChart(r->decisionCurve, r->cohort);
-    decision->setReasonableRange(study_.analysis.reasonableLo, study_.analysis.reasonableHi);
+    decision->setReasonableRange(study().analysis.reasonableLo, study().analysis.reasonableHi);
     addUncertaintyLayers(*roc, *calibration, *decision);
     roc_->setLinkedChart(roc);
     calibration_->setLinkedChart(calibration);
@@ -135,39 +88,39 @@ void MainWindow::rebuildViews() {
     fillThresholdTable(*thresholdModel_, r->thresholds, r->decisionCurve);
     fillHosmerLemeshowTable(*hlModel_, r->hosmerLemeshow);
   }
-  if (study_.model) {
-    fillCoefficientTable(*coefficientModel_, *study_.model);
+  if (study().model) {
+    fillCoefficientTable(*coefficientModel_, *study().model);
     // Names from files: escaped, invisible controls written out, long ones cut so a word-wrapped
     // label cannot widen the window; the tooltip holds them in full.
     const auto shown = [](const std::string& text, std::size_t chars) {
       return toQ(visibleName(text, chars)).toHtmlEscaped();
     };
-    QString info = tr("<b>%1</b>").arg(shown(study_.model->name, 80));
-    if (!study_.model->outcome.empty()) {
-      info += tr(" — predicts %1").arg(shown(study_.model->outcome, 80));
+    QString info = tr("<b>%1</b>").arg(shown(study().model->name, 80));
+    if (!study().model->outcome.empty()) {
+      info += tr(" — predicts %1").arg(shown(study().model->outcome, 80));
     }
     info +=
-        study_.modelSource == ModelSource::Fitted
+        study().modelSource == ModelSource::Fitted
             ? tr("<br>Fitted here by %1.")
-                  .arg(study_.fit.firth ? tr("Firth's penalized likelihood")
-                                        : tr("maximum likelihood"))
+                  .arg(study().fit.firth ? tr("Firth's penalized likelihood")
+                                         : tr("maximum likelihood"))
             : tr("<br>Read from %1.")
-                  .arg(
-                      study_.modelFile
-                          ? shown(std::filesystem::path(study_.modelFile->path).filename().string(),
-                                  60)
-                          : QString());
+                  .arg(study().modelFile
+                           ? shown(
+                                 std::filesystem::path(study().modelFile->path).filename().string(),
+                                 60)
+                           : QString());
     modelInfo_->setToolTip(
-        toQ(visibleName(study_.model->name, 4096)) +
-        (study_.modelFile ? "\n" + toQ(visibleName(study_.modelFile->path, 4096)) : QString()));
-    if (study_.model->development.n) {
-      info += tr(" Development data: %1 patients").arg(*study_.model->development.n);
-      if (study_.model->development.events) {
-        info += tr(", %1 events").arg(*study_.model->development.events);
+        toQ(visibleName(study().model->name, 4096)) +
+        (study().modelFile ? "\n" + toQ(visibleName(study().modelFile->path, 4096)) : QString()));
+    if (study().model->development.n) {
+      info += tr(" Development data: %1 patients").arg(*study().model->development.n);
+      if (study().model->development.events) {
+        info += tr(", %1 events").arg(*study().model->development.events);
       }
       info += QStringLiteral(".");
     }
-    for (const auto& w : study_.modelWarnings) {
+    for (const auto& w : study().modelWarnings) {
       info += tr("<br><span style='color:#a04000'><b>Warning:</b> %1</span>")
                   .arg(toQ(w).toHtmlEscaped());
     }
@@ -179,24 +132,24 @@ void MainWindow::rebuildViews() {
         tr("No model yet: load a model file (Model → Load model file) or fit one "
            "on the cohort (Model → Fit a model)."));
   }
-  summary_->setHtml(summaryHtml(study_));
-  if (study_.uncertainty && study_.result) {
-    confusion_->setAdequacy(toQ(study_.uncertainty->sampleSize.verdict),
-                            study_.uncertainty->sampleSize.adequate);
+  summary_->setHtml(summaryHtml(study()));
+  if (study().uncertainty && study().result) {
+    confusion_->setAdequacy(toQ(study().uncertainty->sampleSize.verdict),
+                            study().uncertainty->sampleSize.adequate);
   } else {
     confusion_->setAdequacy({}, false);
   }
-  comparisonView_->setResults(study_.uncertainty, study_.analysis.reasonableLo,
-                              study_.analysis.reasonableHi);
-  subgroupView_->setResults(study_.uncertainty);
-  predictorView_->setData(study_.model ? &*study_.model : nullptr, cohort_, study_.columnMapping,
-                          study_.predictorView, study_.heldValues);
+  comparisonView_->setResults(study().uncertainty, study().analysis.reasonableLo,
+                              study().analysis.reasonableHi);
+  subgroupView_->setResults(study().uncertainty);
+  predictorView_->setData(study().model ? &*study().model : nullptr, controller_->cohort(),
+                          study().columnMapping, study().predictorView, study().heldValues);
   applyThreshold();
 }
 
 void MainWindow::addUncertaintyLayers(charts::RocChart& roc, charts::CalibrationChart& calibration,
                                       charts::DecisionCurveChart& decision) const {
-  const UncertaintyResults* u = study_.uncertainty.get();
+  const UncertaintyResults* u = study().uncertainty.get();
   if (u == nullptr) return;
   if (u->bootstrap) {
     calibration.setCurveBand(u->bootstrap->calibrationCurve);
@@ -205,7 +158,7 @@ void MainWindow::addUncertaintyLayers(charts::RocChart& roc, charts::Calibration
   if (!u->comparison) return;
   // Further models only (the study's own model is the main curve); comparedResults[0] is the
   // study's model on the comparison rows.
-  const bool fewer = study_.result && u->comparisonRows < study_.result->cohort.n;
+  const bool fewer = study().result && u->comparisonRows < study().result->cohort.n;
   for (std::size_t m = 1; m < u->comparedResults.size() && m < u->comparison->models.size(); ++m) {
     QString name = toQ(u->comparison->models[m]);
     if (fewer) name += tr(" (on %1 patients)").arg(u->comparisonRows);
@@ -216,22 +169,24 @@ void MainWindow::addUncertaintyLayers(charts::RocChart& roc, charts::Calibration
   }
 }
 
-void MainWindow::setThreshold(double threshold) {
-  threshold_.setThreshold(threshold);
-  study_.analysis.threshold = threshold_.threshold();
-  thresholdBar_->setThreshold(threshold_.threshold());
-  applyThreshold();
+void MainWindow::showStudySettings() {
+  const AnalysisSettings& analysis = study().analysis;
+  thresholdBar_->setThreshold(controller_->thresholdState().threshold());
+  thresholdBar_->setReasonableRange(analysis.reasonableLo, analysis.reasonableHi);
+  // Setting the widgets sends the same values back to the controller: harmless, no run starts.
+  groups_->setValue(analysis.groups);
+  apparent_->setChecked(analysis.apparent);
 }
 
 void MainWindow::applyThreshold() {
   QElapsedTimer timer;
   timer.start();
-  if (threshold_.hasData()) {
-    const ThresholdSnapshot snapshot = threshold_.snapshot();
+  if (controller_->thresholdState().hasData()) {
+    const ThresholdSnapshot snapshot = controller_->thresholdState().snapshot();
     for (ChartPanel* p : {roc_, calibration_, decision_, distribution_}) {
       if (p->linkedChart() != nullptr) p->linkedChart()->setThreshold(snapshot);
     }
-    confusion_->setSnapshot(snapshot, study_.result ? &study_.result->calibration : nullptr);
+    confusion_->setSnapshot(snapshot, study().result ? &study().result->calibration : nullptr);
     subgroupView_->setThreshold(snapshot);
     predictorView_->setThreshold(snapshot);
     highlightThresholdRow();
@@ -240,8 +195,9 @@ void MainWindow::applyThreshold() {
 }
 
 void MainWindow::highlightThresholdRow() {
-  if (!study_.result) return;
-  const int row = nearestThresholdRow(study_.result->thresholds, threshold_.threshold());
+  if (!study().result) return;
+  const int row =
+      nearestThresholdRow(study().result->thresholds, controller_->thresholdState().threshold());
   if (row < 0) return;
   const QModelIndex index = thresholdProxy_->mapFromSource(thresholdModel_->index(row, 0));
   thresholdTable_->selectionModel()->setCurrentIndex(
@@ -257,155 +213,32 @@ void MainWindow::updateStatus() {
   };
   QStringList parts;
   QStringList full;
-  if (study_.data) {
-    const std::string file = std::filesystem::path(study_.data->path).filename().string();
-    parts << tr("Cohort: %1 (%2 rows)").arg(name(file, 40)).arg(table_ ? table_->rowCount : 0);
-    full << tr("Cohort: %1").arg(name(study_.data->path, 4096));
+  if (study().data) {
+    const std::string file = std::filesystem::path(study().data->path).filename().string();
+    parts << tr("Cohort: %1 (%2 rows)")
+                 .arg(name(file, 40))
+                 .arg(controller_->table() ? controller_->table()->rowCount : 0);
+    full << tr("Cohort: %1").arg(name(study().data->path, 4096));
   } else {
     parts << tr("No cohort: File → Import cohort CSV");
   }
-  if (study_.model) {
-    parts << tr("Model: %1").arg(name(study_.model->name, 50));
-    full << tr("Model: %1").arg(name(study_.model->name, 4096));
+  if (study().model) {
+    parts << tr("Model: %1").arg(name(study().model->name, 50));
+    full << tr("Model: %1").arg(name(study().model->name, 4096));
   }
   status_->setToolTip(full.join('\n'));
-  if (study_.result) {
+  if (study().result) {
     parts << tr("%1 patients analysed, %2 events")
-                 .arg(study_.result->cohort.n)
-                 .arg(study_.result->cohort.events);
+                 .arg(study().result->cohort.n)
+                 .arg(study().result->cohort.events);
   }
-  if (!studyPath_.isEmpty()) parts << tr("Study: %1").arg(QFileInfo(studyPath_).fileName());
+  if (!controller_->studyPath().isEmpty())
+    parts << tr("Study: %1").arg(QFileInfo(controller_->studyPath()).fileName());
   status_->setText(parts.join(QStringLiteral("  ·  ")));
-  setWindowTitle(studyPath_.isEmpty()
-                     ? tr("Calivera workstation")
-                     : tr("%1 — Calivera workstation").arg(QFileInfo(studyPath_).fileName()));
-}
-
-bool MainWindow::openStudy(const QString& path) {
-  StudyState candidate;
-  try {
-    candidate = readStudyFile(path.toStdString());
-  } catch (const std::exception& e) {
-    showMessage(tr("Could not open the study: %1").arg(toQ(e.what())), true);
-    return false;
-  }
-  PipelineRequest request;
-  request.study = candidate;
-  request.withUncertainty = true;      // recompute what the study's uncertainty settings ask for
-  request.checkRecordedInputs = true;  // hashed on the worker, reported with the results
-  return startPipeline(request, tr("Opening study"), path);
-}
-
-bool MainWindow::saveStudy(const QString& path) {
-  try {
-    writeStudyFile(path.toStdString(), study_);
-  } catch (const std::exception& e) {
-    showMessage(tr("Could not save the study: %1").arg(toQ(e.what())), true);
-    return false;
-  }
-  studyPath_ = path;
-  addRecentStudy(path);
-  updateStatus();
-  showMessage(tr("Study saved to %1").arg(path), false);
-  return true;
-}
-
-bool MainWindow::importCohort(const QString& path, const ImportSettings& settings,
-                              std::shared_ptr<const Table> loaded) {
-  PipelineRequest request;
-  request.study = study_;
-  request.study.data = InputFileRecord{std::filesystem::absolute(path.toStdString()).string(), {}};
-  request.study.import = settings;
-  request.table = loaded;
-  if (request.study.modelSource == ModelSource::Fitted) {
-    request.study.modelSource = ModelSource::None;  // a fit belongs to its own cohort
-    request.study.model.reset();
-  }
-  return startPipeline(request, tr("Reading cohort"), {});
-}
-
-bool MainWindow::openInputs(const QString& data, const QString& model,
-                            const ImportSettings& settings) {
-  PipelineRequest request;
-  request.study.data = InputFileRecord{std::filesystem::absolute(data.toStdString()).string(), {}};
-  request.study.import = settings;
-  if (!model.isEmpty()) {
-    request.study.modelSource = ModelSource::File;
-    request.study.modelFile = InputFileRecord{model.toStdString(), {}};
-  }
-  return startPipeline(request, tr("Opening cohort and model"), {});
-}
-
-bool MainWindow::loadModelFile(const QString& path) {
-  if (!study_.data) {
-    showMessage(tr("Import a cohort first (File → Import cohort CSV), then load the model."), true);
-    return false;
-  }
-  PipelineRequest request;
-  request.study = study_;
-  request.study.modelSource = ModelSource::File;
-  request.study.modelFile = InputFileRecord{path.toStdString(), {}};
-  request.study.model.reset();
-  request.study.columnMapping.clear();
-  request.table = table_;
-  return startPipeline(request, tr("Loading model and validating"), {});
-}
-
-bool MainWindow::useFittedModel(const FitSettings& fit, const Model& model,
-                                const std::vector<std::string>& warnings) {
-  PipelineRequest request;
-  request.study = study_;
-  request.study.modelSource = ModelSource::Fitted;
-  request.study.fit = fit;
-  request.study.model = model;
-  request.study.modelWarnings = warnings;
-  request.study.modelFile.reset();
-  request.study.columnMapping.clear();
-  request.table = table_;
-  return startPipeline(request, tr("Validating the fitted model"), {});
-}
-
-bool MainWindow::setColumnMapping(const std::map<std::string, std::string>& mapping) {
-  PipelineRequest request;
-  request.study = study_;
-  request.study.columnMapping = mapping;
-  request.table = table_;
-  return startPipeline(request, tr("Validating"), {});
-}
-
-bool MainWindow::runValidation() {
-  if (!study_.data) {
-    showMessage(tr("Import a cohort first (File → Import cohort CSV)."), true);
-    return false;
-  }
-  PipelineRequest request;
-  request.study = study_;
-  request.table = table_;
-  return startPipeline(request, tr("Validating"), {});
-}
-
-bool MainWindow::runUncertainty(const UncertaintySettings& settings) {
-  if (job_->isRunning()) {
-    showMessage(tr("Another computation is still running; wait for it or cancel it."), true);
-    return false;
-  }
-  if (!study_.result || !cohort_) {
-    showMessage(tr("Run the validation first (Analysis → Run validation)."), true);
-    return false;
-  }
-  std::function<UncertaintyResults(const ProgressCallback&)> work =
-      [cohort = cohort_, result = study_.result, settings](const ProgressCallback& progress) {
-        return computeUncertainty(*cohort, *result, settings, progress);
-      };
-  std::function<void(UncertaintyResults&)> done =
-      [this, settings, basis = validationBasis(study_)](UncertaintyResults& results) {
-        study_.uncertaintySettings = withComparedHashes(settings, results);
-        study_.uncertaintyBasis = basis;
-        study_.uncertainty = std::make_shared<const UncertaintyResults>(std::move(results));
-        rebuildViews();
-        clearMessage();
-      };
-  return job_->start<UncertaintyResults>(tr("Intervals, comparison and subgroups"), work, done);
+  setWindowTitle(
+      controller_->studyPath().isEmpty()
+          ? tr("Calivera workstation")
+          : tr("%1 — Calivera workstation").arg(QFileInfo(controller_->studyPath()).fileName()));
 }
 
 QString MainWindow::exportAllCharts(const QString& folder) {
@@ -421,54 +254,56 @@ QString MainWindow::exportAllCharts(const QString& folder) {
 
 void MainWindow::onImportCohort() {
   ImportDialog dialog(this);
-  if (study_.data) dialog.setInitial(toQ(study_.data->path), study_.import);
+  if (study().data) dialog.setInitial(toQ(study().data->path), study().import);
   if (dialog.exec() != QDialog::Accepted) return;
-  importCohort(dialog.path(), dialog.settings(), dialog.loadedTable());
+  controller_->importCohort(dialog.path(), dialog.settings(), dialog.loadedTable());
 }
 
 void MainWindow::onLoadModel() {
   const QString path = QFileDialog::getOpenFileName(this, tr("Load model file"), QString(),
                                                     tr("Calivera model (*.json);;All files (*)"));
-  if (!path.isEmpty()) loadModelFile(path);
+  if (!path.isEmpty()) controller_->loadModelFile(path);
 }
 
 void MainWindow::onFitModel() {
-  if (!table_ || study_.import.outcomeColumn.empty()) {
+  if (!controller_->table() || study().import.outcomeColumn.empty()) {
     showMessage(tr("Import a cohort and choose its outcome column before fitting a model."), true);
     return;
   }
-  FitDialog dialog(table_, study_.import, study_.fit, this);
+  FitDialog dialog(controller_->table(), study().import, study().fit, this);
   if (dialog.exec() != QDialog::Accepted || !dialog.fitted()) return;
-  useFittedModel(dialog.fittedWith(), dialog.fitted()->model, dialog.fitted()->warnings);
+  controller_->useFittedModel(dialog.fittedWith(), dialog.fitted()->model,
+                              dialog.fitted()->warnings);
 }
 
 void MainWindow::onMapVariables() {
-  if (!study_.model || !table_) return;
-  MappingDialog dialog(*study_.model, *table_, study_.columnMapping, this);
+  if (!study().model || !controller_->table()) return;
+  MappingDialog dialog(*study().model, *controller_->table(), study().columnMapping, this);
   if (dialog.exec() != QDialog::Accepted) return;
-  setColumnMapping(dialog.mapping());
+  controller_->setColumnMapping(dialog.mapping());
 }
 
 void MainWindow::onUncertainty() {
-  if (!study_.result || !table_) return;
-  UncertaintyDialog dialog(study_.uncertaintySettings, *table_, study_.import.outcomeColumn, this);
+  if (!study().result || !controller_->table()) return;
+  UncertaintyDialog dialog(study().uncertaintySettings, *controller_->table(),
+                           study().import.outcomeColumn, this);
   if (dialog.exec() != QDialog::Accepted) return;
-  runUncertainty(dialog.settings());
+  controller_->runUncertainty(dialog.settings());
 }
 
 void MainWindow::onOpenStudy() {
   const QString path = QFileDialog::getOpenFileName(
       this, tr("Open study"), QString(), tr("Calivera study (*.cvstudy *.json);;All files (*)"));
-  if (!path.isEmpty()) openStudy(path);
+  if (!path.isEmpty()) controller_->openStudy(path);
 }
 
 void MainWindow::onSaveStudy(bool askPath) {
-  QString path = studyPath_;
+  QString path = controller_->studyPath();
   if (askPath || path.isEmpty()) {
     path = QFileDialog::getSaveFileName(this, tr("Save study"), path,
                                         tr("Calivera study (*.cvstudy)"));
   }
-  if (!path.isEmpty()) saveStudy(path);
+  if (!path.isEmpty()) controller_->saveStudy(path);
 }
 
 void MainWindow::onExportCharts() {
@@ -543,7 +378,7 @@ void MainWindow::onCopyTable() {
 
 void MainWindow::onExportReport() {
 #ifdef CALIVERA_HAVE_REPORT_DIALOG
-  showReportExportDialog(this, study_);
+  showReportExportDialog(this, study());
 #else
   showMessage(tr("The PDF report export is not available in this build."), true);
 #endif
@@ -566,7 +401,8 @@ void MainWindow::rebuildRecentMenu() {
   for (int i = 0; i < recent.size(); ++i) {
     QAction* a = recentMenu_->addAction(QStringLiteral("&%1 %2").arg(i + 1).arg(recent[i]));
     a->setObjectName(QStringLiteral("actionRecentStudy%1").arg(i + 1));
-    connect(a, &QAction::triggered, this, [this, path = recent[i]]() { openStudy(path); });
+    connect(a, &QAction::triggered, this,
+            [this, path = recent[i]]() { controller_->openStudy(path); });
   }
   recentMenu_->setEnabled(!recent.isEmpty());
 }

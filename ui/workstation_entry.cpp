@@ -95,12 +95,12 @@ int runWorkstation(int argc, char** argv) {
   MainWindow window;
   window.show();
   if (!options.study.isEmpty()) {
-    window.openStudy(options.study);
+    window.controller().openStudy(options.study);
   } else if (!options.data.isEmpty()) {
     ImportSettings settings;
     settings.outcomeColumn = options.outcome.toStdString();
     if (!options.event.isEmpty()) settings.eventValue = options.event.toStdString();
-    window.openInputs(options.data, options.model, settings);
+    window.controller().openInputs(options.data, options.model, settings);
   }
   return QApplication::exec();
 }

@@ -35,8 +35,8 @@ class HostileNamesUiTest : public QObject {
     w.show();
     ImportSettings import;
     import.outcomeColumn = "low";
-    QVERIFY(w.openInputs(QString::fromStdString(data), model, import));
-    QTRY_VERIFY_WITH_TIMEOUT(!w.job()->isRunning(), 60000);
+    QVERIFY(w.controller().openInputs(QString::fromStdString(data), model, import));
+    QTRY_VERIFY_WITH_TIMEOUT(!w.controller().job()->isRunning(), 60000);
     auto* status = w.findChild<QLabel*>("studyStatus");
     QVERIFY(status != nullptr);
     QCOMPARE(status->textFormat(), Qt::PlainText);

@@ -112,7 +112,7 @@ std::string sha256OfFileForTest(const QString& p) {
 }
 
 void waitForJob(MainWindow& w) {
-  QTRY_VERIFY_WITH_TIMEOUT(!w.job()->isRunning(), 60000);
+  QTRY_VERIFY_WITH_TIMEOUT(!w.controller().job()->isRunning(), 60000);
 }
 
 template <class T>
@@ -230,24 +230,24 @@ class MainWindowTest : public QObject {
   }
 
   void openSample(MainWindow& w) {
-    QVERIFY(w.openStudy(kSampleStudy));
+    QVERIFY(w.controller().openStudy(kSampleStudy));
     waitForJob(w);
-    QVERIFY2(w.study().result != nullptr, qPrintable(w.messageText()));
+    QVERIFY2(w.controller().study().result != nullptr, qPrintable(w.messageText()));
   }
 
   void runUncertainty(MainWindow& w, const UncertaintySettings& s) {
-    QVERIFY(w.runUncertainty(s));
+    QVERIFY(w.controller().runUncertainty(s));
     waitForJob(w);
-    QVERIFY2(w.study().uncertainty != nullptr, qPrintable(w.messageText()));
-    QVERIFY2(w.study().uncertainty->bootstrap.has_value() == (s.bootstrapReplicates > 0),
+    QVERIFY2(w.controller().study().uncertainty != nullptr, qPrintable(w.messageText()));
+    QVERIFY2(w.controller().study().uncertainty->bootstrap.has_value() == (s.bootstrapReplicates > 0),
              qPrintable(w.messageText()));
   }
 
   // Opens the simulated study and waits for the validation.
   void openStudy(MainWindow& w) {
-    QVERIFY(w.openStudy(study_));
+    QVERIFY(w.controller().openStudy(study_));
     waitForJob(w);
-    QVERIFY2(w.study().result != nullptr, qPrintable(w.messageText()));
+    QVERIFY2(w.controller().study().result != nullptr, qPrintable(w.messageText()));
   }
 
  private slots:
@@ -290,9 +290,9 @@ class MainWindowTest : public QObject {
     MainWindow w;
     w.show();
     openStudy(w);
-    const ValidationResult& r = *w.study().result;
+    const ValidationResult& r = *w.controller().study().result;
     child<QDoubleSpinBox>(w, "thresholdSpin")->setValue(threshold);
-    QCOMPARE(w.thresholdState().threshold(), threshold);
+    QCOMPARE(w.controller().thresholdState().threshold(), threshold);
 
     // Core's own threshold table row (computed by validate(), not by the UI's index).
     const auto row = std::find_if(
@@ -353,7 +353,7 @@ class MainWindowTest : public QObject {
     openStudy(w);
     const double t = 0.1372;
     child<QDoubleSpinBox>(w, "thresholdSpin")->setValue(t);
-    const auto cohort = w.cohort();
+    const auto cohort = w.controller().cohort();
     std::size_t tp = 0, fp = 0;
     for (std::size_t i = 0; i < cohort->risk().size(); ++i) {
       if (cohort->risk()[i] >= t) (cohort->outcome()[i] > 0.5 ? tp : fp)++;
@@ -367,16 +367,16 @@ class MainWindowTest : public QObject {
     MainWindow w;
     w.show();
     openStudy(w);
-    w.setThreshold(0.2);
+    w.controller().setThreshold(0.2);
     auto* roc = child<ChartPanel>(w, "rocView");
     roc->setFocus();
     QTest::keyClick(roc, Qt::Key_Right);
-    QCOMPARE(w.thresholdState().threshold(), 0.205);
+    QCOMPARE(w.controller().thresholdState().threshold(), 0.205);
     QTest::keyClick(roc, Qt::Key_Left);
     QTest::keyClick(roc, Qt::Key_Left);
-    QCOMPARE(w.thresholdState().threshold(), 0.195);
+    QCOMPARE(w.controller().thresholdState().threshold(), 0.195);
     child<QSlider>(w, "thresholdSlider")->setValue(300);
-    QCOMPARE(w.thresholdState().threshold(), 0.3);
+    QCOMPARE(w.controller().thresholdState().threshold(), 0.3);
     QCOMPARE(child<QDoubleSpinBox>(w, "thresholdSpin")->value(), 0.3);
   }
 
@@ -390,54 +390,54 @@ class MainWindowTest : public QObject {
     const QPointF scene = chart->mapToPosition(QPointF(0.3, 0.0), chart->series().last());
     const QPoint pos = panel->mapFromScene(scene);
     QTest::mouseClick(panel->viewport(), Qt::LeftButton, {}, pos);
-    QVERIFY2(std::abs(w.thresholdState().threshold() - 0.3) < 0.01,
-             qPrintable(QString::number(w.thresholdState().threshold())));
+    QVERIFY2(std::abs(w.controller().thresholdState().threshold() - 0.3) < 0.01,
+             qPrintable(QString::number(w.controller().thresholdState().threshold())));
     auto* rocPanel = child<ChartPanel>(w, "rocView");
     auto* roc = dynamic_cast<charts::RocChart*>(rocPanel->linkedChart());
     const RocPoint& p =
-        w.study().result->discrimination.roc[w.study().result->discrimination.roc.size() / 2];
+        w.controller().study().result->discrimination.roc[w.controller().study().result->discrimination.roc.size() / 2];
     const QPoint rocPos =
         rocPanel->mapFromScene(roc->mapToPosition(QPointF(p.fpr, p.tpr), roc->series().last()));
     QTest::mouseClick(rocPanel->viewport(), Qt::LeftButton, {}, rocPos);
     // The nearest ROC point to the click may be a neighbour of p on screen; its threshold is close.
-    QVERIFY(std::abs(w.thresholdState().threshold() - std::clamp(p.threshold, 0.0, 1.0)) < 0.05);
+    QVERIFY(std::abs(w.controller().thresholdState().threshold() - std::clamp(p.threshold, 0.0, 1.0)) < 0.05);
   }
 
   void badStudyFileLeavesTheStudyIntact() {
     MainWindow w;
     w.show();
     openStudy(w);
-    const auto before = w.study().result;
+    const auto before = w.controller().study().result;
     const QString bad = path("broken.cvstudy");
     {
       QFile f(bad);
       QVERIFY(f.open(QIODevice::WriteOnly));
       f.write("{\"format\": \"calivera-study/1\", \"import\": ");
     }
-    QVERIFY(!w.openStudy(bad));
+    QVERIFY(!w.controller().openStudy(bad));
     QVERIFY(w.messageText().contains("broken.cvstudy"));
     QVERIFY(w.messageText().contains("not valid JSON"));
-    QCOMPARE(w.study().result, before);
-    QCOMPARE(w.studyPath(), study_);
+    QCOMPARE(w.controller().study().result, before);
+    QCOMPARE(w.controller().studyPath(), study_);
   }
 
   void badCohortFileLeavesTheStudyIntact() {
     MainWindow w;
     w.show();
     openStudy(w);
-    const auto before = w.study().result;
+    const auto before = w.controller().study().result;
     const QString ragged = path("ragged.csv");
     {
       QFile f(ragged);
       QVERIFY(f.open(QIODevice::WriteOnly));
       f.write("age,sex,marker,died\n60,male,1.2,yes\n61,female\n");
     }
-    ImportSettings s = w.study().import;
-    QVERIFY(w.importCohort(ragged, s));
+    ImportSettings s = w.controller().study().import;
+    QVERIFY(w.controller().importCohort(ragged, s));
     waitForJob(w);
     QVERIFY2(w.messageText().contains("ragged.csv"), qPrintable(w.messageText()));
-    QCOMPARE(w.study().result, before);
-    QCOMPARE(QString::fromStdString(w.study().data->path), cohort_);
+    QCOMPARE(w.controller().study().result, before);
+    QCOMPARE(QString::fromStdString(w.controller().study().data->path), cohort_);
     // A bad model file, too.
     const QString badModel = path("bad_model.json");
     {
@@ -445,10 +445,10 @@ class MainWindowTest : public QObject {
       QVERIFY(f.open(QIODevice::WriteOnly));
       f.write("{\"format\": \"something-else\"}");
     }
-    QVERIFY(w.loadModelFile(badModel));
+    QVERIFY(w.controller().loadModelFile(badModel));
     waitForJob(w);
     QVERIFY2(w.messageText().contains("bad_model.json"), qPrintable(w.messageText()));
-    QCOMPARE(w.study().result, before);
+    QCOMPARE(w.controller().study().result, before);
   }
 
   void saveAndReopenRoundTrip() {
@@ -458,23 +458,23 @@ class MainWindowTest : public QObject {
       MainWindow w;
       w.show();
       openStudy(w);
-      w.setThreshold(0.2125);
+      w.controller().setThreshold(0.2125);
       child<QDoubleSpinBox>(w, "reasonableLoSpin")->setValue(0.08);
       child<QDoubleSpinBox>(w, "reasonableHiSpin")->setValue(0.35);
-      QVERIFY(w.saveStudy(saved));
-      auc = w.study().result->discrimination.auc;
+      QVERIFY(w.controller().saveStudy(saved));
+      auc = w.controller().study().result->discrimination.auc;
     }
     MainWindow w;
     w.show();
-    QVERIFY(w.openStudy(saved));
+    QVERIFY(w.controller().openStudy(saved));
     waitForJob(w);
-    QVERIFY(w.study().result != nullptr);
-    QCOMPARE(w.study().result->discrimination.auc, auc);
-    QCOMPARE(w.thresholdState().threshold(), 0.2125);
+    QVERIFY(w.controller().study().result != nullptr);
+    QCOMPARE(w.controller().study().result->discrimination.auc, auc);
+    QCOMPARE(w.controller().thresholdState().threshold(), 0.2125);
     QCOMPARE(child<QDoubleSpinBox>(w, "thresholdSpin")->value(), 0.2125);
-    QCOMPARE(w.study().analysis.reasonableLo, 0.08);
-    QCOMPARE(w.study().analysis.reasonableHi, 0.35);
-    QCOMPARE(w.study().import.eventValue.value_or(""), std::string("yes"));
+    QCOMPARE(w.controller().study().analysis.reasonableLo, 0.08);
+    QCOMPARE(w.controller().study().analysis.reasonableHi, 0.35);
+    QCOMPARE(w.controller().study().import.eventValue.value_or(""), std::string("yes"));
     QVERIFY(w.messageText().isEmpty());
   }
 
@@ -488,10 +488,10 @@ class MainWindowTest : public QObject {
     QVERIFY(appendTo(data, "70,male,2.5,yes\n"));
     MainWindow w;
     w.show();
-    QVERIFY(w.openStudy(saved));
+    QVERIFY(w.controller().openStudy(saved));
     waitForJob(w);
     QTRY_VERIFY(w.messageText().contains("changed since the study was saved"));
-    QVERIFY(w.study().result != nullptr);
+    QVERIFY(w.controller().study().result != nullptr);
   }
 
   void exportsChartsAndTables() {
@@ -515,14 +515,14 @@ class MainWindowTest : public QObject {
     QVERIFY(f.open(QIODevice::ReadOnly));
     const QList<QByteArray> lines = f.readAll().split('\n');
     QVERIFY(lines.first().startsWith("Threshold,Flagged,TP,FP,TN,FN,Sensitivity"));
-    QCOMPARE(lines.size() - 2, static_cast<int>(w.study().result->thresholds.size()));
+    QCOMPARE(lines.size() - 2, static_cast<int>(w.controller().study().result->thresholds.size()));
   }
 
   void predictorViewsMarkTheThreshold() {
     MainWindow w;
     w.show();
     openStudy(w);
-    w.setThreshold(0.3);
+    w.controller().setThreshold(0.3);
     auto* view = child<PredictorView>(w, "predictorView");
     view->choose("age", "");
     auto* curve = dynamic_cast<charts::RiskCurveChart*>(view->panel()->linkedChart());
@@ -530,7 +530,7 @@ class MainWindowTest : public QObject {
     QVERIFY(!curve->cutPoints().empty());
     // Independent check on the known linear model: risk(age cut) = 0.3 with sex and marker held at
     // the reference level (female) and the cohort median of marker.
-    const auto& predictors = describePredictors(*w.study().model, {}, *w.cohort());
+    const auto& predictors = describePredictors(*w.controller().study().model, {}, *w.controller().cohort());
     double markerMedian = 0;
     for (const auto& p : predictors) {
       if (p.variable == "marker") markerMedian = p.median;
@@ -549,7 +549,7 @@ class MainWindowTest : public QObject {
         QVERIFY(std::abs(kIntercept + kAge * age + kMarker * marker - logit) < 1e-6);
       }
     }
-    w.setThreshold(0.4);
+    w.controller().setThreshold(0.4);
     const double logit4 = std::log(0.4 / 0.6);
     const auto& [age0, marker0] = boundary->boundary().front().front();
     QVERIFY(std::abs(kIntercept + kAge * age0 + kMarker * marker0 - logit4) < 1e-6);
@@ -562,15 +562,15 @@ class MainWindowTest : public QObject {
     const QString html = child<QTextBrowser>(w, "summaryPanel")->toPlainText();
     QVERIFY(html.contains("Calibration hierarchy"));
     QVERIFY(html.contains("AUC"));
-    QVERIFY(html.contains(QString::number(w.study().result->discrimination.auc, 'f', 3)));
+    QVERIFY(html.contains(QString::number(w.controller().study().result->discrimination.auc, 'f', 3)));
   }
 
   // The linked views' side panel repeats core's sample-size verdict under the counts.
   void sidePanelSaysWhetherTheCohortIsLargeEnough() {
     MainWindow w;
     openStudy(w);
-    QVERIFY(w.study().uncertainty != nullptr);
-    const SampleSizeAssessment& s = w.study().uncertainty->sampleSize;
+    QVERIFY(w.controller().study().uncertainty != nullptr);
+    const SampleSizeAssessment& s = w.controller().study().uncertainty->sampleSize;
     auto* label = child<QLabel>(w, "adequacyText");
     QVERIFY(!label->isHidden());
     QVERIFY2(label->text().contains(QString::fromStdString(s.verdict).toHtmlEscaped()),
@@ -586,15 +586,15 @@ class MainWindowTest : public QObject {
     w.show();
     openSample(w);
     // Before anything is asked for, the sample-size assessment is there and shown first.
-    QVERIFY(w.study().uncertainty != nullptr);
-    QVERIFY(!w.study().uncertainty->bootstrap);
+    QVERIFY(w.controller().study().uncertainty != nullptr);
+    QVERIFY(!w.controller().study().uncertainty->bootstrap);
     const QString before = child<QTextBrowser>(w, "summaryPanel")->toPlainText();
     QVERIFY(before.contains("Is the cohort large enough to judge the model?"));
     QVERIFY(before.indexOf("large enough") < before.indexOf("Discrimination"));
 
     const UncertaintySettings settings = sampleSettings();
     runUncertainty(w, settings);
-    const UncertaintyResults& u = *w.study().uncertainty;
+    const UncertaintyResults& u = *w.controller().study().uncertainty;
 
     ValidationRequest request;
     request.dataPath = kSampleCohort.toStdString();
@@ -733,22 +733,22 @@ class MainWindowTest : public QObject {
     }
     QVERIFY(found);
     // The compared model's SHA-256 is recorded in the settings.
-    QCOMPARE(w.study().uncertaintySettings.compareModels[0].sha256,
+    QCOMPARE(w.controller().study().uncertaintySettings.compareModels[0].sha256,
              sha256OfFileForTest(secondModel()));
 
     // The report exported from the workstation carries the same uncertainty results.
     ReportExportRequest reportRequest;
     reportRequest.thresholds = {0.1, 0.2};
-    const AuditReportInput reportInput = auditInputFromStudy(w.study(), reportRequest);
+    const AuditReportInput reportInput = auditInputFromStudy(w.controller().study(), reportRequest);
     QVERIFY(reportInput.uncertainty && reportInput.uncertainty->bootstrap);
     compareBootstrap(*reportInput.uncertainty->bootstrap, *ref.bootstrap);
     QCOMPARE(reportInput.uncertainty->subgroups.size(), std::size_t{1});
     QCOMPARE(reportInput.uncertainty->comparison->pairs[0].auc.difference, t.difference);
 
     // Moving the threshold recomputes nothing.
-    const auto results = w.study().uncertainty;
-    w.setThreshold(0.25);
-    QCOMPARE(w.study().uncertainty, results);
+    const auto results = w.controller().study().uncertainty;
+    w.controller().setThreshold(0.25);
+    QCOMPARE(w.controller().study().uncertainty, results);
   }
 
   // The menu action's dialog: subgroup columns offered from the cohort (not the outcome, not an
@@ -784,15 +784,15 @@ class MainWindowTest : public QObject {
     QVERIFY(offered.contains("sex"));
     QVERIFY(!offered.contains("patient_ref"));
     QVERIFY(!offered.contains("complication_30d"));
-    const UncertaintySettings& s = w.study().uncertaintySettings;
+    const UncertaintySettings& s = w.controller().study().uncertaintySettings;
     QCOMPARE(s.bootstrapReplicates, 20);
     QCOMPARE(s.seed, std::uint64_t{3});
     QCOMPARE(s.subgroupColumns, std::vector<std::string>{"urgency"});
-    QVERIFY(w.study().uncertainty && w.study().uncertainty->comparison);
-    QCOMPARE(w.study().uncertainty->subgroups[0].column, std::string("urgency"));
+    QVERIFY(w.controller().study().uncertainty && w.controller().study().uncertainty->comparison);
+    QCOMPARE(w.controller().study().uncertainty->subgroups[0].column, std::string("urgency"));
     QCOMPARE(s.sizeThresholds, (std::vector<double>{0.1, 0.2}));
     // The net-benefit criteria, with the achieved width of the bootstrap interval.
-    const SampleSizeAssessment& size = w.study().uncertainty->sampleSize;
+    const SampleSizeAssessment& size = w.controller().study().uncertainty->sampleSize;
     QCOMPARE(size.criteria.size(), std::size_t{5});
     QCOMPARE(size.criteria[3].criterion, std::string("net benefit t=0.1"));
     QVERIFY(size.criteria[3].achievedCiWidth.has_value());
@@ -832,15 +832,15 @@ class MainWindowTest : public QObject {
 
     MainWindow w;
     w.show();
-    QVERIFY(w.openStudy(saved));
+    QVERIFY(w.controller().openStudy(saved));
     waitForJob(w);
-    QVERIFY(w.study().result != nullptr);
+    QVERIFY(w.controller().study().result != nullptr);
     UncertaintySettings settings;
     settings.compareModels = {InputFileRecord{otherPath.toStdString(), {}}};
-    QVERIFY(w.runUncertainty(settings));
+    QVERIFY(w.controller().runUncertainty(settings));
     waitForJob(w);
-    const UncertaintyResults& u = *w.study().uncertainty;
-    QVERIFY(u.comparisonRows < w.study().result->cohort.n);
+    const UncertaintyResults& u = *w.controller().study().uncertainty;
+    QVERIFY(u.comparisonRows < w.controller().study().result->cohort.n);
     const QString note = text(w, "comparisonNote");
     QVERIFY2(note.contains("fewer than the validation"), qPrintable(note));
     QVERIFY(note.contains(QString("Compared on %1 patients").arg(u.comparisonRows)));
@@ -863,14 +863,14 @@ class MainWindowTest : public QObject {
     s.seed = 11;
     s.threads = 1;
     runUncertainty(w, s);
-    const auto first = w.study().uncertainty;
+    const auto first = w.controller().study().uncertainty;
     s.threads = 2;
     runUncertainty(w, s);
-    QVERIFY(first != w.study().uncertainty);
-    compareBootstrap(*first->bootstrap, *w.study().uncertainty->bootstrap);
+    QVERIFY(first != w.controller().study().uncertainty);
+    compareBootstrap(*first->bootstrap, *w.controller().study().uncertainty->bootstrap);
     s.seed = 12;
     runUncertainty(w, s);
-    QVERIFY(first->bootstrap->auc.ci.lo != w.study().uncertainty->bootstrap->auc.ci.lo);
+    QVERIFY(first->bootstrap->auc.ci.lo != w.controller().study().uncertainty->bootstrap->auc.ci.lo);
   }
 
   void cancelOrFailureKeepsPreviousResults() {
@@ -881,17 +881,17 @@ class MainWindowTest : public QObject {
     UncertaintySettings s;
     s.subgroupColumns = {"sex"};
     runUncertainty(w, s);
-    const auto previous = w.study().uncertainty;
-    const auto previousSettings = w.study().uncertaintySettings;
+    const auto previous = w.controller().study().uncertainty;
+    const auto previousSettings = w.controller().study().uncertaintySettings;
 
     s.bootstrapReplicates = 20000;
-    QVERIFY(w.runUncertainty(s));
-    QVERIFY(w.job()->isRunning());
+    QVERIFY(w.controller().runUncertainty(s));
+    QVERIFY(w.controller().job()->isRunning());
     QTRY_VERIFY(child<QProgressBar>(w, "runProgress")->isVisible());
     child<QAction>(w, "actionCancel")->trigger();
     waitForJob(w);
-    QCOMPARE(w.study().uncertainty, previous);
-    QCOMPARE(w.study().uncertaintySettings.bootstrapReplicates, 0);
+    QCOMPARE(w.controller().study().uncertainty, previous);
+    QCOMPARE(w.controller().study().uncertaintySettings.bootstrapReplicates, 0);
     QVERIFY2(w.messageText().contains("Cancelled"), qPrintable(w.messageText()));
     QCOMPARE(child<QTableView>(w, "subgroupTable")->model()->rowCount(),
              static_cast<int>(previous->subgroups[0].levels.size()));
@@ -899,11 +899,11 @@ class MainWindowTest : public QObject {
     UncertaintySettings bad = s;
     bad.bootstrapReplicates = 0;
     bad.subgroupColumns = {"no_such_column"};
-    QVERIFY(w.runUncertainty(bad));
+    QVERIFY(w.controller().runUncertainty(bad));
     waitForJob(w);
-    QCOMPARE(w.study().uncertainty, previous);
+    QCOMPARE(w.controller().study().uncertainty, previous);
     QVERIFY2(w.messageText().contains("no_such_column"), qPrintable(w.messageText()));
-    QCOMPARE(w.study().uncertaintySettings.subgroupColumns, previousSettings.subgroupColumns);
+    QCOMPARE(w.controller().study().uncertaintySettings.subgroupColumns, previousSettings.subgroupColumns);
   }
 
   void newModelClearsStaleUncertainty() {
@@ -914,17 +914,17 @@ class MainWindowTest : public QObject {
     UncertaintySettings s;
     s.bootstrapReplicates = 20;
     runUncertainty(w, s);
-    const auto results = w.study().uncertainty;
+    const auto results = w.controller().study().uncertainty;
     // Same cohort and model: the validation re-runs, the uncertainty results stay.
     child<QDoubleSpinBox>(w, "reasonableHiSpin")->setValue(0.4);
-    QVERIFY(w.runValidation());
+    QVERIFY(w.controller().runValidation());
     waitForJob(w);
-    QCOMPARE(w.study().uncertainty, results);
+    QCOMPARE(w.controller().study().uncertainty, results);
     // Another model: stale, so only the (new) sample-size assessment remains.
-    QVERIFY(w.loadModelFile(secondModel()));
+    QVERIFY(w.controller().loadModelFile(secondModel()));
     waitForJob(w);
-    QVERIFY(w.study().uncertainty != nullptr);
-    QVERIFY(!w.study().uncertainty->bootstrap);
+    QVERIFY(w.controller().study().uncertainty != nullptr);
+    QVERIFY(!w.controller().study().uncertainty->bootstrap);
     QVERIFY(!child<QTextBrowser>(w, "summaryPanel")->toPlainText().contains("bootstrap"));
   }
 
@@ -937,14 +937,14 @@ class MainWindowTest : public QObject {
       w.show();
       openSample(w);
       runUncertainty(w, sampleSettings());
-      before = w.study().uncertainty;
-      QVERIFY(w.saveStudy(saved));
+      before = w.controller().study().uncertainty;
+      QVERIFY(w.controller().saveStudy(saved));
     }
     MainWindow w;
     w.show();
-    QVERIFY(w.openStudy(saved));
+    QVERIFY(w.controller().openStudy(saved));
     waitForJob(w);
-    const UncertaintySettings& s = w.study().uncertaintySettings;
+    const UncertaintySettings& s = w.controller().study().uncertaintySettings;
     QCOMPARE(s.bootstrapReplicates, 50);
     QCOMPARE(s.seed, std::uint64_t{7});
     QCOMPARE(s.threads, 2u);
@@ -953,9 +953,9 @@ class MainWindowTest : public QObject {
     QCOMPARE(QString::fromStdString(s.compareModels[0].path), secondModel());
     QCOMPARE(s.compareModels[0].sha256, sha256OfFileForTest(secondModel()));
     // Recomputed on reopening, with the same intervals.
-    QVERIFY(w.study().uncertainty && w.study().uncertainty->bootstrap);
-    compareBootstrap(*w.study().uncertainty->bootstrap, *before->bootstrap);
-    QCOMPARE(w.study().uncertainty->comparison->pairs[0].auc.difference,
+    QVERIFY(w.controller().study().uncertainty && w.controller().study().uncertainty->bootstrap);
+    compareBootstrap(*w.controller().study().uncertainty->bootstrap, *before->bootstrap);
+    QCOMPARE(w.controller().study().uncertainty->comparison->pairs[0].auc.difference,
              before->comparison->pairs[0].auc.difference);
     QVERIFY2(w.messageText().isEmpty(), qPrintable(w.messageText()));
 
@@ -970,7 +970,7 @@ class MainWindowTest : public QObject {
     QVERIFY(appendTo(copy, "\n// edited\n"));
     MainWindow w2;
     w2.show();
-    QVERIFY(w2.openStudy(changed));
+    QVERIFY(w2.controller().openStudy(changed));
     waitForJob(w2);
     QTRY_VERIFY(w2.messageText().contains("compared model file"));
     QVERIFY(w2.messageText().contains("changed since the study was saved"));
@@ -985,9 +985,9 @@ class MainWindowTest : public QObject {
     w.show();
     const QString sample = QStringLiteral(CALIVERA_SOURCE_DIR "/resources/sample_study.cvstudy");
     if (QFile::exists(sample)) {
-      QVERIFY(w.openStudy(sample));
+      QVERIFY(w.controller().openStudy(sample));
       waitForJob(w);
-      QVERIFY2(w.study().result != nullptr, qPrintable(w.messageText()));
+      QVERIFY2(w.controller().study().result != nullptr, qPrintable(w.messageText()));
     } else {
       openStudy(w);
     }
@@ -997,7 +997,7 @@ class MainWindowTest : public QObject {
       s.threads = 0;
       runUncertainty(w, s);
     }
-    w.setThreshold(0.2);
+    w.controller().setThreshold(0.2);
     QVERIFY(QTest::qWaitForWindowExposed(&w));
     auto save = [&](QWidget* widget, const char* name) {
       const QImage image = widget->grab().toImage();
@@ -1027,9 +1027,9 @@ class MainWindowTest : public QObject {
       save(&w, "predictor_boundary");
     }
     {
-      UncertaintySettings current = w.study().uncertaintySettings;
+      UncertaintySettings current = w.controller().study().uncertaintySettings;
       current.sizeThresholds = {0.1, 0.2};
-      UncertaintyDialog dialog(current, *w.table(), w.study().import.outcomeColumn, &w);
+      UncertaintyDialog dialog(current, *w.controller().table(), w.controller().study().import.outcomeColumn, &w);
       dialog.show();
       QVERIFY(QTest::qWaitForWindowExposed(&dialog));
       save(&dialog, "uncertainty_dialog");

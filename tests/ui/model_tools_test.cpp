@@ -69,10 +69,10 @@ FitSettings predictors(std::vector<std::string> names) {
 
 UpdateData dataOf(const MainWindow& w) {
   UpdateData data;
-  data.table = w.cohort()->table().get();
-  data.rows = w.cohort()->rows();
-  data.outcome = w.cohort()->outcome();
-  data.dataSha256 = w.study().data->sha256;
+  data.table = w.controller().cohort()->table().get();
+  data.rows = w.controller().cohort()->rows();
+  data.outcome = w.controller().cohort()->outcome();
+  data.dataSha256 = w.controller().study().data->sha256;
   data.dataName = "birthwt.csv";
   return data;
 }
@@ -100,16 +100,16 @@ class ModelToolsTest : public QObject {
     writeModelFile(publishedPath_.toStdString(), fitted);
     ImportSettings import;
     import.outcomeColumn = "low";
-    QVERIFY(window_.openInputs(kBirthwt, modelPath_, import));
-    QTRY_VERIFY_WITH_TIMEOUT(!window_.job()->isRunning(), 60000);
-    QVERIFY(window_.study().result != nullptr);
+    QVERIFY(window_.controller().openInputs(kBirthwt, modelPath_, import));
+    QTRY_VERIFY_WITH_TIMEOUT(!window_.controller().job()->isRunning(), 60000);
+    QVERIFY(window_.controller().study().result != nullptr);
     QVERIFY(window_.findChild<QAction*>("actionInternalValidation")->isEnabled());
     QVERIFY(window_.findChild<QAction*>("actionUpdateModel")->isEnabled());
   }
 
   void internalValidationShowsCoresOptimismCorrection() {
-    InternalValidationDialog dialog(*window_.study().model, window_.cohort(),
-                                    *window_.study().data);
+    InternalValidationDialog dialog(*window_.controller().study().model, window_.controller().cohort(),
+                                    *window_.controller().study().data);
     child<QSpinBox>(dialog, "internalReplicates")->setValue(60);
     child<QSpinBox>(dialog, "internalSeed")->setValue(17);
     child<QCheckBox>(dialog, "internalIncludeIci")->setChecked(false);
@@ -122,7 +122,7 @@ class ModelToolsTest : public QObject {
     options.bootstrap.seed = 17;
     options.includeIci = false;
     const InternalValidation core =
-        internalValidation(*window_.study().model, dataOf(window_), options);
+        internalValidation(*window_.controller().study().model, dataOf(window_), options);
     const auto& measures = core.optimism.measures;
     QCOMPARE(child<QTableView>(dialog, "internalTable")->model()->rowCount(),
              static_cast<int>(measures.size()));
@@ -159,12 +159,12 @@ class ModelToolsTest : public QObject {
   }
 
   void updateDialogShowsTheClosedTestAndSavesTheChosenUpdate() {
-    ModelUpdateDialog dialog(*window_.study().model, window_.cohort(), *window_.study().data);
+    ModelUpdateDialog dialog(*window_.controller().study().model, window_.controller().cohort(), *window_.controller().study().data);
     dialog.startRun();
     dialog.job()->waitForFinished();
     QVERIFY(dialog.result() != nullptr);
     const ClosedTestResult core =
-        closedTest(*window_.study().model, dataOf(window_), 0.05, UpdateOptions{});
+        closedTest(*window_.controller().study().model, dataOf(window_), 0.05, UpdateOptions{});
     QCOMPARE(child<QTableView>(dialog, "updateClosedTestTable")->model()->rowCount(),
              static_cast<int>(core.steps.size()));
     for (std::size_t i = 0; i < core.steps.size(); ++i) {
@@ -193,14 +193,14 @@ class ModelToolsTest : public QObject {
   // dialog opens; stating that the cohort is its development data lets it run.
   void internalValidationOfAModelFromElsewhereIsRefused() {
     MainWindow w;
-    QVERIFY(w.openInputs(kBirthwt, publishedPath_, lowOutcome()));
-    QTRY_VERIFY_WITH_TIMEOUT(!w.job()->isRunning(), 60000);
+    QVERIFY(w.controller().openInputs(kBirthwt, publishedPath_, lowOutcome()));
+    QTRY_VERIFY_WITH_TIMEOUT(!w.controller().job()->isRunning(), 60000);
     w.findChild<QAction*>("actionInternalValidation")->trigger();
     QVERIFY2(w.messageText().contains("is for a model fitted on this cohort"),
              qPrintable(w.messageText()));
     QVERIFY(w.messageText().contains("records no development data"));
-    QVERIFY(!internalValidationRefusal(*w.study().model, w.study().data->sha256, false).empty());
-    QVERIFY(internalValidationRefusal(*w.study().model, w.study().data->sha256, true).empty());
+    QVERIFY(!internalValidationRefusal(*w.controller().study().model, w.controller().study().data->sha256, false).empty());
+    QVERIFY(internalValidationRefusal(*w.controller().study().model, w.controller().study().data->sha256, true).empty());
   }
 
   // "Save and validate it here": the updated model on the patients it was updated on is apparent
@@ -208,29 +208,29 @@ class ModelToolsTest : public QObject {
   // and the study's bootstrap is run again for it instead of being dropped.
   void savedUpdateIsValidatedAsApparentWithTheStudysSettings() {
     MainWindow w;
-    QVERIFY(w.openInputs(kBirthwt, modelPath_, lowOutcome()));
-    QTRY_VERIFY_WITH_TIMEOUT(!w.job()->isRunning(), 60000);
+    QVERIFY(w.controller().openInputs(kBirthwt, modelPath_, lowOutcome()));
+    QTRY_VERIFY_WITH_TIMEOUT(!w.controller().job()->isRunning(), 60000);
     UncertaintySettings settings;
     settings.bootstrapReplicates = 20;
     settings.seed = 3;
-    QVERIFY(w.runUncertainty(settings));
-    QTRY_VERIFY_WITH_TIMEOUT(!w.job()->isRunning(), 60000);
-    QVERIFY(w.study().uncertainty && w.study().uncertainty->bootstrap);
+    QVERIFY(w.controller().runUncertainty(settings));
+    QTRY_VERIFY_WITH_TIMEOUT(!w.controller().job()->isRunning(), 60000);
+    QVERIFY(w.controller().study().uncertainty && w.controller().study().uncertainty->bootstrap);
 
     const QString path = dir_.filePath("recalibrated_here.json");
     writeModelFile(
         path.toStdString(),
-        updateModel(*w.study().model, dataOf(w), UpdateMethod::Recalibrate, UpdateOptions{}).model);
-    QVERIFY(w.validateUpdatedModel(path));
-    QTRY_VERIFY_WITH_TIMEOUT(!w.job()->isRunning(), 60000);
-    QVERIFY(w.study().analysis.apparent);
+        updateModel(*w.controller().study().model, dataOf(w), UpdateMethod::Recalibrate, UpdateOptions{}).model);
+    QVERIFY(w.controller().validateUpdatedModel(path));
+    QTRY_VERIFY_WITH_TIMEOUT(!w.controller().job()->isRunning(), 60000);
+    QVERIFY(w.controller().study().analysis.apparent);
     QVERIFY(w.findChild<QCheckBox*>("apparentCheck")->isChecked());
-    QCOMPARE(w.study().run->performance, std::string(kPerformanceApparent));
-    QCOMPARE(w.study().result->hosmerLemeshow.df, 8);
-    QVERIFY(std::abs(w.study().result->calibration.slope - 1.0) < 1e-6);
+    QCOMPARE(w.controller().study().run->performance, std::string(kPerformanceApparent));
+    QCOMPARE(w.controller().study().result->hosmerLemeshow.df, 8);
+    QVERIFY(std::abs(w.controller().study().result->calibration.slope - 1.0) < 1e-6);
     QVERIFY2(w.messageText().contains("apparent performance"), qPrintable(w.messageText()));
-    QVERIFY(w.study().uncertainty && w.study().uncertainty->bootstrap);
-    QCOMPARE(w.study().uncertainty->bootstrap->run.replicates, 20);
+    QVERIFY(w.controller().study().uncertainty && w.controller().study().uncertainty->bootstrap);
+    QCOMPARE(w.controller().study().uncertainty->bootstrap->run.replicates, 20);
   }
 
   // The fit dialog with a spline: the coefficient table and the deviance of R's glm with the
@@ -282,14 +282,14 @@ class ModelToolsTest : public QObject {
   void screenshots() {
     const QByteArray folder = qgetenv("CALIVERA_SCREENSHOT_DIR");
     if (folder.isEmpty()) QSKIP("CALIVERA_SCREENSHOT_DIR not set");
-    InternalValidationDialog internal(*window_.study().model, window_.cohort(),
-                                      *window_.study().data);
+    InternalValidationDialog internal(*window_.controller().study().model, window_.controller().cohort(),
+                                      *window_.controller().study().data);
     internal.startRun();
     internal.job()->waitForFinished();
     internal.show();
     QVERIFY(QTest::qWaitForWindowExposed(&internal));
     QVERIFY(internal.grab().save(QString::fromUtf8(folder) + "/internal_validation_dialog.png"));
-    ModelUpdateDialog update(*window_.study().model, window_.cohort(), *window_.study().data);
+    ModelUpdateDialog update(*window_.controller().study().model, window_.controller().cohort(), *window_.controller().study().data);
     update.startRun();
     update.job()->waitForFinished();
     update.show();
@@ -300,7 +300,7 @@ class ModelToolsTest : public QObject {
     FitSettings settings;
     settings.predictors = {"age", "lwt", "race", "smoke"};
     settings.splineKnots = {{"age", 4}};
-    FitDialog fit(window_.table(), import, settings);
+    FitDialog fit(window_.controller().table(), import, settings);
     fit.startFit();
     fit.job()->waitForFinished();
     fit.show();

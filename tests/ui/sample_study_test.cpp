@@ -17,12 +17,12 @@ class SampleStudyTest : public QObject {
   void fullSampleStudyOpensAndRunsItsUncertainty() {
     MainWindow w;
     QVERIFY(
-        w.openStudy(QStringLiteral(CALIVERA_SOURCE_DIR "/resources/sample_study_full.cvstudy")));
-    QTRY_VERIFY_WITH_TIMEOUT(w.study().uncertainty != nullptr, 120000);
-    QTRY_VERIFY_WITH_TIMEOUT(!w.job()->isRunning(), 120000);
+        w.controller().openStudy(QStringLiteral(CALIVERA_SOURCE_DIR "/resources/sample_study_full.cvstudy")));
+    QTRY_VERIFY_WITH_TIMEOUT(w.controller().study().uncertainty != nullptr, 120000);
+    QTRY_VERIFY_WITH_TIMEOUT(!w.controller().job()->isRunning(), 120000);
     QVERIFY2(!w.messageText().contains("changed", Qt::CaseInsensitive),
              qPrintable(w.messageText()));
-    const auto& u = *w.study().uncertainty;
+    const auto& u = *w.controller().study().uncertainty;
     QVERIFY(u.bootstrap.has_value());
     QCOMPARE(u.bootstrap->run.replicates, 200);
     QVERIFY(u.comparison.has_value());

@@ -48,9 +48,9 @@ class StudyParityTest : public QObject {
   // Opens the study file in a window and waits for the run.
   void open(MainWindow& w, const StudyState& study, const char* name) {
     writeStudyFile(path(name), study);
-    QVERIFY(w.openStudy(QString::fromStdString(path(name))));
-    QTRY_VERIFY_WITH_TIMEOUT(!w.job()->isRunning(), 60000);
-    QVERIFY2(w.study().result != nullptr, qPrintable(w.messageText()));
+    QVERIFY(w.controller().openStudy(QString::fromStdString(path(name))));
+    QTRY_VERIFY_WITH_TIMEOUT(!w.controller().job()->isRunning(), 60000);
+    QVERIFY2(w.controller().study().result != nullptr, qPrintable(w.messageText()));
   }
 
   void compareWithCommandLine(const StudyState& windowStudy, const StudyState& saved) {
@@ -94,12 +94,12 @@ class StudyParityTest : public QObject {
     const StudyState study = calivera::testing::birthwtFileStudy(kBirthwt, model_);
     MainWindow w;
     open(w, study, "own.cvstudy");
-    QVERIFY(w.study().run != nullptr);
-    QCOMPARE(w.study().run->performance, std::string(kPerformanceApparent));
-    QCOMPARE(w.study().result->hosmerLemeshow.df, 6);
+    QVERIFY(w.controller().study().run != nullptr);
+    QCOMPARE(w.controller().study().run->performance, std::string(kPerformanceApparent));
+    QCOMPARE(w.controller().study().result->hosmerLemeshow.df, 6);
     ReportExportRequest request;
-    QVERIFY(auditInputFromStudy(w.study(), request).settings.apparent);
-    compareWithCommandLine(w.study(), study);
+    QVERIFY(auditInputFromStudy(w.controller().study(), request).settings.apparent);
+    compareWithCommandLine(w.controller().study(), study);
   }
 
   // The same patients saved with another delimiter: new data by the fingerprint, apparent once
@@ -125,24 +125,24 @@ class StudyParityTest : public QObject {
     {
       MainWindow w;
       open(w, study, "new.cvstudy");
-      QCOMPARE(w.study().run->performance, std::string(kPerformanceNewData));
-      QCOMPARE(w.study().result->hosmerLemeshow.df, 8);
-      compareWithCommandLine(w.study(), study);
+      QCOMPARE(w.controller().study().run->performance, std::string(kPerformanceNewData));
+      QCOMPARE(w.controller().study().result->hosmerLemeshow.df, 8);
+      compareWithCommandLine(w.controller().study(), study);
     }
     study.analysis.apparent = true;
     MainWindow w;
     open(w, study, "stated.cvstudy");
-    QCOMPARE(w.study().run->performance, std::string(kPerformanceApparent));
-    QCOMPARE(w.study().result->hosmerLemeshow.df, 6);
+    QCOMPARE(w.controller().study().run->performance, std::string(kPerformanceApparent));
+    QCOMPARE(w.controller().study().result->hosmerLemeshow.df, 6);
     ReportExportRequest request;
-    const AuditReportInput input = auditInputFromStudy(w.study(), request);
+    const AuditReportInput input = auditInputFromStudy(w.controller().study(), request);
     QVERIFY(input.settings.apparent);
     bool basisStated = false;
     for (const auto& [name, value] : input.settings.other) {
       if (name == "Performance basis") basisStated = value.find("stated by the user") == 0;
     }
     QVERIFY(basisStated);
-    compareWithCommandLine(w.study(), study);
+    compareWithCommandLine(w.controller().study(), study);
   }
 
   // Every view's numbers can be reproduced: the action is there and shows core's command.
@@ -152,7 +152,7 @@ class StudyParityTest : public QObject {
     open(w, study, "reproduce.cvstudy");
     QVERIFY(w.findChild<QAction*>("actionReproduce") != nullptr);
     bool ok = false;
-    const QString text = reproduceCommandText(w.study(), &ok);
+    const QString text = reproduceCommandText(w.controller().study(), &ok);
     QVERIFY(ok);
     QCOMPARE(text.toStdString(), reproduceCommandLine(study));
     QVERIFY(text.startsWith("calivera validate --data "));

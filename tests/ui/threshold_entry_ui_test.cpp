@@ -45,17 +45,17 @@ class ThresholdEntryUiTest : public QObject {
     w.show();
     ImportSettings import;
     import.outcomeColumn = "low";
-    QVERIFY(w.openInputs(QString::fromStdString(data), model, import));
-    QTRY_VERIFY_WITH_TIMEOUT(!w.job()->isRunning(), 60000);
+    QVERIFY(w.controller().openInputs(QString::fromStdString(data), model, import));
+    QTRY_VERIFY_WITH_TIMEOUT(!w.controller().job()->isRunning(), 60000);
     auto* box = w.findChild<ThresholdSpinBox*>("thresholdSpin");
     QVERIFY(box != nullptr);
 
     type(box, "15%");
-    QCOMPARE(w.thresholdState().threshold(), 0.15);
+    QCOMPARE(w.controller().thresholdState().threshold(), 0.15);
     type(box, "1:9");
-    QCOMPARE(w.thresholdState().threshold(), 0.10);
+    QCOMPARE(w.controller().thresholdState().threshold(), 0.10);
     type(box, "15");
-    QCOMPARE(w.thresholdState().threshold(), 0.10);  // unchanged, not clamped to 1
+    QCOMPARE(w.controller().thresholdState().threshold(), 0.10);  // unchanged, not clamped to 1
     QVERIFY2(w.messageText().contains("15%"), qPrintable(w.messageText()));
 
     // The panel's calibration sentence: a model fitted by maximum likelihood on these patients
@@ -64,7 +64,7 @@ class ThresholdEntryUiTest : public QObject {
     auto* note = w.findChild<QLabel*>("calibrationAtThresholdText");
     QVERIFY(note != nullptr && note->isVisible());
     QVERIFY2(note->text().contains("agree"), qPrintable(note->text()));
-    const ThresholdSnapshot s = w.thresholdState().snapshot();
+    const ThresholdSnapshot s = w.controller().thresholdState().snapshot();
     QVERIFY2(note->text().contains(QString("Among the %1 flagged patients")
                                        .arg(s.counts.tp + s.counts.fp)),
              qPrintable(note->text()));

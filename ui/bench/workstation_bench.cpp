@@ -25,7 +25,7 @@ using namespace calivera::ui;
 namespace {
 
 void waitFor(MainWindow& w) {
-  while (w.job()->isRunning()) QTest::qWait(5);
+  while (w.controller().job()->isRunning()) QTest::qWait(5);
 }
 
 void writeCohort(const std::string& path, long n) {
@@ -89,20 +89,20 @@ int main(int argc, char** argv) {
     if (!QTest::qWaitForWindowExposed(&w)) return 1;
     QElapsedTimer t;
     t.start();
-    w.openStudy(QStringLiteral(CALIVERA_SOURCE_DIR "/resources/sample_study.cvstudy"));
+    w.controller().openStudy(QStringLiteral(CALIVERA_SOURCE_DIR "/resources/sample_study.cvstudy"));
     waitFor(w);
     (void)w.grab();  // lays out and paints every visible view
     std::printf("open sample study and show all views: %.0f ms (%zu patients)%s\n",
                 static_cast<double>(t.nsecsElapsed()) / 1e6,
-                w.study().result ? w.study().result->cohort.n : 0,
-                w.study().result ? "" : " FAILED");
+                w.controller().study().result ? w.controller().study().result->cohort.n : 0,
+                w.controller().study().result ? "" : " FAILED");
     UncertaintySettings u;
     u.bootstrapReplicates = 200;
     u.subgroupColumns = {"site"};
     t.restart();
-    w.runUncertainty(u);
+    w.controller().runUncertainty(u);
     waitFor(w);
-    const bool ok = w.study().uncertainty && w.study().uncertainty->bootstrap;
+    const bool ok = w.controller().study().uncertainty && w.controller().study().uncertainty->bootstrap;
     std::printf(
         "bootstrap (200 resamples, all cores) and subgroups by site on the sample study, shown: "
         "%.0f ms%s\n",
@@ -110,7 +110,7 @@ int main(int argc, char** argv) {
         ok ? "" : qPrintable(" FAILED: " + w.messageText()));
     std::vector<double> update;
     for (int i = 0; i < 100; ++i) {
-      w.setThreshold(0.02 + 0.9 * i / 99.0);
+      w.controller().setThreshold(0.02 + 0.9 * i / 99.0);
       update.push_back(w.lastThresholdUpdateMs());
     }
     const Stats s = stats(update);
@@ -133,18 +133,18 @@ int main(int argc, char** argv) {
   settings.outcomeColumn = "died";
   QElapsedTimer t;
   t.start();
-  w.openInputs(QString::fromStdString(csv), QString::fromStdString(json), settings);
+  w.controller().openInputs(QString::fromStdString(csv), QString::fromStdString(json), settings);
   waitFor(w);
   std::printf("read, validate and show %ld patients: %.0f ms%s\n", patients,
               static_cast<double>(t.nsecsElapsed()) / 1e6,
-              w.study().result ? "" : qPrintable(" FAILED: " + w.messageText()));
+              w.controller().study().result ? "" : qPrintable(" FAILED: " + w.messageText()));
   QWidget* page = w.findChild<QWidget*>(QStringLiteral("linkedViewsPage"));
   std::vector<double> update, withPaint;
   for (int i = 0; i < 200; ++i) {
     const double threshold = 0.02 + 0.9 * i / 199.0;
     QElapsedTimer m;
     m.start();
-    w.setThreshold(threshold);
+    w.controller().setThreshold(threshold);
     update.push_back(w.lastThresholdUpdateMs());
     page->repaint();  // synchronous paint of the four charts and the panel
     withPaint.push_back(static_cast<double>(m.nsecsElapsed()) / 1e6);

@@ -1,0 +1,263 @@
+#include "ui/study_controller.h"
+
+#include <exception>
+#include <filesystem>
+#include <functional>
+#include <utility>
+
+#include "core/study/study_file.h"
+#include "core/study/study_uncertainty.h"
+#include "ui/async/background_job.h"
+
+namespace calivera::ui {
+
+namespace {
+
+QString toQ(const std::string& s) {
+  return QString::fromStdString(s);
+}
+
+std::string absolutePath(const QString& path) {
+  return std::filesystem::absolute(path.toStdString()).string();
+}
+
+}  // namespace
+
+StudyController::StudyController(QObject* parent) : QObject(parent) {
+  setObjectName(QStringLiteral("studyController"));
+  job_ = new BackgroundJob(this);
+  job_->setObjectName(QStringLiteral("backgroundJob"));
+}
+
+StudyController::~StudyController() = default;
+
+bool StudyController::refuseWhileBusy() {
+  if (!job_->isRunning()) return false;
+  emit message(tr("Another computation is still running; wait for it or cancel it."), true);
+  return true;
+}
+
+bool StudyController::startPipeline(PipelineRequest request, const QString& description,
+                                    const QString& studyPathOnSuccess, const QString& leadNote) {
+  if (refuseWhileBusy()) return false;
+  std::function<PipelineOutput(const ProgressCallback&)> work =
+      [request = std::move(request)](const ProgressCallback& progress) {
+        return runPipeline(request, progress);
+      };
+  std::function<void(PipelineOutput&)> done = [this, studyPathOnSuccess,
+                                               leadNote](PipelineOutput& out) {
+    applyPipeline(out, studyPathOnSuccess, leadNote);
+  };
+  return job_->start<PipelineOutput>(description, work, done);
+}
+
+void StudyController::applyPipeline(PipelineOutput& output, const QString& studyPathOnSuccess,
+                                    const QString& leadNote) {
+  study_ = std::move(output.study);
+  table_ = output.table;
+  cohort_ = output.cohort;
+  if (cohort_) {
+    threshold_.setData(cohort_->risk(), cohort_->outcome());
+  } else {
+    threshold_.clear();
+  }
+  threshold_.setThreshold(study_.analysis.threshold);
+  if (!studyPathOnSuccess.isEmpty()) {
+    studyPath_ = studyPathOnSuccess;
+    emit studyPathChanged(studyPath_);
+  }
+  emit resultsChanged();
+
+  QString text = leadNote;
+  const auto add = [&text](const QString& line) { text += (text.isEmpty() ? "" : "\n") + line; };
+  for (const auto& w : output.inputWarnings) add(toQ(w));
+  if (!output.inputWarnings.empty()) {
+    add(tr("Results are recomputed from the files as they are now."));
+  }
+  for (const auto& n : output.notes) add(toQ(n));
+  if (!text.isEmpty()) {
+    emit message(text, !output.inputWarnings.empty());
+  } else if (study_.result) {
+    emit messageCleared();
+  }
+}
+
+bool StudyController::openStudy(const QString& path) {
+  StudyState candidate;
+  try {
+    candidate = readStudyFile(path.toStdString());
+  } catch (const std::exception& e) {
+    emit message(tr("Could not open the study: %1").arg(toQ(e.what())), true);
+    return false;
+  }
+  PipelineRequest request;
+  request.study = std::move(candidate);
+  request.withUncertainty = true;      // recompute what the study's uncertainty settings ask for
+  request.checkRecordedInputs = true;  // hashed on the worker, reported with the results
+  return startPipeline(std::move(request), tr("Opening study"), path);
+}
+
+bool StudyController::saveStudy(const QString& path) {
+  try {
+    writeStudyFile(path.toStdString(), study_);
+  } catch (const std::exception& e) {
+    emit message(tr("Could not save the study: %1").arg(toQ(e.what())), true);
+    return false;
+  }
+  studyPath_ = path;
+  emit studyPathChanged(studyPath_);
+  emit message(tr("Study saved to %1").arg(path), false);
+  return true;
+}
+
+bool StudyController::importCohort(const QString& path, const ImportSettings& settings,
+                                   std::shared_ptr<const Table> loaded) {
+  PipelineRequest request;
+  request.study = study_;
+  request.study.data = InputFileRecord{absolutePath(path), {}};
+  request.study.import = settings;
+  request.table = std::move(loaded);
+  if (request.study.modelSource == ModelSource::Fitted) {
+    request.study.modelSource = ModelSource::None;  // a fit belongs to its own cohort
+    request.study.model.reset();
+  }
+  return startPipeline(std::move(request), tr("Reading cohort"), {});
+}
+
+bool StudyController::openInputs(const QString& data, const QString& model,
+                                 const ImportSettings& settings) {
+  PipelineRequest request;
+  request.study.data = InputFileRecord{absolutePath(data), {}};
+  request.study.import = settings;
+  if (!model.isEmpty()) {
+    request.study.modelSource = ModelSource::File;
+    request.study.modelFile = InputFileRecord{model.toStdString(), {}};
+  }
+  return startPipeline(std::move(request), tr("Opening cohort and model"), {});
+}
+
+bool StudyController::loadModelFile(const QString& path) {
+  if (!study_.data) {
+    emit message(tr("Import a cohort first (File → Import cohort CSV), then load the model."),
+                 true);
+    return false;
+  }
+  PipelineRequest request;
+  request.study = study_;
+  request.study.modelSource = ModelSource::File;
+  request.study.modelFile = InputFileRecord{path.toStdString(), {}};
+  request.study.model.reset();
+  request.study.columnMapping.clear();
+  request.table = table_;
+  return startPipeline(std::move(request), tr("Loading model and validating"), {});
+}
+
+bool StudyController::validateUpdatedModel(const QString& path) {
+  if (!study_.data) return false;
+  // The updated model is judged on the patients it was updated on: apparent performance, said in
+  // every view and the report (the development-data statement), with the study's bootstrap,
+  // comparison and subgroups recomputed for it rather than dropped.
+  PipelineRequest request;
+  request.study = study_;
+  request.study.modelSource = ModelSource::File;
+  request.study.modelFile = InputFileRecord{path.toStdString(), {}};
+  request.study.model.reset();
+  request.study.columnMapping.clear();  // the updated model file carries the mapping it used
+  request.study.analysis.apparent = true;
+  request.table = table_;
+  request.withUncertainty = true;
+  const QString why =
+      tr("The updated model is shown on the patients it was updated on: this is apparent "
+         "performance (\"Cohort is the development data\" is ticked), optimistic by "
+         "construction; a recalibration has slope 1 and intercept 0 here. Validate it on other "
+         "patients before relying on it.");
+  return startPipeline(std::move(request), tr("Validating the updated model"), {}, why);
+}
+
+bool StudyController::useFittedModel(const FitSettings& fit, const Model& model,
+                                     const std::vector<std::string>& warnings) {
+  PipelineRequest request;
+  request.study = study_;
+  request.study.modelSource = ModelSource::Fitted;
+  request.study.fit = fit;
+  request.study.model = model;
+  request.study.modelWarnings = warnings;
+  request.study.modelFile.reset();
+  request.study.columnMapping.clear();
+  request.table = table_;
+  return startPipeline(std::move(request), tr("Validating the fitted model"), {});
+}
+
+bool StudyController::setColumnMapping(const std::map<std::string, std::string>& mapping) {
+  PipelineRequest request;
+  request.study = study_;
+  request.study.columnMapping = mapping;
+  request.table = table_;
+  return startPipeline(std::move(request), tr("Validating"), {});
+}
+
+bool StudyController::runValidation() {
+  if (!study_.data) {
+    emit message(tr("Import a cohort first (File → Import cohort CSV)."), true);
+    return false;
+  }
+  PipelineRequest request;
+  request.study = study_;
+  request.table = table_;
+  return startPipeline(std::move(request), tr("Validating"), {});
+}
+
+bool StudyController::runUncertainty(const UncertaintySettings& settings) {
+  if (refuseWhileBusy()) return false;
+  if (!study_.result || !cohort_) {
+    emit message(tr("Run the validation first (Analysis → Run validation)."), true);
+    return false;
+  }
+  std::function<UncertaintyResults(const ProgressCallback&)> work =
+      [cohort = cohort_, result = study_.result, settings](const ProgressCallback& progress) {
+        return computeUncertainty(*cohort, *result, settings, progress);
+      };
+  std::function<void(UncertaintyResults&)> done =
+      [this, settings, basis = validationBasis(study_)](UncertaintyResults& results) {
+        study_.uncertaintySettings = withComparedHashes(settings, results);
+        study_.uncertaintyBasis = basis;
+        study_.uncertainty = std::make_shared<const UncertaintyResults>(std::move(results));
+        emit resultsChanged();
+        emit messageCleared();
+      };
+  return job_->start<UncertaintyResults>(tr("Intervals, comparison and subgroups"), work, done);
+}
+
+void StudyController::setThreshold(double threshold) {
+  threshold_.setThreshold(threshold);
+  study_.analysis.threshold = threshold_.threshold();
+  emit thresholdChanged(threshold_.threshold());
+}
+
+bool StudyController::nudgeThreshold(int steps) {
+  if (!threshold_.nudge(steps)) return false;
+  setThreshold(threshold_.threshold());
+  return true;
+}
+
+void StudyController::setReasonableRange(double lo, double hi) {
+  study_.analysis.reasonableLo = lo;
+  study_.analysis.reasonableHi = hi;
+  emit resultsChanged();
+}
+
+void StudyController::setGroups(int groups) {
+  study_.analysis.groups = groups;
+}
+
+void StudyController::setApparent(bool apparent) {
+  study_.analysis.apparent = apparent;
+}
+
+void StudyController::setPredictorViewChoices(const std::vector<std::string>& chosen,
+                                              const std::map<std::string, std::string>& held) {
+  study_.predictorView = chosen;
+  study_.heldValues = held;
+}
+
+}  // namespace calivera::ui

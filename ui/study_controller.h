@@ -1,0 +1,103 @@
+#pragma once
+// The workstation's one owner of the study: its settings and inputs (StudyState), the loaded
+// table and analysed cohort of the current run, the threshold, and the background job that
+// replaces them. Every change goes through here; the window and its views only observe:
+//   resultsChanged()     the study, its run, its uncertainty results or its reasonable range
+//                        changed — rebuild every view, at the current threshold;
+//   thresholdChanged()   only the threshold moved — update the linked views' markers;
+//   studyPathChanged()   the study now lives in a file (opened or saved);
+//   message()            something to tell the user (error or note), cleared by messageCleared().
+//
+// No widgets: the controller can be driven and checked without a window. Heavy work runs on the
+// job's worker thread through core's runPipeline / computeUncertainty, the same functions the
+// command line calls (core/study/study_pipeline.h); a failing or cancelled run leaves the current
+// study untouched.
+
+#include <QObject>
+#include <QString>
+#include <map>
+#include <memory>
+#include <string>
+#include <vector>
+
+#include "core/study/study.h"
+#include "core/study/study_pipeline.h"
+#include "core/study/threshold_state.h"
+
+namespace calivera::ui {
+
+class BackgroundJob;
+
+class StudyController : public QObject {
+  Q_OBJECT
+
+ public:
+  explicit StudyController(QObject* parent = nullptr);
+  ~StudyController() override;
+
+  // Each starts a background run and returns false when refused (a job is running, an input is
+  // missing or unreadable), with a message() saying why. The result arrives asynchronously
+  // (job()->finished()).
+  bool openStudy(const QString& path);
+  // Cohort and model in one run (the command line's --data/--model); model may be empty.
+  bool openInputs(const QString& data, const QString& model, const ImportSettings& settings);
+  bool importCohort(const QString& path, const ImportSettings& settings,
+                    std::shared_ptr<const Table> loaded = nullptr);
+  bool loadModelFile(const QString& path);
+  // A model file saved by the update dialog, validated on the same patients: marked apparent,
+  // with the study's uncertainty settings run again for it.
+  bool validateUpdatedModel(const QString& path);
+  bool useFittedModel(const FitSettings& fit, const Model& model,
+                      const std::vector<std::string>& warnings);
+  bool setColumnMapping(const std::map<std::string, std::string>& mapping);
+  bool runValidation();
+  // Bootstrap intervals and bands, comparison and subgroups on the current run. Success replaces
+  // study().uncertainty and study().uncertaintySettings; cancel or failure keeps the previous
+  // results, with a message.
+  bool runUncertainty(const UncertaintySettings& settings);
+
+  // Synchronous; false with a message when the file cannot be written.
+  bool saveStudy(const QString& path);
+
+  // Settings that take effect at once (threshold, reasonable range, predictor-view choices) or at
+  // the next run (groups, the development-data statement).
+  void setThreshold(double threshold);
+  // Moves the threshold by `steps` steps of its grid; false when it cannot move.
+  bool nudgeThreshold(int steps);
+  void setReasonableRange(double lo, double hi);
+  void setGroups(int groups);
+  void setApparent(bool apparent);
+  void setPredictorViewChoices(const std::vector<std::string>& chosen,
+                               const std::map<std::string, std::string>& held);
+
+  const StudyState& study() const { return study_; }
+  const ThresholdState& thresholdState() const { return threshold_; }
+  std::shared_ptr<const CohortData> cohort() const { return cohort_; }
+  std::shared_ptr<const Table> table() const { return table_; }
+  BackgroundJob* job() const { return job_; }
+  QString studyPath() const { return studyPath_; }
+
+ signals:
+  void resultsChanged();
+  void thresholdChanged(double threshold);
+  void studyPathChanged(const QString& path);
+  void message(const QString& text, bool error);
+  void messageCleared();
+
+ private:
+  // `leadNote` is said before the run's own notes when it succeeds.
+  bool startPipeline(PipelineRequest request, const QString& description,
+                     const QString& studyPathOnSuccess, const QString& leadNote = {});
+  void applyPipeline(PipelineOutput& output, const QString& studyPathOnSuccess,
+                     const QString& leadNote);
+  bool refuseWhileBusy();
+
+  StudyState study_;
+  QString studyPath_;
+  std::shared_ptr<const Table> table_;
+  std::shared_ptr<const CohortData> cohort_;
+  ThresholdState threshold_;
+  BackgroundJob* job_ = nullptr;
+};
+
+}  // namespace calivera::ui
