@@ -85,8 +85,8 @@ void MainWindow::rebuildViews() {
     calibration_->setLinkedChart(calibration);
     decision_->setLinkedChart(decision);
     distribution_->setLinkedChart(new charts::DistributionChart(r->distribution));
-    fillThresholdTable(*thresholdModel_, r->thresholds, r->decisionCurve);
-    fillHosmerLemeshowTable(*hlModel_, r->hosmerLemeshow);
+    showResultTable(*thresholdModel_, thresholdTable(*r));
+    showResultTable(*hlModel_, hosmerLemeshowTable(r->hosmerLemeshow));
   }
   if (study().model) {
     fillCoefficientTable(*coefficientModel_, *study().model);
@@ -357,8 +357,12 @@ QTableView* currentTable(QTabWidget* tabs, QTableView* fallback) {
 
 void MainWindow::onExportTable() {
   QTableView* view = currentTable(tabs_, thresholdTable_);
-  const QString path = QFileDialog::getSaveFileName(this, tr("Export table as CSV"),
-                                                    view->objectName() + ".csv", tr("CSV (*.csv)"));
+  // A core table is offered under the name the command line's --csv-dir gives it.
+  const ResultTable* core = coreTableOf(*view->model());
+  const QString name =
+      core != nullptr ? QString::fromStdString(core->fileName) : view->objectName() + ".csv";
+  const QString path =
+      QFileDialog::getSaveFileName(this, tr("Export table as CSV"), name, tr("CSV (*.csv)"));
   if (path.isEmpty()) return;
   const QString error = writeTableCsv(*view->model(), path);
   if (error.isEmpty()) {
@@ -378,7 +382,9 @@ void MainWindow::onCopyTable() {
 
 void MainWindow::onExportReport() {
 #ifdef CALIVERA_HAVE_REPORT_DIALOG
-  showReportExportDialog(this, study());
+  showReportExportDialog(this, study(), [this](const ReportSettings& report) {
+    controller_->setReportSettings(report);
+  });
 #else
   showMessage(tr("The PDF report export is not available in this build."), true);
 #endif

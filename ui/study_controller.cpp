@@ -254,6 +254,10 @@ void StudyController::setApparent(bool apparent) {
   study_.analysis.apparent = apparent;
 }
 
+void StudyController::setReportSettings(const ReportSettings& report) {
+  study_.report = report;
+}
+
 void StudyController::setPredictorViewChoices(const std::vector<std::string>& chosen,
                                               const std::map<std::string, std::string>& held) {
   study_.predictorView = chosen;

@@ -67,6 +67,8 @@ class StudyController : public QObject {
   void setReasonableRange(double lo, double hi);
   void setGroups(int groups);
   void setApparent(bool apparent);
+  // What the report export dialog last wrote; saved with the study for `calivera run --pdf`.
+  void setReportSettings(const ReportSettings& report);
   void setPredictorViewChoices(const std::vector<std::string>& chosen,
                                const std::map<std::string, std::string>& held);
 

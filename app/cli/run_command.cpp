@@ -14,25 +14,30 @@ namespace {
 constexpr const char* kHelp =
     "usage: calivera run STUDY.cvstudy [--json REPORT.json] [--csv-dir DIR]\n"
     "                    [--pdf REPORT.pdf [--title TEXT] [--suppress-below N] [--paper "
-    "a4|letter]]\n\n"
+    "a4|letter]\n"
+    "                     [--report-thresholds T1,T2,...]]\n\n"
     "Runs a study saved by the workstation, headless, with all its settings: the cohort and its\n"
     "import settings, the model file (or the model fitted in the workstation), the column\n"
     "mapping, risk groups, the development-data statement, bootstrap, comparison, subgroups and\n"
     "sample-size thresholds. Outputs and exit statuses are those of `calivera validate`; the\n"
     "summary ends with the validate command line that gives the same numbers. The PDF shades the\n"
-    "study's reasonable threshold range.\n\n"
+    "study's reasonable threshold range and uses the report settings the workstation last\n"
+    "exported with (title, table thresholds, suppression, paper); an option given here wins.\n\n"
     "  --json FILE          write the full report as JSON instead of the summary on stdout\n"
     "  --csv-dir DIR        also write every table as CSV into DIR\n"
     "  --pdf FILE           also write the audit report as PDF (aggregates only)\n"
     "  --title TEXT         the report's title\n"
     "  --suppress-below N   in the report, show counts from 1 to N-1 as <N\n"
-    "  --paper SIZE         a4 (default) or letter\n";
+    "  --paper SIZE         a4 (default) or letter\n"
+    "  --report-thresholds T1,T2,...\n"
+    "                       the rows of the report's threshold table\n";
 
 }  // namespace
 
 int runRunCommand(const std::vector<std::string>& words) {
   OptionSpec spec;
-  spec.valued = {"--json", "--csv-dir", "--pdf", "--title", "--suppress-below", "--paper"};
+  spec.valued = {"--json",  "--csv-dir",          "--pdf", "--title", "--suppress-below",
+                 "--paper", "--report-thresholds"};
   spec.flags = {"--help"};
   const Arguments arguments(words, spec);
   if (arguments.has("--help")) {
@@ -59,6 +64,12 @@ int runRunCommand(const std::vector<std::string>& words) {
   ValidateOutputs outputs = validateOutputsFrom(arguments);
   if (outputs.pdfPath) {
     outputs.reasonable = Interval{study.analysis.reasonableLo, study.analysis.reasonableHi};
+    // The study's report settings (as the workstation last exported), unless an option is given.
+    const ReportSettings& report = study.report;
+    if (!arguments.has("--title")) outputs.title = report.title;
+    if (!arguments.has("--suppress-below")) outputs.suppressBelow = report.suppressBelow;
+    if (!arguments.has("--paper")) outputs.paper = report.paper;
+    if (!arguments.has("--report-thresholds")) outputs.tableThresholds = report.thresholds;
   }
   return executeValidation(requests.validation, requests.uncertainty, outputs,
                            reproduceCommandLine(study));

@@ -36,7 +36,8 @@ constexpr const char* kHelp =
     "FROM:TO:STEP | T1,T2,...]\n"
     "                         [--json REPORT.json] [--csv-dir DIR]\n"
     "                         [--pdf REPORT.pdf [--title TEXT] [--suppress-below N]\n"
-    "                          [--paper a4|letter] [--reasonable-range LO:HI]]\n\n"
+    "                          [--paper a4|letter] [--reasonable-range LO:HI]\n"
+    "                          [--report-thresholds T1,T2,...]]\n\n"
     "Discrimination, calibration and clinical utility of predicted risks on a cohort.\n\n"
     "  --data FILE          cohort CSV (header row)\n"
     "  --outcome COL        outcome column (0/1, or see --event-value)\n"
@@ -62,7 +63,11 @@ constexpr const char* kHelp =
     "  --reasonable-range LO:HI\n"
     "                       the clinically reasonable thresholds (your choice, not the\n"
     "                       data's): shaded on the report's decision curve, and the range of\n"
-    "                       its net-benefit comparison\n";
+    "                       its net-benefit comparison\n"
+    "  --report-thresholds T1,T2,...\n"
+    "                       the rows of the report's threshold table, each among the\n"
+    "                       computed thresholds (default: 0.05, 0.1, 0.2, 0.3, 0.5, or every\n"
+    "                       threshold when at most 12 are computed)\n";
 
 std::vector<double> parseThresholds(const std::string& text) {
   const std::string option = "--thresholds";
@@ -97,7 +102,7 @@ std::vector<double> parseThresholds(const std::string& text) {
 void addValidateOptions(OptionSpec& spec) {
   spec.valued.insert({"--data", "--outcome", "--model", "--risk", "--groups", "--thresholds",
                       "--map", "--json", "--csv-dir", "--pdf", "--title", "--suppress-below",
-                      "--paper", "--reasonable-range"});
+                      "--paper", "--reasonable-range", "--report-thresholds"});
   spec.flags.insert({"--help", "--development-data"});
   addDataOptions(spec);
   addUncertaintyOptions(spec);  // uncertainty: --bootstrap, --compare, --subgroup, ...
@@ -108,9 +113,22 @@ ValidateOutputs validateOutputsFrom(const Arguments& arguments) {
   out.jsonPath = arguments.value("--json");
   out.csvDir = arguments.value("--csv-dir");
   out.pdfPath = arguments.value("--pdf");
-  if (!out.pdfPath && (arguments.has("--title") || arguments.has("--suppress-below") ||
-                       arguments.has("--paper") || arguments.has("--reasonable-range"))) {
-    throw InputError("--title, --suppress-below, --paper and --reasonable-range need --pdf");
+  if (!out.pdfPath &&
+      (arguments.has("--title") || arguments.has("--suppress-below") || arguments.has("--paper") ||
+       arguments.has("--reasonable-range") || arguments.has("--report-thresholds"))) {
+    throw InputError(
+        "--title, --suppress-below, --paper, --reasonable-range and --report-thresholds need "
+        "--pdf");
+  }
+  if (const auto list = arguments.value("--report-thresholds")) {
+    const std::string option = "--report-thresholds";
+    for (const std::string& item : splitList(*list, option)) {
+      const double t = parseNumber(item, option);
+      if (!(t > 0.0 && t < 1.0)) {
+        throw InputError(option + ": " + item + " is not strictly between 0 and 1");
+      }
+      out.tableThresholds.push_back(t);
+    }
   }
   out.title = arguments.value("--title").value_or("");
   if (const auto r = arguments.value("--reasonable-range")) {
@@ -220,6 +238,7 @@ int executeValidation(const ValidationRequest& request, const UncertaintyRequest
     AuditReportInput input =
         auditInputFromRun(run, outputs.title, outputs.suppressBelow, uncertainty);
     input.settings.reasonableThresholds = outputs.reasonable;
+    if (!outputs.tableThresholds.empty()) input.settings.tableThresholds = outputs.tableThresholds;
     pdf = report::renderAuditReportPdf(input, paper);
   }
 #endif

@@ -23,6 +23,8 @@ struct ValidateOutputs {
   std::size_t suppressBelow = 0;  // 0: off
   std::string paper = "a4";       // "a4" or "letter"
   std::optional<Interval> reasonable;
+  // The report's threshold table rows; empty: defaultTableThresholds (core/report/audit_report.h).
+  std::vector<double> tableThresholds;
 };
 
 void addValidateOptions(OptionSpec& spec);

@@ -68,6 +68,26 @@ std::string orDash(const std::optional<long long>& value) {
   return value ? std::to_string(*value) : "not stated";
 }
 
+}  // namespace
+
+std::vector<double> defaultTableThresholds(const std::vector<ThresholdRow>& all) {
+  std::vector<double> wanted;
+  // A short table of the computed thresholds, never the full 99-row grid.
+  if (all.size() <= 12) {
+    for (const ThresholdRow& row : all) wanted.push_back(row.threshold);
+    return wanted;
+  }
+  for (const double t : {0.05, 0.1, 0.2, 0.3, 0.5}) {
+    const bool present = std::any_of(all.begin(), all.end(), [&](const ThresholdRow& r) {
+      return std::abs(r.threshold - t) < 1e-9;
+    });
+    if (present) wanted.push_back(t);
+  }
+  return wanted;
+}
+
+namespace {
+
 std::string thresholdList(const std::vector<double>& thresholds) {
   if (thresholds.empty()) return "none";
   std::string text;
@@ -81,19 +101,7 @@ std::string thresholdList(const std::vector<double>& thresholds) {
 std::vector<ThresholdRow> selectTableRows(const AuditReportInput& input) {
   const auto& all = input.result.thresholds;
   std::vector<double> wanted = input.settings.tableThresholds;
-  if (wanted.empty()) {
-    // Nothing selected: a short table of the computed thresholds, never the full 99-row grid.
-    if (all.size() <= 12) {
-      for (const ThresholdRow& row : all) wanted.push_back(row.threshold);
-    } else {
-      for (const double t : {0.05, 0.1, 0.2, 0.3, 0.5}) {
-        const bool present = std::any_of(all.begin(), all.end(), [&](const ThresholdRow& r) {
-          return std::abs(r.threshold - t) < 1e-9;
-        });
-        if (present) wanted.push_back(t);
-      }
-    }
-  }
+  if (wanted.empty()) wanted = defaultTableThresholds(all);
   std::vector<ThresholdRow> rows;
   for (const double t : wanted) {
     const auto row = std::find_if(all.begin(), all.end(), [&](const ThresholdRow& r) {
@@ -506,7 +514,7 @@ AuditDocument buildAuditDocument(const AuditReportInput& input) {
       input.result, input.exclusions, tableRows, input.settings.suppressBelow,
       input.uncertainty ? disclosureExtras(*input.uncertainty) : DisclosureExtras{});
   AuditDocument doc;
-  doc.title = input.title.empty() ? "Model validation audit report" : reportName(input.title);
+  doc.title = input.title.empty() ? std::string(kDefaultAuditTitle) : reportName(input.title);
   doc.subtitle = "Created " + input.createdAt + "  |  Calivera " + input.softwareVersion;
   doc.caution = auditCautionText();
   doc.footer = {

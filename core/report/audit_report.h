@@ -106,12 +106,20 @@ struct AuditDocument {
   std::vector<Overlay> comparisons;  // the further models (not the validated one), in order
 };
 
+// The report's title when none is given.
+inline constexpr const char* kDefaultAuditTitle = "Model validation audit report";
+
 // The caution statement printed on the first page and in every footer.
 const std::string& auditCautionText();
 
 // Throws InputError when a selected table threshold is not among result.thresholds (the caller
 // validates with the thresholds it wants tabulated).
 AuditDocument buildAuditDocument(const AuditReportInput& input);
+
+// The threshold table's rows when none are selected: every computed threshold when there are at
+// most 12, else those of 0.05, 0.1, 0.2, 0.3 and 0.5 that were computed (never a 99-row table).
+// The command line and the workstation's export dialog both start from this.
+std::vector<double> defaultTableThresholds(const std::vector<ThresholdRow>& all);
 
 // "2026-12-01 22:40:00 UTC" for seconds since the epoch.
 std::string formatUtcTimestamp(long long secondsSinceEpoch);

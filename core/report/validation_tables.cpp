@@ -5,43 +5,12 @@
 #include <sstream>
 
 #include "core/report/csv_text.h"
+#include "core/report/result_table.h"
 #include "core/util/errors.h"
 #include "core/util/output_transaction.h"
 
 namespace calivera {
 namespace {
-
-std::string thresholdsCsv(const std::vector<ThresholdRow>& rows) {
-  CsvText csv({"threshold",
-               "tp",
-               "fp",
-               "tn",
-               "fn",
-               "sensitivity",
-               "sensitivity_lo",
-               "sensitivity_hi",
-               "specificity",
-               "specificity_lo",
-               "specificity_hi",
-               "ppv",
-               "ppv_lo",
-               "ppv_hi",
-               "npv",
-               "npv_lo",
-               "npv_hi",
-               "flagged_per_1000",
-               "events_caught_per_1000",
-               "events_missed_per_1000",
-               "flagged_without_event_per_1000"});
-  for (const ThresholdRow& r : rows) {
-    csv.num(r.threshold).count(r.tp).count(r.fp).count(r.tn).count(r.fn);
-    csv.num(r.sensitivity).ci(r.sensitivityCi).num(r.specificity).ci(r.specificityCi);
-    csv.num(r.ppv).ci(r.ppvCi).num(r.npv).ci(r.npvCi);
-    csv.num(r.flaggedPer1000).num(r.eventsCaughtPer1000).num(r.eventsMissedPer1000);
-    csv.num(r.flaggedWithoutEventPer1000).end();
-  }
-  return csv.str();
-}
 
 std::string decisionCurveCsv(const std::vector<DecisionCurvePoint>& points) {
   CsvText csv({"threshold", "net_benefit", "net_benefit_treat_all", "net_benefit_treat_none",
@@ -49,17 +18,6 @@ std::string decisionCurveCsv(const std::vector<DecisionCurvePoint>& points) {
   for (const DecisionCurvePoint& p : points) {
     csv.num(p.threshold).num(p.netBenefit).num(p.netBenefitTreatAll).num(0.0);
     csv.num(p.standardizedNetBenefit).num(p.interventionsAvoidedPer100).end();
-  }
-  return csv.str();
-}
-
-std::string groupsCsv(const std::vector<CalibrationGroup>& groups) {
-  CsvText csv({"group", "n", "observed", "expected", "mean_risk", "observed_proportion",
-               "observed_lo", "observed_hi", "risk_min", "risk_max"});
-  std::size_t k = 0;
-  for (const CalibrationGroup& g : groups) {
-    csv.count(++k).count(g.n).count(g.observed).num(g.expected).num(g.meanRisk);
-    csv.num(g.observedProportion).ci(g.observedCi).num(g.riskLo).num(g.riskHi).end();
   }
   return csv.str();
 }
@@ -138,9 +96,11 @@ std::string warningsCsv(const ValidationRun& run) {
 
 std::vector<std::pair<std::string, std::string>> validationTables(const ValidationRun& run) {
   const ValidationResult& r = run.result;
-  return {{"thresholds.csv", thresholdsCsv(r.thresholds)},
+  const ResultTable thresholds = thresholdTable(r);
+  const ResultTable groups = hosmerLemeshowTable(r.hosmerLemeshow);
+  return {{thresholds.fileName, tableCsv(thresholds)},
           {"decision_curve.csv", decisionCurveCsv(r.decisionCurve)},
-          {"hosmer_lemeshow_groups.csv", groupsCsv(r.hosmerLemeshow.groups)},
+          {groups.fileName, tableCsv(groups)},
           {"calibration_curve.csv", curveCsv(r.calibration.curve)},
           {"roc.csv", rocCsv(r.discrimination.roc)},
           {"risk_distribution.csv", histogramCsv(r.distribution)},

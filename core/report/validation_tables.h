@@ -4,6 +4,8 @@
 // workstation. Each table is one file in DIR:
 //   thresholds.csv, decision_curve.csv, hosmer_lemeshow_groups.csv, calibration_curve.csv,
 //   roc.csv, risk_distribution.csv, summary.csv (one row per scalar statistic), warnings.csv.
+// The threshold and group tables are defined once, with their on-screen labels, in
+// core/report/result_table.h; the workstation exports them as this same text.
 
 #include <string>
 #include <utility>

@@ -4,6 +4,7 @@
 // refused (or silently accepted) in another. Integers are checked as numbers before any
 // conversion: a study file's "groups": 3e69 is refused, never cast.
 
+#include <cstddef>
 #include <cstdint>
 
 namespace calivera {
@@ -19,6 +20,8 @@ inline constexpr IntegerLimit kBootstrapLimit{"bootstrap resamples", 0, 100000};
 inline constexpr IntegerLimit kThreadsLimit{"threads", 0, 1024};                  // 0: all cores
 inline constexpr IntegerLimit kSeedLimit{"seed", 0, (1LL << 53)};  // exact in a JSON number
 inline constexpr IntegerLimit kSuppressBelowLimit{"suppression threshold", 2, 1000};
+// A report title in bytes (the report itself shows at most 80 characters of it).
+inline constexpr std::size_t kMaxReportTitleBytes = 1000;
 // The threshold grid's size limit is core/metrics/validation.h's kMaxThresholdCount (thresholdRange
 // refuses a longer grid), kept there because the metrics layer checks it.
 

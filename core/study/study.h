@@ -66,6 +66,16 @@ struct UncertaintySettings {
   }
 };
 
+// The PDF report's choices, saved with the study: `calivera run STUDY --pdf` writes the report the
+// workstation's export dialog last wrote for this study (command-line options override each).
+struct ReportSettings {
+  std::string title;               // empty: the report's default title
+  std::vector<double> thresholds;  // the threshold table's rows; empty: core's default rows
+                                   // (defaultTableThresholds, core/report/audit_report.h)
+  std::size_t suppressBelow = 0;   // 0: off; else within kSuppressBelowLimit
+  std::string paper = "a4";        // "a4" or "letter"
+};
+
 struct StudyState {
   std::optional<InputFileRecord> data;
   ImportSettings import;
@@ -78,6 +88,7 @@ struct StudyState {
   std::vector<std::string> predictorView;
   std::map<std::string, std::string> heldValues;
   UncertaintySettings uncertaintySettings;
+  ReportSettings report;
 
   // Read, not saved: an input found through its relative path outside the study file's folder
   // ("../../../../etc/passwd"), one sentence each, shown to the user when the study opens.

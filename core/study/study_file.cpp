@@ -6,6 +6,7 @@
 #include <nlohmann/json.hpp>
 #include <sstream>
 
+#include "core/metrics/validation.h"
 #include "core/model/model_io.h"
 #include "core/study/limits.h"
 #include "core/util/atomic_file.h"
@@ -165,6 +166,10 @@ std::string studyToJson(const StudyState& study, const std::string& studyPath) {
                       {"compareModels", compare},
                       {"subgroups", u.subgroupColumns},
                       {"sizeThresholds", u.sizeThresholds}};
+  j["report"] = {{"title", study.report.title},
+                 {"thresholds", study.report.thresholds},
+                 {"suppressBelow", study.report.suppressBelow},
+                 {"paper", study.report.paper}};
   return j.dump(2) + "\n";
 }
 
@@ -260,6 +265,34 @@ StudyState parseStudyJson(const std::string& text, const std::string& studyPath)
         in.get<std::vector<double>>(u, "sizeThresholds", "uncertainty.sizeThresholds", {});
     for (double t : out.sizeThresholds) {
       if (!(t > 0.0 && t < 1.0)) in.fail("uncertainty.sizeThresholds", "each must lie in (0, 1)");
+    }
+  }
+  if (j.contains("report") && !j.at("report").is_null()) {
+    const json& r = in.object(j, "report", "report");
+    ReportSettings& out = s.report;
+    out.title = in.get<std::string>(r, "title", "report.title", "");
+    if (out.title.size() > kMaxReportTitleBytes) {
+      in.fail("report.title", "longer than " + std::to_string(kMaxReportTitleBytes) + " bytes");
+    }
+    out.thresholds = in.get<std::vector<double>>(r, "thresholds", "report.thresholds", {});
+    if (out.thresholds.size() > kMaxThresholdCount) {
+      in.fail("report.thresholds", "more than " + std::to_string(kMaxThresholdCount) + " values");
+    }
+    for (double t : out.thresholds) {
+      if (!(t > 0.0 && t < 1.0)) in.fail("report.thresholds", "each must lie in (0, 1)");
+    }
+    // 0 is "off"; anything else within the command line's --suppress-below limit.
+    const long long below = in.integer(r, "suppressBelow", "report.suppressBelow", 0,
+                                       {kSuppressBelowLimit.what, 0, kSuppressBelowLimit.max});
+    if (below != 0 && below < kSuppressBelowLimit.min) {
+      in.fail("report.suppressBelow", "must be 0 (off) or from " +
+                                          std::to_string(kSuppressBelowLimit.min) + " to " +
+                                          std::to_string(kSuppressBelowLimit.max));
+    }
+    out.suppressBelow = static_cast<std::size_t>(below);
+    out.paper = in.get<std::string>(r, "paper", "report.paper", "a4");
+    if (out.paper != "a4" && out.paper != "letter") {
+      in.fail("report.paper", "expected \"a4\" or \"letter\"");
     }
   }
   return s;

@@ -18,11 +18,13 @@
 #include "core/util/errors.h"
 #include "render/report/audit_pdf_writer.h"
 #include "render/report/report_charts.h"
+#include "tests/ui/pdf_text.h"
 #include "tests/unit/birthwt_run.h"
 #include "ui/dialogs/report_export_dialog.h"
 
 using namespace calivera;
 using namespace calivera::report;
+using calivera::testing::pdfText;
 
 namespace {
 
@@ -130,14 +132,6 @@ AuditReportInput simulatedInput(std::size_t tableRows) {
   input.settings.reasonableThresholds = Interval{0.05, 0.3};
   input.result = result;
   return input;
-}
-
-QString pdfText(const QString& path) {
-  QProcess process;
-  process.start(QStringLiteral("pdftotext"),
-                {QStringLiteral("-layout"), path, QStringLiteral("-")});
-  process.waitForFinished(60000);
-  return QString::fromUtf8(process.readAllStandardOutput());
 }
 
 }  // namespace

@@ -4,6 +4,8 @@
 // tests/reference/data); two routes of our own are compared, so no reference value is involved.
 #include <QAction>
 #include <QFile>
+#include <QProcess>
+#include <QTableView>
 #include <QTemporaryDir>
 #include <QtTest>
 
@@ -11,17 +13,22 @@
 #include "core/fit/cohort_fit.h"
 #include "core/model/model_io.h"
 #include "core/report/audit_run.h"
+#include "core/report/result_table.h"
 #include "core/study/reproduce_command.h"
 #include "core/study/study_file.h"
 #include "core/util/sha256.h"
+#include "tests/ui/pdf_text.h"
+#include "tests/unit/cli_run.h"
 #include "tests/unit/study_fixture.h"
 #include "ui/async/background_job.h"
 #include "ui/dialogs/report_export_dialog.h"
 #include "ui/dialogs/reproduce_dialog.h"
 #include "ui/main_window.h"
+#include "ui/models/table_export.h"
 
 using namespace calivera;
 using namespace calivera::ui;
+using calivera::testing::pdfText;
 
 namespace {
 
@@ -143,6 +150,69 @@ class StudyParityTest : public QObject {
     }
     QVERIFY(basisStated);
     compareWithCommandLine(w.controller().study(), study);
+  }
+
+  // The workstation's table export writes, byte for byte, the file the command line's --csv-dir
+  // writes for the same table of the same study (`calivera run`, the real executable).
+  void tablesExportAsTheCommandLineWritesThem() {
+    const StudyState study = calivera::testing::birthwtFileStudy(kBirthwt, model_);
+    MainWindow w;
+    open(w, study, "tables.cvstudy");
+    const std::string folder = path("cli_tables");
+    const auto cli =
+        calivera::testing::runCalivera({"run", path("tables.cvstudy"), "--csv-dir", folder}, 120);
+    QVERIFY2(cli.status == 0, cli.err.c_str());
+    for (const char* view : {"thresholdTable", "hosmerLemeshowTable"}) {
+      auto* table = w.findChild<QTableView*>(view);
+      QVERIFY2(table != nullptr, view);
+      const ResultTable* core = coreTableOf(*table->model());
+      QVERIFY2(core != nullptr, view);
+      const std::string written =
+          calivera::testing::readWhole(std::filesystem::path(folder) / core->fileName);
+      QVERIFY2(!written.empty(), core->fileName.c_str());
+      QCOMPARE(tableToCsv(*table->model()).toStdString(), written);
+    }
+    // Sorting the view changes what is shown, not what is exported.
+    auto* table = w.findChild<QTableView*>("thresholdTable");
+    table->sortByColumn(5, Qt::DescendingOrder);
+    QCOMPARE(tableToCsv(*table->model()).toStdString(),
+             calivera::testing::readWhole(std::filesystem::path(folder) / "thresholds.csv"));
+  }
+
+  // The same study through the workstation's report export and through `calivera run --pdf`:
+  // the same report settings (saved with the study), the same PDF text as pdftotext reads it.
+  // Both runs share SOURCE_DATE_EPOCH, so even the creation date agrees. The model's development
+  // fingerprint is the cohort's, so both PDFs must also call the validation apparent.
+  void pdfTextMatchesTheCommandLine() {
+    StudyState study = calivera::testing::birthwtFileStudy(kBirthwt, model_);
+    study.report.title = "Parity <check> & \"quotes\"";
+    study.report.thresholds = {0.1, 0.25, 0.4};
+    study.report.suppressBelow = 5;
+    study.report.paper = "letter";
+    qputenv("SOURCE_DATE_EPOCH", "1764590400");
+    MainWindow w;
+    open(w, study, "pdf.cvstudy");
+    QCOMPARE(w.controller().study().report.thresholds, study.report.thresholds);
+    const std::string guiPdf = path("gui.pdf");
+    QCOMPARE(exportReport(w.controller().study(), exportRequestFor(w.controller().study(), guiPdf))
+                 .result(),
+             QString());
+    const std::string cliPdf = path("cli.pdf");
+    const auto cli = calivera::testing::runCalivera(
+        {"run", path("pdf.cvstudy"), "--pdf", cliPdf, "--json", path("cli.json")}, 120);
+    QVERIFY2(cli.status == 0, cli.err.c_str());
+    const QString guiText = pdfText(QString::fromStdString(guiPdf));
+    const QString cliText = pdfText(QString::fromStdString(cliPdf));
+    QVERIFY(guiText.contains("Parity <check>"));
+    QVERIFY(guiText.contains("apparent", Qt::CaseInsensitive));
+    QVERIFY(guiText.contains("2025-12-01"));
+    QCOMPARE(guiText, cliText);
+    // An option given to `run` wins over the saved setting.
+    const auto retitled = calivera::testing::runCalivera(
+        {"run", path("pdf.cvstudy"), "--pdf", path("cli2.pdf"), "--title", "Other"}, 120);
+    QVERIFY2(retitled.status == 0, retitled.err.c_str());
+    QVERIFY(pdfText(dir_.filePath("cli2.pdf")).contains("Other"));
+    qunsetenv("SOURCE_DATE_EPOCH");
   }
 
   // Every view's numbers can be reproduced: the action is there and shows core's command.

@@ -155,5 +155,55 @@ TEST_F(RunCommand, BadStudyOrMissingInputIsExitTwoWithoutOutput) {
   EXPECT_NE(help.out.find("calivera run STUDY.cvstudy"), std::string::npos);
 }
 
+// The report settings the workstation saves with a study (StudyState::report) survive the file and
+// reach `run --pdf`; a bad value is refused naming its field, before anything is written.
+TEST_F(RunCommand, ReportSettingsRoundTripAndBadOnesAreRefused) {
+  StudyState study = testing::birthwtFileStudy(kBirthwt, model());
+  study.report.title = "Ward 7 =SUM(A1)";
+  study.report.thresholds = {0.1, 0.2};
+  study.report.suppressBelow = 5;
+  study.report.paper = "letter";
+  writeStudyFile(dir_.file("report.cvstudy"), study);
+  const StudyState back = readStudyFile(dir_.file("report.cvstudy"));
+  EXPECT_EQ(back.report.title, study.report.title);
+  EXPECT_EQ(back.report.thresholds, study.report.thresholds);
+  EXPECT_EQ(back.report.suppressBelow, 5u);
+  EXPECT_EQ(back.report.paper, "letter");
+
+  // A saved threshold that the validation did not compute is the report's error, exit 2.
+  study.report.thresholds = {0.125};
+  writeStudyFile(dir_.file("offgrid.cvstudy"), study);
+  const CliRun offGrid =
+      runCalivera({"run", dir_.file("offgrid.cvstudy"), "--pdf", dir_.file("never.pdf")});
+  EXPECT_EQ(offGrid.status, 2);
+  EXPECT_NE(offGrid.err.find("0.125"), std::string::npos) << offGrid.err;
+  EXPECT_FALSE(std::filesystem::exists(dir_.file("never.pdf")));
+  // ... and the same run with the option naming computed thresholds succeeds.
+  const CliRun overridden = runCalivera({"run", dir_.file("offgrid.cvstudy"), "--pdf",
+                                         dir_.file("ok.pdf"), "--report-thresholds", "0.1,0.3"});
+  EXPECT_EQ(overridden.status, 0) << overridden.err;
+  EXPECT_TRUE(std::filesystem::exists(dir_.file("ok.pdf")));
+
+  const auto withReport = [&](const std::string& report) {
+    std::string text = readWhole(dir_.file("report.cvstudy"));
+    const std::size_t at = text.find("\"report\"");
+    const std::size_t end = text.find('}', at);
+    text.replace(at, end + 1 - at, "\"report\": " + report);
+    return dir_.write("bad.cvstudy", text);
+  };
+  const std::pair<const char*, const char*> cases[] = {
+      {R"({"paper": "a3"})", "report.paper"},
+      {R"({"suppressBelow": 1})", "report.suppressBelow"},
+      {R"({"suppressBelow": 5000})", "report.suppressBelow"},
+      {R"({"thresholds": [0.2, 1.5]})", "report.thresholds"},
+      {R"({"title": 7})", "report.title"},
+  };
+  for (const auto& [report, field] : cases) {
+    const CliRun run = runCalivera({"run", withReport(report)});
+    EXPECT_EQ(run.status, 2) << report;
+    EXPECT_NE(run.err.find(field), std::string::npos) << report << ": " << run.err;
+  }
+}
+
 }  // namespace
 }  // namespace calivera

@@ -22,12 +22,32 @@
 #include "core/model/model_io.h"
 #include "core/report/audit_format.h"
 #include "core/report/audit_run.h"
+#include "core/study/limits.h"
 #include "core/util/atomic_file.h"
 #include "core/util/errors.h"
 #include "core/util/sha256.h"
 #include "render/report/report_charts.h"
 
 namespace calivera::ui {
+
+ReportExportRequest exportRequestFor(const StudyState& study, const std::string& path) {
+  ReportExportRequest request;
+  request.path = path;
+  request.title = study.report.title;
+  request.thresholds = study.report.thresholds;
+  request.suppressBelow = study.report.suppressBelow;
+  request.paper = report::parsePaperSize(study.report.paper, "report.paper");
+  return request;
+}
+
+ReportSettings reportSettingsOf(const ReportExportRequest& request) {
+  ReportSettings settings;
+  settings.title = request.title;
+  settings.thresholds = request.thresholds;
+  settings.suppressBelow = request.suppressBelow;
+  settings.paper = request.paper == report::PaperSize::Letter ? "letter" : "a4";
+  return settings;
+}
 
 AuditReportInput auditInputFromStudy(const StudyState& study, const ReportExportRequest& request) {
   if (!study.run || !study.result || !study.data || !study.model) {
@@ -91,7 +111,8 @@ std::vector<double> parseThresholds(const QString& text) {
 
 }  // namespace
 
-void showReportExportDialog(QWidget* parent, const StudyState& study) {
+void showReportExportDialog(QWidget* parent, const StudyState& study,
+                            const std::function<void(const ReportSettings&)>& remember) {
   if (!study.result || !study.data || !study.model) {
     QMessageBox::information(parent, QObject::tr("Export report"),
                              QObject::tr("Load a cohort and a model first: the report describes "
@@ -103,16 +124,25 @@ void showReportExportDialog(QWidget* parent, const StudyState& study) {
   dialog.setWindowTitle(QObject::tr("Export audit report"));
   auto* form = new QFormLayout;
 
+  // Filled from the study's report settings, whose defaults are the command line's.
+  const ReportSettings& saved = study.report;
   auto* title = new QLineEdit(&dialog);
   title->setObjectName(QStringLiteral("reportTitleEdit"));
-  title->setText(QObject::tr("Validation of %1")
-                     .arg(QString::fromStdString(study.model->name.empty() ? "the model"
-                                                                           : study.model->name)));
+  title->setMaxLength(static_cast<int>(kMaxReportTitleBytes / 4));  // UTF-8: up to 4 bytes each
+  title->setText(QString::fromStdString(saved.title));
+  title->setPlaceholderText(QString::fromUtf8(kDefaultAuditTitle));
   form->addRow(QObject::tr("Title"), title);
 
   auto* thresholds = new QLineEdit(&dialog);
   thresholds->setObjectName(QStringLiteral("reportThresholdsEdit"));
-  thresholds->setText(QString::fromStdString(formatThreshold(study.analysis.threshold)));
+  {
+    const std::vector<double> shown = saved.thresholds.empty()
+                                          ? defaultTableThresholds(study.result->thresholds)
+                                          : saved.thresholds;
+    QStringList items;
+    for (const double t : shown) items << QString::fromStdString(formatThreshold(t));
+    thresholds->setText(items.join(QStringLiteral(", ")));
+  }
   thresholds->setToolTip(
       QObject::tr("Risks at which to tabulate sensitivity, specificity and "
                   "predictive values, separated by commas (steps of 0.01)"));
@@ -122,7 +152,7 @@ void showReportExportDialog(QWidget* parent, const StudyState& study) {
   suppress->setObjectName(QStringLiteral("reportSuppressSpin"));
   suppress->setRange(1, 1000);
   suppress->setSpecialValueText(QObject::tr("off"));
-  suppress->setValue(1);
+  suppress->setValue(saved.suppressBelow == 0 ? 1 : static_cast<int>(saved.suppressBelow));
   suppress->setToolTip(
       QObject::tr("Hide counts from 1 to N-1 (shown as <N), with the further "
                   "cells needed so they cannot be recomputed from totals"));
@@ -132,6 +162,7 @@ void showReportExportDialog(QWidget* parent, const StudyState& study) {
   paper->setObjectName(QStringLiteral("reportPaperCombo"));
   paper->addItem(QObject::tr("A4"));
   paper->addItem(QObject::tr("US Letter"));
+  paper->setCurrentIndex(saved.paper == "letter" ? 1 : 0);
   form->addRow(QObject::tr("Paper"), paper);
 
   auto* path = new QLineEdit(&dialog);
@@ -183,6 +214,7 @@ void showReportExportDialog(QWidget* parent, const StudyState& study) {
     }
   });
   if (dialog.exec() != QDialog::Accepted) return;
+  if (remember) remember(reportSettingsOf(request));
 
   QFuture<QString> future;
   try {

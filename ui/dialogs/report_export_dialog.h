@@ -10,6 +10,7 @@
 #include <QFuture>
 #include <QString>
 #include <cstddef>
+#include <functional>
 #include <string>
 #include <vector>
 
@@ -29,6 +30,11 @@ struct ReportExportRequest {
   report::PaperSize paper = report::PaperSize::A4;
 };
 
+// The request the study's saved report settings (StudyState::report) stand for, writing to `path`;
+// and back. `calivera run STUDY --pdf` reads the same settings, so the two PDFs agree.
+ReportExportRequest exportRequestFor(const StudyState& study, const std::string& path);
+ReportSettings reportSettingsOf(const ReportExportRequest& request);
+
 // The report input for a study that holds a result. Throws InputError when the study has no
 // result or data record.
 AuditReportInput auditInputFromStudy(const StudyState& study, const ReportExportRequest& request);
@@ -38,8 +44,11 @@ AuditReportInput auditInputFromStudy(const StudyState& study, const ReportExport
 // left behind on failure). Throws InputError for a bad request before anything starts.
 QFuture<QString> exportReport(const StudyState& study, const ReportExportRequest& request);
 
-// Opens the dialog (modal to `parent`); on OK starts exportReport and tells the user the outcome
-// when it finishes. Does nothing but explain when the study has no result yet.
-void showReportExportDialog(QWidget* parent, const StudyState& study);
+// Opens the dialog (modal to `parent`), filled from the study's report settings; on OK hands the
+// chosen settings to `remember` (so a saved study's `calivera run --pdf` writes the same report),
+// starts exportReport and tells the user the outcome when it finishes. Does nothing but explain
+// when the study has no result yet.
+void showReportExportDialog(QWidget* parent, const StudyState& study,
+                            const std::function<void(const ReportSettings&)>& remember);
 
 }  // namespace calivera::ui

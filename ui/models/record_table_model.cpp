@@ -8,6 +8,7 @@ void RecordTableModel::setTable(QStringList headers, QStringList headerTips,
   headers_ = std::move(headers);
   headerTips_ = std::move(headerTips);
   rows_ = std::move(rows);
+  source_.reset();
   endResetModel();
 }
 

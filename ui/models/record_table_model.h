@@ -7,7 +7,10 @@
 #include <QAbstractTableModel>
 #include <QString>
 #include <QStringList>
+#include <optional>
 #include <vector>
+
+#include "core/report/result_table.h"
 
 namespace calivera::ui {
 
@@ -33,7 +36,13 @@ class RecordTableModel : public QAbstractTableModel {
 
   const TableCell& cell(int row, int column) const { return rows_[row][column]; }
 
+  // The core table this model shows, when it shows one (ui/models/result_tables.h): export writes
+  // it as the command line does. Cleared by setTable().
+  void setSource(ResultTable table) { source_ = std::move(table); }
+  const ResultTable* source() const { return source_ ? &*source_ : nullptr; }
+
  private:
+  std::optional<ResultTable> source_;
   QStringList headers_;
   QStringList headerTips_;
   std::vector<std::vector<TableCell>> rows_;

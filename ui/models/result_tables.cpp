@@ -35,90 +35,40 @@ using cells::count;
 using cells::interval;
 using cells::number;
 
-void fillThresholdTable(RecordTableModel& model, const std::vector<ThresholdRow>& rows,
-                        const std::vector<DecisionCurvePoint>& decisionCurve) {
-  const QStringList headers = {QStringLiteral("Threshold"),
-                               QStringLiteral("Flagged"),
-                               QStringLiteral("TP"),
-                               QStringLiteral("FP"),
-                               QStringLiteral("TN"),
-                               QStringLiteral("FN"),
-                               QStringLiteral("Sensitivity"),
-                               QStringLiteral("Sensitivity 95% CI"),
-                               QStringLiteral("Specificity"),
-                               QStringLiteral("Specificity 95% CI"),
-                               QStringLiteral("PPV"),
-                               QStringLiteral("PPV 95% CI"),
-                               QStringLiteral("NPV"),
-                               QStringLiteral("NPV 95% CI"),
-                               QStringLiteral("Net benefit"),
-                               QStringLiteral("Flagged per 1000"),
-                               QStringLiteral("Events caught per 1000"),
-                               QStringLiteral("Events missed per 1000"),
-                               QStringLiteral("Flagged without event per 1000")};
-  const QStringList tips = {
-      QStringLiteral("Patients with predicted risk at or above this value are flagged"),
-      QStringLiteral("Number of patients flagged"),
-      QStringLiteral("True positives: flagged, with the event"),
-      QStringLiteral("False positives: flagged, without the event"),
-      QStringLiteral("True negatives: not flagged, without the event"),
-      QStringLiteral("False negatives: not flagged, with the event"),
-      QStringLiteral("Share of patients with the event who are flagged"),
-      QStringLiteral("Wilson score 95% interval"),
-      QStringLiteral("Share of patients without the event who are not flagged"),
-      QStringLiteral("Wilson score 95% interval"),
-      QStringLiteral("Positive predictive value: share of flagged patients with the event"),
-      QStringLiteral("Wilson score 95% interval"),
-      QStringLiteral("Negative predictive value: share of unflagged patients without the event"),
-      QStringLiteral("Wilson score 95% interval"),
-      QStringLiteral("Net benefit (Vickers & Elkin 2006): TP/n − FP/n × t/(1 − t)"),
-      QString(),
-      QString(),
-      QString(),
-      QString()};
-  std::vector<std::vector<TableCell>> cells;
-  cells.reserve(rows.size());
-  for (std::size_t i = 0; i < rows.size(); ++i) {
-    const ThresholdRow& r = rows[i];
-    double nb = std::numeric_limits<double>::quiet_NaN();
-    if (i < decisionCurve.size() && std::abs(decisionCurve[i].threshold - r.threshold) < 1e-12) {
-      nb = decisionCurve[i].netBenefit;
+void showResultTable(RecordTableModel& model, ResultTable table) {
+  QStringList headers;
+  QStringList tips;
+  for (const TableColumn& c : table.columns) {
+    headers << QString::fromStdString(c.label);
+    tips << QString::fromStdString(c.tip);
+  }
+  std::vector<std::vector<TableCell>> rows;
+  rows.reserve(table.rows.size());
+  for (const auto& values : table.rows) {
+    std::vector<TableCell> row;
+    row.reserve(values.size());
+    for (std::size_t k = 0; k < values.size(); ++k) {
+      const TableColumn& c = table.columns[k];
+      const TableValue& v = values[k];
+      switch (c.kind) {
+        case TableColumnKind::Number:
+          row.push_back(number(v.number, c.decimals));
+          break;
+        case TableColumnKind::Count:
+          row.push_back(count(static_cast<std::size_t>(v.number)));
+          break;
+        case TableColumnKind::Interval:
+          row.push_back(interval(v.interval, c.decimals));
+          break;
+        case TableColumnKind::Text:
+          row.push_back(cells::text(QString::fromStdString(v.text)));
+          break;
+      }
     }
-    cells.push_back({number(r.threshold, 3), count(r.tp + r.fp), count(r.tp), count(r.fp),
-                     count(r.tn), count(r.fn), number(r.sensitivity, 3),
-                     interval(r.sensitivityCi, 3), number(r.specificity, 3),
-                     interval(r.specificityCi, 3), number(r.ppv, 3), interval(r.ppvCi, 3),
-                     number(r.npv, 3), interval(r.npvCi, 3), number(nb, 4),
-                     number(r.flaggedPer1000, 1), number(r.eventsCaughtPer1000, 1),
-                     number(r.eventsMissedPer1000, 1), number(r.flaggedWithoutEventPer1000, 1)});
+    rows.push_back(std::move(row));
   }
-  model.setTable(headers, tips, std::move(cells));
-}
-
-void fillHosmerLemeshowTable(RecordTableModel& model, const HosmerLemeshow& hl) {
-  const QStringList headers = {
-      QStringLiteral("Risk group"),          QStringLiteral("Patients"),
-      QStringLiteral("Lowest risk"),         QStringLiteral("Highest risk"),
-      QStringLiteral("Mean predicted risk"), QStringLiteral("Expected events"),
-      QStringLiteral("Observed events"),     QStringLiteral("Observed proportion"),
-      QStringLiteral("Observed 95% CI")};
-  const QStringList tips = {QStringLiteral("Groups of patients by quantiles of predicted risk"),
-                            QString(),
-                            QString(),
-                            QString(),
-                            QString(),
-                            QStringLiteral("Sum of predicted risks in the group"),
-                            QString(),
-                            QString(),
-                            QStringLiteral("Wilson score 95% interval")};
-  std::vector<std::vector<TableCell>> cells;
-  for (std::size_t g = 0; g < hl.groups.size(); ++g) {
-    const CalibrationGroup& c = hl.groups[g];
-    cells.push_back({count(g + 1), count(c.n), number(c.riskLo, 4), number(c.riskHi, 4),
-                     number(c.meanRisk, 4), number(c.expected, 2), count(c.observed),
-                     number(c.observedProportion, 4), interval(c.observedCi, 4)});
-  }
-  model.setTable(headers, tips, std::move(cells));
+  model.setTable(std::move(headers), std::move(tips), std::move(rows));
+  model.setSource(std::move(table));
 }
 
 void fillCoefficientTable(RecordTableModel& model, const Model& riskModel,

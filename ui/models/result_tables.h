@@ -1,6 +1,6 @@
 #pragma once
-// Fills RecordTableModels from core result structs: the threshold trade-off table, the
-// Hosmer-Lemeshow (grouped calibration) table and the coefficient table.
+// Fills RecordTableModels from core: any core result table (the threshold trade-off table and the
+// Hosmer-Lemeshow groups among them), and the coefficient table.
 
 #include <vector>
 
@@ -20,11 +20,10 @@ TableCell interval(const Interval& ci, int decimals);  // "lo to hi", sorted by 
 TableCell text(const QString& s);                      // sorts alphabetically
 }  // namespace cells
 
-// Column 0 is the threshold. Net benefit is filled from the decision curve where its threshold
-// grid matches the table's (core builds both from the same grid).
-void fillThresholdTable(RecordTableModel& model, const std::vector<ThresholdRow>& rows,
-                        const std::vector<DecisionCurvePoint>& decisionCurve);
-void fillHosmerLemeshowTable(RecordTableModel& model, const HosmerLemeshow& hl);
+// A core result table (core/report/result_table.h) on screen: its labels, its tooltips, values
+// rounded to each column's decimals. The model keeps the table, so "Export table" writes the
+// command line's CSV for it (ui/models/table_export.h).
+void showResultTable(RecordTableModel& model, ResultTable table);
 // Wald 95% CI coefficient +/- 1.96 SE and the odds ratio exp(coefficient) per term; with
 // `profile` ([0] the intercept, then each term) two more columns, the profile-likelihood CI.
 void fillCoefficientTable(RecordTableModel& model, const Model& riskModel,

@@ -1,9 +1,11 @@
 #include "ui/models/table_export.h"
 
 #include <QAbstractItemModel>
+#include <QAbstractProxyModel>
 #include <QSaveFile>
 
 #include "core/report/csv_text.h"
+#include "ui/models/record_table_model.h"
 
 namespace calivera::ui {
 
@@ -46,7 +48,15 @@ QString joined(const QAbstractItemModel& model, const std::vector<int>& rows, QC
 
 }  // namespace
 
+const ResultTable* coreTableOf(const QAbstractItemModel& model) {
+  const QAbstractItemModel* m = &model;
+  while (const auto* proxy = qobject_cast<const QAbstractProxyModel*>(m)) m = proxy->sourceModel();
+  const auto* record = dynamic_cast<const RecordTableModel*>(m);
+  return record != nullptr ? record->source() : nullptr;
+}
+
 QString tableToCsv(const QAbstractItemModel& model) {
+  if (const ResultTable* core = coreTableOf(model)) return QString::fromStdString(tableCsv(*core));
   return joined(model, {}, ',', true);
 }
 

@@ -1,0 +1,61 @@
+#pragma once
+// A result table as data: what each column holds (its CSV key, its on-screen label and tooltip,
+// how many decimals the screen shows) and the values, kept at full precision. One definition per
+// table, two renderings:
+//   tableCsv()  the file `calivera validate --csv-dir` writes (core/report/validation_tables.h),
+//               byte for byte; the workstation's "Export table" writes the same text;
+//   the workstation's table view (ui/models/result_tables.h) shows the labels and rounds to the
+//               decimals, with "not defined" for an undefined value (core/present/number_text.h).
+// An interval column is one column on screen ("lo to hi") and two in the CSV (its two keys).
+//
+// Aggregates only: no table here carries a patient-level value.
+
+#include <cstddef>
+#include <limits>
+#include <string>
+#include <vector>
+
+#include "core/metrics/validation.h"
+
+namespace calivera {
+
+enum class TableColumnKind { Number, Count, Interval, Text };
+
+struct TableColumn {
+  std::string key;    // CSV header (for an interval: the lower bound's)
+  std::string keyHi;  // interval only: the upper bound's CSV header
+  std::string label;  // on-screen header
+  std::string tip;    // on-screen header tooltip; may be empty
+  TableColumnKind kind = TableColumnKind::Number;
+  int decimals = 3;  // on screen only; the CSV keeps 10 significant digits
+};
+
+// One cell; which member is read follows the column's kind.
+struct TableValue {
+  double number = std::numeric_limits<double>::quiet_NaN();  // Number (NaN: not defined), Count
+  Interval interval{std::numeric_limits<double>::quiet_NaN(),
+                    std::numeric_limits<double>::quiet_NaN()};
+  std::string text;
+
+  static TableValue of(double v) { return {v, {}, {}}; }
+  static TableValue ofCount(std::size_t v) { return {static_cast<double>(v), {}, {}}; }
+  static TableValue of(const Interval& ci) { return {0.0, ci, {}}; }
+  static TableValue of(const std::string& s) { return {0.0, {}, s}; }
+};
+
+struct ResultTable {
+  std::string fileName;  // as written by --csv-dir, e.g. "thresholds.csv"
+  std::vector<TableColumn> columns;
+  std::vector<std::vector<TableValue>> rows;  // each row has one value per column
+};
+
+// The CSV text (core/report/csv_text.h conventions).
+std::string tableCsv(const ResultTable& table);
+
+// The threshold trade-off table: one row per threshold of the result's grid, with the net
+// benefit of the decision curve at the same threshold (core builds both from the same grid).
+ResultTable thresholdTable(const ValidationResult& result);
+// The grouped calibration (Hosmer-Lemeshow) table: one row per risk group.
+ResultTable hosmerLemeshowTable(const HosmerLemeshow& hl);
+
+}  // namespace calivera
