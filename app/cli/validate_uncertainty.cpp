@@ -25,9 +25,9 @@ std::string pValueText(double p) {
   return formatPValue(p);
 }
 
-void printEstimate(std::ostream& out, const char* name, const BootstrapEstimate& e) {
-  out << "  " << name << ": " << fixed4(e.estimate) << " (95% CI " << fixed4(e.ci.lo) << " to "
-      << fixed4(e.ci.hi) << ")\n";
+void printEstimate(std::ostream& out, const BootstrappedMeasure& m, const BootstrapEstimate& e) {
+  out << "  " << m.label << ": " << formatNumber(e.estimate, m.decimals) << " (95% CI "
+      << formatRange(e.ci.lo, e.ci.hi, m.decimals) << ")\n";
 }
 
 }  // namespace
@@ -118,7 +118,7 @@ void printUncertaintySummary(std::ostream& out, const UncertaintyResults& r) {
     out << "bootstrap: " << b.run.replicates << " resamples, seed " << b.run.seed << ", "
         << b.run.threads << " threads, " << b.run.failed << " failed\n";
     for (const BootstrappedMeasure& m : bootstrappedMeasures()) {
-      printEstimate(out, m.label, b.*m.interval);
+      printEstimate(out, m, b.*m.interval);
     }
     for (const auto& w : b.warnings) out << "  warning: " << w << '\n';
   }

@@ -9,6 +9,7 @@
 
 #include "core/metrics/size_warnings.h"
 #include "core/present/caution.h"
+#include "core/present/measures.h"
 #include "core/present/number_text.h"
 #include "core/present/wording.h"
 #include "core/report/audit_blocks.h"
@@ -244,53 +245,52 @@ void addSummary(const AuditReportInput& input, const DisclosurePlan& plan,
   const ValidationBootstrap* boot =
       input.uncertainty && input.uncertainty->bootstrap ? &*input.uncertainty->bootstrap : nullptr;
   const std::string hidden = kComplementaryMark;
-  // The bootstrap interval of one catalogued measure (core/uncertainty/bootstrap_measures.h).
-  const auto bootCi = [&](BootstrapEstimate ValidationBootstrap::*member) {
-    return boot ? bootstrapCiText(boot->*member, 3) : std::string();
+  // Labels, decimals and values from the one catalog of measures (core/present/measures.h).
+  const auto m = [](const char* key) -> const Measure& { return measureByKey(key); };
+  const auto text = [&](const char* key) { return measureText(m(key), r); };
+  const auto withCi = [&](const char* key) {
+    const Measure& measure = m(key);
+    return formatWithCi(measure.estimate(r), measure.interval(r), measure.decimals);
+  };
+  const auto bootCi = [&](const char* key) {
+    return boot ? bootstrapCiText(boot->*(m(key).bootstrap), m(key).decimals) : std::string();
   };
   std::vector<std::string> bootCells;
   const auto add = [&](std::vector<std::string> row, std::string bootCell) {
     table.rows.push_back(std::move(row));
     bootCells.push_back(bootCell.empty() ? "-" : std::move(bootCell));
   };
-  add({"AUC (c-statistic)", formatWithCi(r.discrimination.auc, r.discrimination.aucCi, 3),
-       aucReading(r.discrimination)},
-      bootCi(&ValidationBootstrap::auc));
-  add({"Discrimination slope", formatFixed(r.discrimination.discriminationSlope, 3),
+  add({m("auc").label, withCi("auc"), aucReading(r.discrimination)}, bootCi("auc"));
+  add({m("discrimination_slope").label, text("discrimination_slope"),
        "Mean predicted risk of patients with the event minus that of patients without it."},
       {});
-  add({"Calibration intercept", formatWithCi(c.intercept, c.interceptCi, 3), interceptReading(c)},
-      bootCi(&ValidationBootstrap::calibrationIntercept));
-  add({"Calibration slope", formatWithCi(c.slope, c.slopeCi, 3), slopeReading(c)},
-      bootCi(&ValidationBootstrap::calibrationSlope));
-  add({"Observed / expected", plan.eventsHidden() ? hidden : formatWithCi(c.oeRatio, c.oeCi, 3),
+  add({m("calibration_intercept").label, withCi("calibration_intercept"), interceptReading(c)},
+      bootCi("calibration_intercept"));
+  add({m("calibration_slope").label, withCi("calibration_slope"), slopeReading(c)},
+      bootCi("calibration_slope"));
+  add({m("oe_ratio").label, plan.eventsHidden() ? hidden : withCi("oe_ratio"),
        "Observed events per predicted event (target 1)."},
-      plan.eventsHidden() && boot ? hidden : bootCi(&ValidationBootstrap::oeRatio));
-  add({"Spiegelhalter z",
-       formatFixed(c.spiegelhalterZ, 2) + " (p " + (c.spiegelhalterP < kPValueFloor ? "" : "= ") +
-           formatPValue(c.spiegelhalterP) + ")",
+      plan.eventsHidden() && boot ? hidden : bootCi("oe_ratio"));
+  add({m("spiegelhalter_z").label,
+       text("spiegelhalter_z") + " (p " + (c.spiegelhalterP < kPValueFloor ? "" : "= ") +
+           text("spiegelhalter_p") + ")",
        "Tests whether squared errors exceed what the predicted risks imply."},
       {});
   add({"ICI / E50 / E90 / Emax",
-       formatFixed(c.ici, 3) + " / " + formatFixed(c.e50, 3) + " / " + formatFixed(c.e90, 3) +
-           " / " + formatFixed(c.emax, 3),
+       text("ici") + " / " + text("e50") + " / " + text("e90") + " / " + text("emax"),
        "On average predicted risk differs from the smoothed observed risk by " +
            formatFixed(c.ici * 100.0, 1) + " percentage points."},
-      boot ? "ICI " + bootCi(&ValidationBootstrap::ici) + "\nE90 " +
-                 bootCi(&ValidationBootstrap::e90)
-           : std::string());
-  add({"Brier score (scaled)",
-       formatFixed(r.overall.brier, 3) + " (" +
-           (plan.eventsHidden() ? hidden : formatFixed(r.overall.brierScaled, 3)) + ")",
+      boot ? "ICI " + bootCi("ici") + "\nE90 " + bootCi("e90") : std::string());
+  add({std::string(m("brier").label) + " (scaled)",
+       text("brier") + " (" + (plan.eventsHidden() ? hidden : text("brier_scaled")) + ")",
        "Mean squared error of the risks (0 is perfect); scaled: share of the error of a "
        "prevalence-only model removed."},
-      boot ? bootCi(&ValidationBootstrap::brier) + "\n(" +
-                 (plan.eventsHidden() ? hidden : bootCi(&ValidationBootstrap::brierScaled)) + ")"
+      boot ? bootCi("brier") + "\n(" + (plan.eventsHidden() ? hidden : bootCi("brier_scaled")) + ")"
            : std::string());
   const HosmerLemeshow& hl = r.hosmerLemeshow;
   add({"Hosmer-Lemeshow",
-       "chi-square " + formatFixed(hl.statistic, 2) + ", df " + std::to_string(hl.df) + ", p " +
-           (hl.pValue < kPValueFloor ? "" : "= ") + formatPValue(hl.pValue),
+       "chi-square " + text("hosmer_lemeshow_statistic") + ", df " + text("hosmer_lemeshow_df") +
+           ", p " + (hl.pValue < kPValueFloor ? "" : "= ") + text("hosmer_lemeshow_p"),
        hl.pValue < 0.05 ? "Grouped observed and expected events differ more than chance "
                           "explains; read with the calibration curve."
                         : "No clear difference between grouped observed and expected events; "

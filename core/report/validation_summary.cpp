@@ -1,10 +1,12 @@
 #include "core/report/validation_summary.h"
 
+#include <algorithm>
 #include <cmath>
 #include <cstdio>
 #include <iterator>
 #include <sstream>
 
+#include "core/present/measures.h"
 #include "core/present/number_text.h"
 #include "core/report/audit_run.h"
 #include "core/report/validation_json.h"
@@ -14,15 +16,6 @@ namespace {
 
 std::string fixed(double value, int decimals) {
   return formatNumber(value, decimals);
-}
-
-std::string withCi(double value, const Interval& ci, int decimals) {
-  return fixed(value, decimals) + " (95% CI " + fixed(ci.lo, decimals) + " to " +
-         fixed(ci.hi, decimals) + ")";
-}
-
-std::string pValue(double p) {
-  return formatPValue(p);
 }
 
 // Net benefit rows shown for a long threshold grid (the default 0.01..0.99): these customary
@@ -57,25 +50,40 @@ std::string validationSummaryText(const ValidationRun& run, const std::string& b
   }
   out << "Events        " << r.cohort.events << " (prevalence "
       << fixed(100 * r.cohort.prevalence, 1) << "%)\n\n";
+  // Labels, decimals and targets from the one catalog of measures (core/present/measures.h).
+  const auto line = [&](const char* key, bool ci) {
+    const Measure& m = measureByKey(key);
+    std::string label = m.label;
+    label.resize(std::max<std::size_t>(label.size() + 1, 24), ' ');
+    out << "  " << label << (ci ? measureWithCiText(m, r) : measureText(m, r));
+  };
+  const auto text = [&](const char* key) { return measureText(measureByKey(key), r); };
+  const auto target = [&](const char* key) {
+    out << "  target " << measureByKey(key).target << "\n";
+  };
   out << "Discrimination\n";
-  out << "  AUC (c-statistic)       " << withCi(r.discrimination.auc, r.discrimination.aucCi, 3)
-      << ", DeLong SE " << fixed(r.discrimination.aucSe, 4) << "\n";
-  out << "  Discrimination slope    " << fixed(r.discrimination.discriminationSlope, 3) << "\n";
-  out << "Overall\n";
-  out << "  Brier score             " << fixed(r.overall.brier, 4) << " (scaled "
-      << fixed(r.overall.brierScaled, 3) << ")\n";
+  line("auc", true);
+  out << ", DeLong SE " << fixed(r.discrimination.aucSe, 4) << "\n";
+  line("discrimination_slope", false);
+  out << "\nOverall\n";
+  line("brier", false);
+  out << " (scaled " << text("brier_scaled") << ")\n";
   out << "Calibration\n";
-  out << "  Calibration intercept   " << withCi(c.intercept, c.interceptCi, 3) << "  target 0\n";
-  out << "  Calibration slope       " << withCi(c.slope, c.slopeCi, 3) << "  target 1\n";
-  out << "  Observed / expected     " << withCi(c.oeRatio, c.oeCi, 3) << "  target 1\n";
-  out << "  ICI / E50 / E90 / Emax  " << fixed(c.ici, 4) << " / " << fixed(c.e50, 4) << " / "
-      << fixed(c.e90, 4) << " / " << fixed(c.emax, 4)
-      << (c.curveInterpolated ? "  (loess on a quantile grid)" : "") << "\n";
-  out << "  Spiegelhalter z         " << fixed(c.spiegelhalterZ, 2) << ", p "
-      << pValue(c.spiegelhalterP) << "\n";
+  line("calibration_intercept", true);
+  target("calibration_intercept");
+  line("calibration_slope", true);
+  target("calibration_slope");
+  line("oe_ratio", true);
+  target("oe_ratio");
+  out << "  ICI / E50 / E90 / Emax  " << text("ici") << " / " << text("e50") << " / " << text("e90")
+      << " / " << text("emax") << (c.curveInterpolated ? "  (loess on a quantile grid)" : "")
+      << "\n";
+  line("spiegelhalter_z", false);
+  out << ", p " << text("spiegelhalter_p") << "\n";
   const HosmerLemeshow& hl = r.hosmerLemeshow;
-  out << "  Hosmer-Lemeshow         " << fixed(hl.statistic, 2) << " on " << hl.df << " df, p "
-      << pValue(hl.pValue) << " (" << hl.groups.size() << " groups)\n";
+  out << "  Hosmer-Lemeshow         " << text("hosmer_lemeshow_statistic") << " on "
+      << text("hosmer_lemeshow_df") << " df, p " << text("hosmer_lemeshow_p") << " ("
+      << hl.groups.size() << " groups)\n";
   out << "  Reading: " << c.hierarchyLevel << "\n\n";
   out << "Risk groups     n   observed  expected  observed % (95% CI)\n";
   for (std::size_t k = 0; k < c.groups.size(); ++k) {

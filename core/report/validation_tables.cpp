@@ -4,6 +4,7 @@
 #include <filesystem>
 #include <sstream>
 
+#include "core/present/measures.h"
 #include "core/report/csv_text.h"
 #include "core/report/result_table.h"
 #include "core/util/errors.h"
@@ -45,7 +46,6 @@ std::string histogramCsv(const RiskHistogram& h) {
 
 std::string summaryCsv(const ValidationRun& run) {
   const ValidationResult& r = run.result;
-  const Calibration& c = r.calibration;
   CsvText csv({"statistic", "estimate", "ci_lo", "ci_hi", "se"});
   const auto row = [&csv](const std::string& name, double estimate, const Interval* ci, double se) {
     csv.field(name).num(estimate);
@@ -66,22 +66,13 @@ std::string summaryCsv(const ValidationRun& run) {
   row("events", static_cast<double>(r.cohort.events), nullptr, none);
   row("prevalence", r.cohort.prevalence, nullptr, none);
   row("excluded", static_cast<double>(run.cohort.exclusions.rowsExcluded), nullptr, none);
-  row("auc", r.discrimination.auc, &r.discrimination.aucCi, r.discrimination.aucSe);
-  row("discrimination_slope", r.discrimination.discriminationSlope, nullptr, none);
-  row("brier", r.overall.brier, nullptr, none);
-  row("brier_scaled", r.overall.brierScaled, nullptr, none);
-  row("calibration_intercept", c.intercept, &c.interceptCi, c.interceptSe);
-  row("calibration_slope", c.slope, &c.slopeCi, c.slopeSe);
-  row("oe_ratio", c.oeRatio, &c.oeCi, none);
-  row("spiegelhalter_z", c.spiegelhalterZ, nullptr, none);
-  row("spiegelhalter_p", c.spiegelhalterP, nullptr, none);
-  row("ici", c.ici, nullptr, none);
-  row("e50", c.e50, nullptr, none);
-  row("e90", c.e90, nullptr, none);
-  row("emax", c.emax, nullptr, none);
-  row("hosmer_lemeshow_statistic", r.hosmerLemeshow.statistic, nullptr, none);
-  row("hosmer_lemeshow_df", r.hosmerLemeshow.df, nullptr, none);
-  row("hosmer_lemeshow_p", r.hosmerLemeshow.pValue, nullptr, none);
+  // Every scalar measure, from the one catalog (core/present/measures.h).
+  for (const Measure& m : measureCatalog()) {
+    Interval ci;
+    if (m.interval != nullptr) ci = m.interval(r);
+    row(m.key, m.estimate(r), m.interval != nullptr ? &ci : nullptr,
+        m.se != nullptr ? m.se(r) : none);
+  }
   return csv.str();
 }
 

@@ -1,28 +1,29 @@
 #include "core/uncertainty/bootstrap_measures.h"
 
+#include "core/present/measures.h"
+
 namespace calivera {
+
+namespace {
+
+// Key, label, decimals and accessors come from the one catalog of measures.
+BootstrappedMeasure fromCatalog(const char* key) {
+  const Measure& m = measureByKey(key);
+  return {m.key, m.label, m.decimals, m.estimate, m.bootstrap};
+}
+
+}  // namespace
 
 const std::array<BootstrappedMeasure, kBootstrappedMeasureCount>& bootstrappedMeasures() {
   static const std::array<BootstrappedMeasure, kBootstrappedMeasureCount> measures = {{
-      {"auc", "AUC", 4, [](const ValidationResult& r) { return r.discrimination.auc; },
-       &ValidationBootstrap::auc},
-      {"brier", "Brier", 4, [](const ValidationResult& r) { return r.overall.brier; },
-       &ValidationBootstrap::brier},
-      {"brier_scaled", "scaled Brier", 4,
-       [](const ValidationResult& r) { return r.overall.brierScaled; },
-       &ValidationBootstrap::brierScaled},
-      {"calibration_intercept", "calibration intercept", 4,
-       [](const ValidationResult& r) { return r.calibration.intercept; },
-       &ValidationBootstrap::calibrationIntercept},
-      {"calibration_slope", "calibration slope", 4,
-       [](const ValidationResult& r) { return r.calibration.slope; },
-       &ValidationBootstrap::calibrationSlope},
-      {"oe_ratio", "O/E", 4, [](const ValidationResult& r) { return r.calibration.oeRatio; },
-       &ValidationBootstrap::oeRatio},
-      {"ici", "ICI", 4, [](const ValidationResult& r) { return r.calibration.ici; },
-       &ValidationBootstrap::ici},
-      {"e90", "E90", 4, [](const ValidationResult& r) { return r.calibration.e90; },
-       &ValidationBootstrap::e90},
+      fromCatalog("auc"),
+      fromCatalog("brier"),
+      fromCatalog("brier_scaled"),
+      fromCatalog("calibration_intercept"),
+      fromCatalog("calibration_slope"),
+      fromCatalog("oe_ratio"),
+      fromCatalog("ici"),
+      fromCatalog("e90"),
   }};
   return measures;
 }

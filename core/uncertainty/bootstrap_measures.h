@@ -1,9 +1,8 @@
 #pragma once
-// The catalog of the measures the bootstrap gives intervals for: one row each with its key (JSON
-// and CSV), its printed label, its decimals on screen and in print, where its estimate is in a
-// ValidationResult and where its interval is in a ValidationBootstrap. The bootstrap computes
-// them in this order, and the JSON, the CSV table, the text summary and the report list them from
-// here, so a measure added here appears everywhere and nowhere is it written out again.
+// The measures the bootstrap gives intervals for, in the order it computes them: the entries of
+// the catalog of measures (core/present/measures.h) that name a ValidationBootstrap member, with
+// their key (JSON and CSV), printed label, decimals and accessors taken from there. The JSON, the
+// CSV table, the text summary and the report list them from here.
 
 #include <array>
 

@@ -12,6 +12,7 @@
 #include <map>
 #include <set>
 
+#include "core/present/measures.h"
 #include "core/present/wording.h"
 #include "core/report/audit_format.h"
 #include "core/report/audit_run.h"
@@ -139,10 +140,13 @@ TEST(AuditUncertainty, SummaryShowsTheBootstrapIntervalsBesideTheAnalyticOnes) {
   EXPECT_EQ(cell("Calibration intercept"), formatInterval(b.calibrationIntercept.ci, 3));
   EXPECT_EQ(cell("Calibration slope"), formatInterval(b.calibrationSlope.ci, 3));
   EXPECT_EQ(cell("Observed / expected"), formatInterval(b.oeRatio.ci, 3));
+  // Each with its decimals from the catalog of measures (core/present/measures.h): the distances
+  // and the Brier score have 4, so 0.0301 does not print as 0.030.
+  EXPECT_EQ(measureByKey("ici").decimals, 4);
   EXPECT_EQ(cell("ICI / E50 / E90 / Emax"),
-            "ICI " + formatInterval(b.ici.ci, 3) + "\nE90 " + formatInterval(b.e90.ci, 3));
+            "ICI " + formatInterval(b.ici.ci, 4) + "\nE90 " + formatInterval(b.e90.ci, 4));
   EXPECT_EQ(cell("Brier score (scaled)"),
-            formatInterval(b.brier.ci, 3) + "\n(" + formatInterval(b.brierScaled.ci, 3) + ")");
+            formatInterval(b.brier.ci, 4) + "\n(" + formatInterval(b.brierScaled.ci, 3) + ")");
   EXPECT_NE(summary.note.find("40 resamples of the patients (seed 5)"), std::string::npos);
   EXPECT_NE(summary.note.find(b.run.failed == 0 ? "no replicate failed" : "failed"),
             std::string::npos);

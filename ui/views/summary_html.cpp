@@ -3,6 +3,7 @@
 #include <QFileInfo>
 #include <cmath>
 
+#include "core/present/measures.h"
 #include "core/present/readings.h"
 #include "core/present/wording.h"
 #include "render/charts/chart_text.h"
@@ -22,17 +23,44 @@ QString row(const QString& name, const QString& value, const QString& reading = 
       .arg(name, value, reading);
 }
 
-QString ci(double v, const Interval& i, int decimals) {
-  return withInterval(v, i.lo, i.hi, decimals);
+// One measure of the catalog (core/present/measures.h): its label, its estimate with the analytic
+// interval, the percentile bootstrap interval under it when there is one, and `reading` (or the
+// catalog's meaning and target).
+QString measureRow(const char* key, const ValidationResult& r, const ValidationBootstrap* b,
+                   const QString& reading = {}) {
+  const Measure& m = measureByKey(key);
+  QString value = esc(measureWithCiText(m, r));
+  if (b != nullptr && m.bootstrap != nullptr) {
+    value += QStringLiteral("<br><span style='color:#0b4f7a'>bootstrap %1</span>")
+                 .arg(esc(measureBootstrapText(m, *b)));
+  }
+  QString said = reading;
+  if (said.isEmpty()) {
+    said = esc(m.meaning);
+    if (*m.target != '\0') said = QStringLiteral("target %1; %2").arg(esc(m.target), said);
+  }
+  return row(esc(m.label), value, said);
 }
 
-// The percentile bootstrap interval beside an analytic one (empty without a bootstrap).
-QString boot(const ValidationBootstrap* b, const BootstrapEstimate ValidationBootstrap::*member,
-             int decimals) {
-  if (b == nullptr) return {};
-  const BootstrapEstimate& e = b->*member;
-  return QStringLiteral("<br><span style='color:#0b4f7a'>bootstrap %1 to %2</span>")
-      .arg(fixed(e.ci.lo, decimals), fixed(e.ci.hi, decimals));
+// Several measures on one row, "a / b / c", with the bootstrap intervals of those that have one.
+QString measuresRow(const QString& label, const std::vector<const char*>& keys,
+                    const ValidationResult& r, const ValidationBootstrap* b,
+                    const QString& reading) {
+  QStringList values;
+  QStringList boots;
+  for (const char* key : keys) {
+    const Measure& m = measureByKey(key);
+    values << esc(measureText(m, r));
+    if (b != nullptr && m.bootstrap != nullptr) {
+      boots << QStringLiteral("%1 %2").arg(esc(m.label), esc(measureBootstrapText(m, *b)));
+    }
+  }
+  QString value = values.join(QStringLiteral(" / "));
+  if (!boots.isEmpty()) {
+    value += QStringLiteral("<br><span style='color:#0b4f7a'>bootstrap %1</span>")
+                 .arg(boots.join(QStringLiteral(", ")));
+  }
+  return row(label, value, reading);
 }
 
 QString metText(bool met) {
@@ -181,15 +209,10 @@ QString summaryHtml(const StudyState& study) {
   }
 
   html += QStringLiteral("<h3>Discrimination</h3><table>");
-  html += row(
-      QStringLiteral("AUC (c-statistic)"),
-      ci(r.discrimination.auc, r.discrimination.aucCi, 3) + boot(b, &ValidationBootstrap::auc, 3),
-      esc(readDiscrimination(r.discrimination)));
+  html += measureRow("auc", r, b, esc(readDiscrimination(r.discrimination)));
   html += row(QStringLiteral("DeLong SE"), fixed(r.discrimination.aucSe, 4),
               QStringLiteral("interval on the logit scale, so it stays within 0 and 1"));
-  html +=
-      row(QStringLiteral("Discrimination slope"), fixed(r.discrimination.discriminationSlope, 4),
-          QStringLiteral("mean predicted risk with the event minus without it"));
+  html += measureRow("discrimination_slope", r, b);
   html += QStringLiteral("</table>");
 
   const Calibration& c = r.calibration;
@@ -199,45 +222,22 @@ QString summaryHtml(const StudyState& study) {
               .arg(esc(c.hierarchyLevel.empty() ? hierarchy.level : c.hierarchyLevel),
                    esc(hierarchy.explanation));
   html += QStringLiteral("<table>");
-  html += row(
-      QStringLiteral("Calibration intercept"),
-      ci(c.intercept, c.interceptCi, 3) + boot(b, &ValidationBootstrap::calibrationIntercept, 3),
-      QStringLiteral("target 0; negative = risks too high on average"));
-  html += row(QStringLiteral("Calibration slope"),
-              ci(c.slope, c.slopeCi, 3) + boot(b, &ValidationBootstrap::calibrationSlope, 3),
-              QStringLiteral("target 1; below 1 = predictions too extreme"));
-  html += row(QStringLiteral("Observed / expected events"),
-              ci(c.oeRatio, c.oeCi, 3) + boot(b, &ValidationBootstrap::oeRatio, 3),
-              QStringLiteral("target 1"));
-  html += row(QStringLiteral("Spiegelhalter z"),
-              QStringLiteral("%1 (p = %2)")
-                  .arg(fixed(c.spiegelhalterZ, 3), QString::number(c.spiegelhalterP, 'g', 3)),
-              QStringLiteral("tests whether the risks are calibrated overall"));
-  html += row(QStringLiteral("ICI / E50 / E90 / Emax"),
-              QStringLiteral("%1 / %2 / %3 / %4")
-                      .arg(fixed(c.ici, 4), fixed(c.e50, 4), fixed(c.e90, 4), fixed(c.emax, 4)) +
-                  (b == nullptr ? QString()
-                                : QStringLiteral("<br><span style='color:#0b4f7a'>bootstrap ICI "
-                                                 "%1 to %2, E90 %3 to %4</span>")
-                                      .arg(fixed(b->ici.ci.lo, 4), fixed(b->ici.ci.hi, 4),
-                                           fixed(b->e90.ci.lo, 4), fixed(b->e90.ci.hi, 4))),
-              QStringLiteral("distance of the smoothed curve from the ideal line (Austin & "
-                             "Steyerberg 2019): mean, median, 90th percentile, maximum"));
-  html += row(QStringLiteral("Hosmer-Lemeshow"),
-              QStringLiteral("%1, df %2, p = %3")
-                  .arg(fixed(r.hosmerLemeshow.statistic, 2))
-                  .arg(r.hosmerLemeshow.df)
-                  .arg(QString::number(r.hosmerLemeshow.pValue, 'g', 3)),
-              esc(readHosmerLemeshow(r.hosmerLemeshow)));
+  html += measureRow("calibration_intercept", r, b);
+  html += measureRow("calibration_slope", r, b);
+  html += measureRow("oe_ratio", r, b);
+  html += measuresRow(QStringLiteral("Spiegelhalter z / p"), {"spiegelhalter_z", "spiegelhalter_p"},
+                      r, b, esc(measureByKey("spiegelhalter_z").meaning));
+  html += measuresRow(QStringLiteral("ICI / E50 / E90 / Emax"), {"ici", "e50", "e90", "emax"}, r, b,
+                      QStringLiteral("distance of the smoothed curve from the ideal line (Austin & "
+                                     "Steyerberg 2019): mean, median, 90th percentile, maximum"));
+  html += measuresRow(QStringLiteral("Hosmer-Lemeshow chi-square / df / p"),
+                      {"hosmer_lemeshow_statistic", "hosmer_lemeshow_df", "hosmer_lemeshow_p"}, r,
+                      b, esc(readHosmerLemeshow(r.hosmerLemeshow)));
   html += QStringLiteral("</table>");
 
   html += QStringLiteral("<h3>Overall accuracy</h3><table>");
-  html += row(QStringLiteral("Brier score"),
-              fixed(r.overall.brier, 4) + boot(b, &ValidationBootstrap::brier, 4),
-              QStringLiteral("mean squared difference of risk and outcome; lower is better"));
-  html += row(QStringLiteral("Scaled Brier"),
-              fixed(r.overall.brierScaled, 4) + boot(b, &ValidationBootstrap::brierScaled, 4),
-              QStringLiteral("1 − Brier / Brier of predicting the event rate for everyone"));
+  html += measureRow("brier", r, b);
+  html += measureRow("brier_scaled", r, b);
   html += QStringLiteral("</table>");
 
   html += QStringLiteral("<h3>Clinical utility</h3><p>%1</p>")
