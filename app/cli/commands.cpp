@@ -6,6 +6,7 @@
 
 #include "app/cli/fit_command.h"
 #include "app/cli/internal_command.h"
+#include "app/cli/predictor_space_command.h"
 #include "app/cli/run_command.h"
 #include "app/cli/update_command.h"
 #include "app/cli/validate_command.h"
@@ -22,6 +23,8 @@ const std::vector<Command>& allCommands() {
       {"update", "update a model on local data (intercept, recalibrate, refit)", runUpdateCommand},
       {"internal", "bootstrap optimism correction of a locally fitted model", runInternalCommand},
       {"run", "run a study saved by the workstation, with all its settings", runRunCommand},
+      {"predictor-space", "predicted risk against one or two predictors, others held fixed",
+       runPredictorSpaceCommand},
   };
   return commands;
 }

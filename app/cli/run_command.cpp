@@ -1,5 +1,6 @@
 #include "app/cli/run_command.h"
 
+#include <filesystem>
 #include <iostream>
 
 #include "app/cli/arguments.h"
@@ -56,9 +57,8 @@ int runRunCommand(const std::vector<std::string>& words) {
   for (const std::string& note : study.pathNotes) {
     std::cerr << "warning: " << studyPath << ": " << note << '\n';
   }
-  for (const InputCheck& check : checkInputs(study)) {
-    std::cerr << "warning: " << studyPath << ": " << check.role << " " << check.path << " "
-              << check.problem << '\n';
+  if (study.data && !std::filesystem::exists(study.data->path)) {
+    std::cerr << "warning: " << studyPath << ": cohort data " << study.data->path << " missing\n";
   }
   const StudyRequests requests = studyRequests(study);
   ValidateOutputs outputs = validateOutputsFrom(arguments);
@@ -71,8 +71,16 @@ int runRunCommand(const std::vector<std::string>& words) {
     if (!arguments.has("--paper")) outputs.paper = report.paper;
     if (!arguments.has("--report-thresholds")) outputs.tableThresholds = report.thresholds;
   }
+  // Inputs changed since the study was saved: checked once the run has read (and hashed) the
+  // cohort, so a large cohort is hashed once.
+  const auto warnChanged = [&](const ValidationRun& run) {
+    for (const InputCheck& check : checkInputs(study, run.dataSha256)) {
+      std::cerr << "warning: " << studyPath << ": " << check.role << " " << check.path << " "
+                << check.problem << '\n';
+    }
+  };
   return executeValidation(requests.validation, requests.uncertainty, outputs,
-                           reproduceCommandLine(study));
+                           reproduceCommandLine(study), warnChanged);
 }
 
 }  // namespace calivera::cli

@@ -199,7 +199,8 @@ ValidationRequest validationRequestFrom(const Arguments& arguments) {
 }
 
 int executeValidation(const ValidationRequest& request, const UncertaintyRequest& uncertaintyWanted,
-                      const ValidateOutputs& outputs, const std::string& reproduceLine) {
+                      const ValidateOutputs& outputs, const std::string& reproduceLine,
+                      const std::function<void(const ValidationRun&)>& afterRun) {
 #ifdef CALIVERA_HAVE_PDF
   const report::PaperSize paper = report::parsePaperSize(outputs.paper, "--paper");
 #else
@@ -226,6 +227,7 @@ int executeValidation(const ValidationRequest& request, const UncertaintyRequest
           ? commandLine("validate", validateCommandWords(request, uncertaintyWanted))
           : reproduceLine;
   const ValidationRun run = runValidation(request);
+  if (afterRun) afterRun(run);
   // uncertainty: sample size (always), bootstrap intervals, comparison, subgroups.
   const UncertaintyResults uncertainty = runUncertainty(run, uncertaintyWanted);
   // Every output is rendered before anything is written; the JSON is written last so a reader

@@ -4,6 +4,7 @@
 // request the study stands for (core/study/reproduce_command.h), so both give the same outputs.
 
 #include <cstddef>
+#include <functional>
 #include <optional>
 #include <string>
 #include <vector>
@@ -35,8 +36,10 @@ ValidateOutputs validateOutputsFrom(const Arguments& arguments);
 // Runs the validation and the uncertainty request and writes `outputs`; the summary ends with the
 // reproducing command line (`reproduceLine`, or the validate line of the request when empty) and
 // the caution. Returns the exit status (0); throws the core errors.
+// `afterRun` is called with the validation run before anything is computed further or written.
 int executeValidation(const ValidationRequest& request, const UncertaintyRequest& uncertainty,
-                      const ValidateOutputs& outputs, const std::string& reproduceLine = {});
+                      const ValidateOutputs& outputs, const std::string& reproduceLine = {},
+                      const std::function<void(const ValidationRun&)>& afterRun = {});
 
 int runValidateCommand(const std::vector<std::string>& words);
 

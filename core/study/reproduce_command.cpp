@@ -167,4 +167,27 @@ std::string reproduceCommandLine(const StudyState& study) {
   return line;
 }
 
+std::optional<std::string> predictorSpaceCommandLine(const StudyState& study) {
+  if (study.predictorView.empty()) return std::nullopt;
+  const StudyRequests requests = studyRequests(study);
+  const ValidationRequest& v = requests.validation;
+  if (!v.model && !v.modelPath) return std::nullopt;  // a risk column has no predictors
+  std::vector<std::string> w{"--data", v.dataPath};
+  addImportWords(w, v.csv, v.outcome);
+  w.insert(w.end(), {"--model", v.model ? std::string(kFittedModelFile) : *v.modelPath});
+  for (const auto& [variable, column] : v.columnMapping) {
+    w.insert(w.end(), {"--map", variable + "=" + column});
+  }
+  for (const std::string& variable : study.predictorView) {
+    w.insert(w.end(), {"--predictor", variable});
+  }
+  for (const auto& [variable, value] : study.heldValues) {
+    w.insert(w.end(), {"--hold", variable + "=" + value});
+  }
+  w.insert(w.end(), {"--threshold", formatShortest(study.analysis.threshold)});
+  std::string line = commandLine("predictor-space", w);
+  if (const auto fit = fitCommandWords(study)) line = commandLine("fit", *fit) + " && " + line;
+  return line;
+}
+
 }  // namespace calivera

@@ -45,6 +45,10 @@ StudyRequests studyRequests(const StudyState& study);
 // One line for a POSIX shell: "calivera validate --data ... " (prefixed with the fit step and
 // "&&" for a fitted model).
 std::string reproduceCommandLine(const StudyState& study);
+// The `calivera predictor-space ...` line for the study's Predictor space view (the chosen
+// predictors, the values held by the user, the study's threshold); none before a predictor is
+// chosen or for a risk column.
+std::optional<std::string> predictorSpaceCommandLine(const StudyState& study);
 std::string commandLine(const std::string& command, const std::vector<std::string>& words);
 std::string shellQuoted(const std::string& word);
 

@@ -306,24 +306,25 @@ StudyState readStudyFile(const std::string& path) {
   return parseStudyJson(readSmallFile(path, "study file", kMaxStudyFileBytes), path);
 }
 
-std::vector<InputCheck> checkInputs(const StudyState& study) {
+std::vector<InputCheck> checkInputs(const StudyState& study, const std::string& cohortSha256) {
   std::vector<InputCheck> out;
-  auto check = [&](const std::optional<InputFileRecord>& r, const char* role) {
+  auto check = [&](const std::optional<InputFileRecord>& r, const char* role,
+                   const std::string& known = {}) {
     if (!r) return;
     std::error_code ec;
-    if (!fs::exists(r->path, ec)) {
+    if (known.empty() && !fs::exists(r->path, ec)) {
       out.push_back({role, r->path, "missing"});
       return;
     }
     try {
-      if (sha256OfFile(r->path) != r->sha256) {
+      if ((known.empty() ? sha256OfFile(r->path) : known) != r->sha256) {
         out.push_back({role, r->path, "changed since the study was saved"});
       }
     } catch (const InputError&) {
       out.push_back({role, r->path, "cannot be read"});
     }
   };
-  check(study.data, "cohort data");
+  check(study.data, "cohort data", cohortSha256);
   if (study.modelSource == ModelSource::File) check(study.modelFile, "model file");
   for (const InputFileRecord& m : study.uncertaintySettings.compareModels) {
     check(m, "compared model file");

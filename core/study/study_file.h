@@ -47,7 +47,8 @@ struct InputCheck {
   std::string problem;  // "missing" or "changed since the study was saved"
 };
 
-// Compares each input's current SHA-256 with the recorded one.
-std::vector<InputCheck> checkInputs(const StudyState& study);
+// Compares each input's current SHA-256 with the recorded one. `cohortSha256`: the cohort's
+// SHA-256 as a run has just read it, so a large cohort is not hashed twice; empty: hashed here.
+std::vector<InputCheck> checkInputs(const StudyState& study, const std::string& cohortSha256 = {});
 
 }  // namespace calivera

@@ -37,13 +37,8 @@ PipelineOutput runPipeline(const PipelineRequest& request, const ProgressCallbac
   s.uncertainty.reset();
   reportProgress(progress, 0.0);
 
-  if (request.checkRecordedInputs) {
-    out.inputWarnings = s.pathNotes;
-    for (const InputCheck& c : checkInputs(s)) {
-      out.inputWarnings.push_back("The " + c.role + " " + c.path + " is " + c.problem + ".");
-    }
-  }
   if (!s.data) throw InputError("no cohort file is chosen");
+  const StudyState recorded = s;  // the fingerprints as saved, for the changed-input check
   if (request.table && request.table->sourceName == s.data->path) {
     out.table = request.table;
   } else {
@@ -52,6 +47,13 @@ PipelineOutput runPipeline(const PipelineRequest& request, const ProgressCallbac
     out.table = loaded.table;
   }
   if (s.data->sha256.empty()) s.data->sha256 = sha256OfFile(s.data->path);
+  if (request.checkRecordedInputs) {
+    // The cohort was hashed as it was read; only the (small) model files are hashed here.
+    out.inputWarnings = s.pathNotes;
+    for (const InputCheck& c : checkInputs(recorded, s.data->sha256)) {
+      out.inputWarnings.push_back("The " + c.role + " " + c.path + " is " + c.problem + ".");
+    }
+  }
   reportProgress(progress, 0.2);
 
   switch (s.modelSource) {

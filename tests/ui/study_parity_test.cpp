@@ -8,6 +8,8 @@
 #include <QTableView>
 #include <QTemporaryDir>
 #include <QtTest>
+#include <cstdlib>
+#include <nlohmann/json.hpp>
 
 #include "core/data/csv_reader.h"
 #include "core/fit/cohort_fit.h"
@@ -17,6 +19,7 @@
 #include "core/study/reproduce_command.h"
 #include "core/study/study_file.h"
 #include "core/util/sha256.h"
+#include "render/charts/predictor_charts.h"
 #include "tests/ui/pdf_text.h"
 #include "tests/unit/cli_run.h"
 #include "tests/unit/study_fixture.h"
@@ -25,6 +28,8 @@
 #include "ui/dialogs/reproduce_dialog.h"
 #include "ui/main_window.h"
 #include "ui/models/table_export.h"
+#include "ui/views/chart_panel.h"
+#include "ui/views/predictor_view.h"
 
 using namespace calivera;
 using namespace calivera::ui;
@@ -213,6 +218,31 @@ class StudyParityTest : public QObject {
     QVERIFY2(retitled.status == 0, retitled.err.c_str());
     QVERIFY(pdfText(dir_.filePath("cli2.pdf")).contains("Other"));
     qunsetenv("SOURCE_DATE_EPOCH");
+  }
+
+  // The Predictor space tab's curve through the command the Reproduce dialog shows for it: the
+  // same crossings of the study's threshold, to the last bit.
+  void predictorViewRunsAsItsCommand() {
+    StudyState study = calivera::testing::birthwtFileStudy(kBirthwt, model_);
+    study.analysis.threshold = 0.3;
+    MainWindow w;
+    open(w, study, "predictor.cvstudy");
+    auto* view = w.findChild<PredictorView*>("predictorView");
+    QVERIFY(view != nullptr);
+    view->choose("lwt", "");
+    auto* curve = dynamic_cast<charts::RiskCurveChart*>(view->panel()->linkedChart());
+    QVERIFY(curve != nullptr);
+    QCOMPARE(w.controller().study().predictorView, std::vector<std::string>{"lwt"});
+    const std::string line = predictorSpaceCommandText(w.controller().study()).toStdString();
+    QVERIFY2(line.rfind("calivera predictor-space ", 0) == 0, line.c_str());
+    const std::string json = path("predictor.json");
+    const std::string command = calivera::testing::shellQuote(CALIVERA_BINARY) +
+                                line.substr(std::string("calivera").size()) + " --json " +
+                                calivera::testing::shellQuote(json);
+    QCOMPARE(std::system(command.c_str()), 0);
+    const auto j = nlohmann::json::parse(calivera::testing::readWhole(json));
+    QCOMPARE(j["crossings"].get<std::vector<double>>(), curve->cutPoints());
+    QVERIFY(!curve->cutPoints().empty());
   }
 
   // Every view's numbers can be reproduced: the action is there and shows core's command.

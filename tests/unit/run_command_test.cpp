@@ -155,6 +155,23 @@ TEST_F(RunCommand, BadStudyOrMissingInputIsExitTwoWithoutOutput) {
   EXPECT_NE(help.out.find("calivera run STUDY.cvstudy"), std::string::npos);
 }
 
+// A cohort changed after the study was saved still runs (on the file as it is now), and the user
+// is told once, on stderr, with the study's name; the summary carries the new fingerprint.
+TEST_F(RunCommand, ChangedCohortIsNamedOnce) {
+  const std::string copy = dir_.write("copy.csv", readWhole(kBirthwt));
+  StudyState study = testing::birthwtFileStudy(copy, model());
+  writeStudyFile(dir_.file("changed.cvstudy"), study);
+  dir_.write("copy.csv", readWhole(kBirthwt) + "\n");  // a trailing empty line: new bytes
+  const CliRun run = runCalivera({"run", dir_.file("changed.cvstudy")});
+  ASSERT_EQ(run.status, 0) << run.err;
+  const std::string warning = "cohort data " + copy + " changed since the study was saved";
+  const std::size_t at = run.err.find(warning);
+  EXPECT_NE(at, std::string::npos) << run.err;
+  EXPECT_EQ(run.err.find(warning, at + 1), std::string::npos) << run.err;
+  EXPECT_NE(run.err.find("changed.cvstudy"), std::string::npos);
+  EXPECT_NE(run.out.find(sha256OfFile(copy)), std::string::npos);
+}
+
 // The report settings the workstation saves with a study (StudyState::report) survive the file and
 // reach `run --pdf`; a bad value is refused naming its field, before anything is written.
 TEST_F(RunCommand, ReportSettingsRoundTripAndBadOnesAreRefused) {

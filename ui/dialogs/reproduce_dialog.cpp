@@ -25,6 +25,43 @@ QString reproduceCommandText(const StudyState& study, bool* ok) {
   }
 }
 
+QString predictorSpaceCommandText(const StudyState& study) {
+  try {
+    const auto line = predictorSpaceCommandLine(study);
+    return line ? QString::fromStdString(*line) : QString();
+  } catch (const InputError&) {
+    return {};  // no study command either; the dialog says why
+  }
+}
+
+namespace {
+
+// A read-only command with its own Copy button.
+void addCommand(QDialog& dialog, QVBoxLayout* layout, QDialogButtonBox* buttons,
+                const QString& command, const QString& name, const QString& copyLabel) {
+  auto* text = new QPlainTextEdit(&dialog);
+  text->setObjectName(name);
+  text->setReadOnly(true);
+  text->setPlainText(command);
+  text->setLineWrapMode(QPlainTextEdit::WidgetWidth);
+  text->setWordWrapMode(QTextOption::WrapAtWordBoundaryOrAnywhere);
+  text->setMinimumSize(560, 110);
+  layout->addWidget(text, 1);
+  QPushButton* copy = buttons->addButton(copyLabel, QDialogButtonBox::ActionRole);
+  copy->setObjectName(name + QStringLiteral("Copy"));
+  QObject::connect(copy, &QPushButton::clicked, &dialog,
+                   [command]() { QApplication::clipboard()->setText(command); });
+}
+
+QLabel* plainLabel(QDialog& dialog, const QString& text) {
+  auto* label = new QLabel(text, &dialog);
+  label->setTextFormat(Qt::PlainText);
+  label->setWordWrap(true);
+  return label;
+}
+
+}  // namespace
+
 void showReproduceDialog(QWidget* parent, const StudyState& study) {
   bool ok = false;
   const QString command = reproduceCommandText(study, &ok);
@@ -32,31 +69,25 @@ void showReproduceDialog(QWidget* parent, const StudyState& study) {
   dialog.setObjectName(QStringLiteral("reproduceDialog"));
   dialog.setWindowTitle(QObject::tr("Reproduce on the command line"));
   auto* layout = new QVBoxLayout(&dialog);
-  auto* intro = new QLabel(
+  auto* buttons = new QDialogButtonBox(QDialogButtonBox::Close, &dialog);
+  layout->addWidget(plainLabel(
+      dialog,
       ok ? QObject::tr("This command gives every number shown for this study: the same cohort, "
                        "model, mapping, groups, development-data statement, bootstrap, "
                        "comparison and subgroups. Add --json, --csv-dir or --pdf for files. A "
                        "saved study also runs as: calivera run STUDY.cvstudy")
-         : QObject::tr("There is no command yet: %1").arg(command),
-      &dialog);
-  intro->setTextFormat(Qt::PlainText);
-  intro->setWordWrap(true);
-  layout->addWidget(intro);
-  auto* text = new QPlainTextEdit(&dialog);
-  text->setObjectName(QStringLiteral("reproduceCommandEdit"));
-  text->setReadOnly(true);
-  text->setPlainText(ok ? command : QString());
-  text->setLineWrapMode(QPlainTextEdit::WidgetWidth);
-  text->setWordWrapMode(QTextOption::WrapAtWordBoundaryOrAnywhere);
-  text->setMinimumSize(560, 140);
-  text->setVisible(ok);
-  layout->addWidget(text, 1);
-  auto* buttons = new QDialogButtonBox(QDialogButtonBox::Close, &dialog);
+         : QObject::tr("There is no command yet: %1").arg(command)));
   if (ok) {
-    QPushButton* copy = buttons->addButton(QObject::tr("&Copy"), QDialogButtonBox::ActionRole);
-    copy->setObjectName(QStringLiteral("reproduceCopyButton"));
-    QObject::connect(copy, &QPushButton::clicked, &dialog,
-                     [command]() { QApplication::clipboard()->setText(command); });
+    addCommand(dialog, layout, buttons, command, QStringLiteral("reproduceCommandEdit"),
+               QObject::tr("&Copy"));
+    const QString predictor = predictorSpaceCommandText(study);
+    if (!predictor.isEmpty()) {
+      layout->addWidget(plainLabel(
+          dialog, QObject::tr("The Predictor space tab's current view (curve or boundary, held "
+                              "values, threshold); add --json or --csv for files:")));
+      addCommand(dialog, layout, buttons, predictor, QStringLiteral("predictorCommandEdit"),
+                 QObject::tr("Copy &predictor view"));
+    }
   }
   QObject::connect(buttons, &QDialogButtonBox::rejected, &dialog, &QDialog::reject);
   layout->addWidget(buttons);
