@@ -402,11 +402,15 @@ void MainWindow::showMessage(const QString& text, bool error) {
                              "#0072b2; } QLabel { color: #000; }"));
   messageBar_->setProperty("error", error);
   messageBar_->show();
+  // Lay out now, not at the next event: a grab or a long job starting right after must not see
+  // the bar's old space (an empty band under the banner).
+  centralWidget()->layout()->activate();
 }
 
 void MainWindow::clearMessage() {
   messageText_->clear();
   messageBar_->hide();
+  centralWidget()->layout()->activate();
 }
 
 std::vector<ChartPanel*> MainWindow::chartPanels() const {

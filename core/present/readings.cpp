@@ -1,6 +1,9 @@
 #include "core/present/readings.h"
 
+#include <cmath>
 #include <cstdio>
+
+#include "core/present/number_text.h"
 
 namespace calivera {
 
@@ -64,23 +67,25 @@ HierarchyReading readCalibrationHierarchy(const Calibration& c) {
 }
 
 std::string readDiscrimination(const Discrimination& d) {
-  char buffer[512];
-  std::snprintf(buffer, sizeof buffer,
-                "AUC %.3f (95%% CI %.3f to %.3f): a randomly chosen patient with the event has a "
-                "higher predicted risk than a randomly chosen patient without it in %.0f%% of "
-                "such pairs (50%% = no better than chance).",
-                d.auc, d.aucCi.lo, d.aucCi.hi, d.auc * 100.0);
-  return buffer;
+  // Numbers through the one formatter (core/present/number_text.h): an AUC without an interval
+  // (one event) says so instead of printing "nan".
+  std::string text = "AUC " + formatNumber(d.auc, 3);
+  if (std::isfinite(d.aucCi.lo) && std::isfinite(d.aucCi.hi)) {
+    text += " (95% CI " + formatRange(d.aucCi.lo, d.aucCi.hi, 3) + ")";
+  }
+  if (!std::isfinite(d.auc)) return text + ": not defined for this cohort.";
+  return text +
+         ": a randomly chosen patient with the event has a higher predicted risk than a randomly "
+         "chosen patient without it in " +
+         formatNumber(d.auc * 100.0, 0) + "% of such pairs (50% = no better than chance).";
 }
 
 std::string readHosmerLemeshow(const HosmerLemeshow& hl) {
-  char buffer[512];
-  std::snprintf(buffer, sizeof buffer,
-                "Hosmer-Lemeshow statistic %.2f on %d degrees of freedom, p = %.3g. The test "
-                "depends on the grouping, has no direction and rejects nearly every model in "
-                "large cohorts; read the calibration curve, intercept and slope first.",
-                hl.statistic, hl.df, hl.pValue);
-  return buffer;
+  const std::string p = formatPValue(hl.pValue);
+  return "Hosmer-Lemeshow statistic " + formatNumber(hl.statistic, 2) + " on " +
+         std::to_string(hl.df) + " degrees of freedom, p " + (p.rfind("<", 0) == 0 ? p : "= " + p) +
+         ". The test depends on the grouping, has no direction and rejects nearly every model "
+         "in large cohorts; read the calibration curve, intercept and slope first.";
 }
 
 std::vector<std::string> readingWarnings(const CohortSummary& cohort) {

@@ -87,6 +87,9 @@ ResultTable thresholdTable(const ValidationResult& result) {
       number("net_benefit", "Net benefit", 4,
              "Net benefit (Vickers & Elkin 2006): TP/n − FP/n × t/(1 − t); not defined at "
              "t = 0 or 1")};
+  // On screen what a clinician reads first: how many are flagged, per 1000, and the net benefit;
+  // then the counts and the proportions with their intervals.
+  t.shownOrder = {0, 17, 13, 14, 15, 16, 18, 1, 2, 3, 4, 5, 6, 7, 8, 9, 10, 11, 12};
   const auto& curve = result.decisionCurve;
   for (std::size_t i = 0; i < result.thresholds.size(); ++i) {
     const ThresholdRow& r = result.thresholds[i];

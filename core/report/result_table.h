@@ -47,6 +47,9 @@ struct ResultTable {
   std::string fileName;  // as written by --csv-dir, e.g. "thresholds.csv"
   std::vector<TableColumn> columns;
   std::vector<std::vector<TableValue>> rows;  // each row has one value per column
+  // The order the screen shows the columns in (indices into `columns`); empty: as in the CSV.
+  // The CSV keeps its own order, which later additions never disturb.
+  std::vector<std::size_t> shownOrder;
 };
 
 // The CSV text (core/report/csv_text.h conventions).

@@ -31,6 +31,7 @@
 #include <QtTest>
 #include <cmath>
 #include <fstream>
+#include <functional>
 #include <random>
 
 #include "core/data/csv_reader.h"
@@ -48,6 +49,7 @@
 #include "render/charts/roc_chart.h"
 #include "ui/async/background_job.h"
 #include "ui/dialogs/report_export_dialog.h"
+#include "ui/dialogs/reproduce_dialog.h"
 #include "ui/dialogs/uncertainty_dialog.h"
 #include "ui/models/table_export.h"
 #include "ui/views/chart_panel.h"
@@ -1042,6 +1044,19 @@ class MainWindowTest : public QObject {
       view->choose(first, second->itemText(2));
       save(&w, "predictor_boundary");
     }
+    // Modal dialogs: grabbed while open, then closed (a report export is not started).
+    const auto saveModal = [&](const std::function<void()>& open, const char* name) {
+      QTimer::singleShot(400, &w, [&save, name]() {
+        if (QWidget* dialog = QApplication::activeModalWidget()) {
+          save(dialog, name);
+          dialog->close();
+        }
+      });
+      open();
+    };
+    saveModal([&] { showReproduceDialog(&w, w.controller().study()); }, "reproduce_dialog");
+    saveModal([&] { showReportExportDialog(&w, w.controller().study(), {}); },
+              "report_export_dialog");
     {
       UncertaintySettings current = w.controller().study().uncertaintySettings;
       current.sizeThresholds = {0.1, 0.2};

@@ -6,6 +6,7 @@
 
 #include <gtest/gtest.h>
 
+#include <algorithm>
 #include <cmath>
 #include <sstream>
 #include <string>
@@ -59,6 +60,13 @@ TEST_F(ResultTables, ThresholdCsvKeepsItsColumnsAndCarriesTheRunsValues) {
   for (const TableColumn& c : table.columns) intervals += c.kind == TableColumnKind::Interval;
   EXPECT_EQ(intervals, 4u);
   EXPECT_EQ(fields(lines[0]).size(), table.columns.size() + intervals);
+
+  // The screen order is a permutation of the columns, starting with the threshold.
+  std::vector<std::size_t> order = table.shownOrder;
+  ASSERT_EQ(order.size(), table.columns.size());
+  EXPECT_EQ(order.front(), 0u);
+  std::sort(order.begin(), order.end());
+  for (std::size_t k = 0; k < order.size(); ++k) EXPECT_EQ(order[k], k);
 
   for (std::size_t i = 0; i < run_.result.thresholds.size(); i += 17) {
     const ThresholdRow& r = run_.result.thresholds[i];

@@ -122,6 +122,7 @@ void showReportExportDialog(QWidget* parent, const StudyState& study,
   QDialog dialog(parent);
   dialog.setObjectName(QStringLiteral("reportExportDialog"));
   dialog.setWindowTitle(QObject::tr("Export audit report"));
+  dialog.setMinimumWidth(560);  // room for the file path
   auto* form = new QFormLayout;
 
   // Filled from the study's report settings, whose defaults are the command line's.

@@ -53,7 +53,9 @@ void addCommand(QDialog& dialog, QVBoxLayout* layout, QDialogButtonBox* buttons,
                    [command]() { QApplication::clipboard()->setText(command); });
 }
 
-QLabel* plainLabel(QDialog& dialog, const QString& text) {
+QLabel* plainLabel(QDialog& dialog, QString text) {
+  // Option names keep their two hyphens on one line (U+2011 does not break).
+  text.replace(QStringLiteral(" --"), QStringLiteral(" \u2011\u2011"));
   auto* label = new QLabel(text, &dialog);
   label->setTextFormat(Qt::PlainText);
   label->setWordWrap(true);

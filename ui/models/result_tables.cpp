@@ -36,18 +36,22 @@ using cells::interval;
 using cells::number;
 
 void showResultTable(RecordTableModel& model, ResultTable table) {
+  std::vector<std::size_t> order = table.shownOrder;
+  if (order.empty()) {
+    for (std::size_t k = 0; k < table.columns.size(); ++k) order.push_back(k);
+  }
   QStringList headers;
   QStringList tips;
-  for (const TableColumn& c : table.columns) {
-    headers << QString::fromStdString(c.label);
-    tips << QString::fromStdString(c.tip);
+  for (const std::size_t k : order) {
+    headers << QString::fromStdString(table.columns[k].label);
+    tips << QString::fromStdString(table.columns[k].tip);
   }
   std::vector<std::vector<TableCell>> rows;
   rows.reserve(table.rows.size());
   for (const auto& values : table.rows) {
     std::vector<TableCell> row;
-    row.reserve(values.size());
-    for (std::size_t k = 0; k < values.size(); ++k) {
+    row.reserve(order.size());
+    for (const std::size_t k : order) {
       const TableColumn& c = table.columns[k];
       const TableValue& v = values[k];
       switch (c.kind) {
