@@ -13,7 +13,6 @@
 #include "core/model/model_io.h"
 #include "core/uncertainty/internal_validation.h"
 #include "core/uncertainty/uncertainty_json.h"
-#include "core/util/atomic_file.h"
 #include "core/util/errors.h"
 #include "core/util/output_transaction.h"
 
@@ -78,10 +77,9 @@ int runInternalCommand(const std::vector<std::string>& words) {
                             {{"model file", modelPath}, {"cohort file", args.required("--data")}});
   }
   const Model model = readModelFile(modelPath);
-  LocalCohort cohort = loadLocalCohort(args, model);
+  const CohortData cohort = loadLocalCohort(args, modelPath, args.has("--development-data"));
   options.fit.firth = args.has("--firth");
-  const UpdateData data{&cohort.table, cohort.selection.rows, cohort.outcome, cohort.sha256,
-                        cohort.path};
+  const UpdateData data = updateDataOf(cohort);
   const InternalValidation internal =
       internalValidation(model, data, options, args.has("--development-data"));
   const OptimismResult& result = internal.optimism;
@@ -102,18 +100,20 @@ int runInternalCommand(const std::vector<std::string>& words) {
 
   nlohmann::json report = toJson(result);
   report["model"] = modelPath;
-  report["data"] = cohort.path;
-  report["data_sha256"] = cohort.sha256;
+  report["data"] = cohort.run->request.dataPath;
+  report["data_sha256"] = cohort.run->dataSha256;
   report["warnings"] = warnings;
+  // The shrunk model and the JSON report: all or none (core/util/output_transaction.h).
+  OutputTransaction files;
   if (const auto shrunkPath = args.value("--shrunk-out")) {
     const Model shrunk = shrunkModel(model, data, result.shrinkageFactor, internal.firth);
-    writeModelFile(*shrunkPath, shrunk);
+    files.add(*shrunkPath, modelToJson(shrunk));
     report["shrunk_model"] = *shrunkPath;
+  }
+  if (const auto jsonPath = args.value("--json")) files.add(*jsonPath, report.dump(2) + "\n");
+  files.commit();
+  if (const auto shrunkPath = args.value("--shrunk-out"))
     std::cout << "wrote " << *shrunkPath << '\n';
-  }
-  if (const auto jsonPath = args.value("--json")) {
-    writeFileAtomically(*jsonPath, report.dump(2) + "\n");
-  }
   return 0;
 }
 

@@ -1,37 +1,27 @@
 #include "app/cli/local_cohort.h"
 
-#include <algorithm>
+#include <memory>
 
 #include "app/cli/data_options.h"
-#include "core/data/csv_reader.h"
-#include "core/model/linear_predictor.h"
-#include "core/util/errors.h"
-#include "core/util/sha256.h"
+#include "core/metrics/validation_run.h"
 
 namespace calivera::cli {
 
-LocalCohort loadLocalCohort(const Arguments& args, const Model& model) {
-  LocalCohort cohort;
-  cohort.path = args.required("--data");
-  cohort.table = readCsvFile(cohort.path, csvOptionsFrom(args)).table;
-  cohort.sha256 = sha256OfFile(cohort.path);
-  OutcomeSpec outcome{args.required("--outcome"), eventValueFrom(args)};
-  std::vector<std::string> columns = requiredColumns(model);
-  if (std::find(columns.begin(), columns.end(), outcome.column) == columns.end()) {
-    columns.push_back(outcome.column);
-  }
-  cohort.selection = selectCompleteCases(cohort.table, columns);
-  if (cohort.selection.rows.empty()) {
-    throw AnalysisError(cohort.path + ": no row is complete in the columns the model needs");
-  }
-  cohort.outcome = outcomeValues(cohort.table, outcome, cohort.selection.rows);
-  for (double y : cohort.outcome) cohort.events += y > 0.5 ? 1 : 0;
-  return cohort;
+CohortData loadLocalCohort(const Arguments& args, const std::string& modelPath,
+                           bool developmentData) {
+  ValidationRequest request;
+  request.dataPath = args.required("--data");
+  request.csv = csvOptionsFrom(args);
+  request.outcome = OutcomeSpec{args.required("--outcome"), eventValueFrom(args)};
+  request.modelPath = modelPath;
+  request.developmentData = developmentData;
+  return CohortData{std::make_shared<const ValidationRun>(runValidation(request))};
 }
 
-void printExclusions(std::ostream& out, const LocalCohort& cohort) {
-  const ExclusionReport& e = cohort.selection.exclusions;
-  out << "data: " << cohort.path << " (sha256 " << cohort.sha256 << ")\n"
+void printExclusions(std::ostream& out, const CohortData& cohort) {
+  const ValidationRun& run = *cohort.run;
+  const ExclusionReport& e = run.cohort.exclusions;
+  out << "data: " << run.request.dataPath << " (sha256 " << run.dataSha256 << ")\n"
       << "  " << e.rowsRead << " rows read, " << e.rowsExcluded << " excluded for missing values";
   bool first = true;
   for (const auto& c : e.byColumn) {
@@ -39,7 +29,7 @@ void printExclusions(std::ostream& out, const LocalCohort& cohort) {
     out << (first ? " (" : ", ") << c.column << ": " << c.rowsMissing;
     first = false;
   }
-  out << (first ? "" : ")") << ", " << e.rowsAnalysed << " analysed, " << cohort.events
+  out << (first ? "" : ")") << ", " << e.rowsAnalysed << " analysed, " << run.result.cohort.events
       << " events\n";
 }
 

@@ -1,35 +1,25 @@
 #pragma once
-// Shared by the update and internal commands: the local cohort a model is refitted or updated
-// on — the CSV, complete cases over the model's columns and the outcome (exclusions counted per
-// column), the 0/1 outcome and the file's SHA-256.
+// Shared by the update and internal commands: the patients a model is updated or internally
+// validated on are the analysed patients of the one validation run of that model on --data
+// (core/metrics/validation_run.h), selected exactly as `validate` and the workstation select
+// them: complete cases over the model's columns and the outcome, unknown category levels refused.
 
-#include <cstdint>
-#include <optional>
 #include <ostream>
 #include <string>
-#include <vector>
 
 #include "app/cli/arguments.h"
-#include "core/data/cohort.h"
-#include "core/data/table.h"
-#include "core/model/model.h"
+#include "core/study/study_analysis.h"
 
 namespace calivera::cli {
 
-struct LocalCohort {
-  std::string path;
-  std::string sha256;
-  Table table;
-  AnalysisRows selection;
-  std::vector<double> outcome;  // per selected row
-  std::size_t events = 0;
-};
+// Options --data, --outcome and those of data_options.h (--delimiter, --missing, --event-value);
+// `developmentData`: the user states the cohort is the model's development data. Throws
+// InputError naming the file, column and value for bad input.
+CohortData loadLocalCohort(const Arguments& args, const std::string& modelPath,
+                           bool developmentData = false);
 
-// Options --data, --outcome and those of data_options.h (--delimiter, --missing, --event-value).
-// Throws InputError naming the file, column and value for bad input.
-LocalCohort loadLocalCohort(const Arguments& args, const Model& model);
-
-// "n rows read, k excluded (column: m missing, ...), n analysed, e events".
-void printExclusions(std::ostream& out, const LocalCohort& cohort);
+// "data: PATH (sha256 ...)\n  n rows read, k excluded (column: m missing, ...), n analysed, e
+// events".
+void printExclusions(std::ostream& out, const CohortData& cohort);
 
 }  // namespace calivera::cli

@@ -12,7 +12,6 @@
 #include "core/model/model_io.h"
 #include "core/uncertainty/model_update.h"
 #include "core/uncertainty/uncertainty_json.h"
-#include "core/util/atomic_file.h"
 #include "core/util/errors.h"
 #include "core/util/output_transaction.h"
 
@@ -61,19 +60,32 @@ int runUpdateCommand(const std::vector<std::string>& words) {
                             {{"model file", modelPath}, {"cohort file", args.required("--data")}});
   }
   const Model model = readModelFile(modelPath);
-  LocalCohort cohort = loadLocalCohort(args, model);
-
-  UpdateData data;
-  data.table = &cohort.table;
-  data.rows = cohort.selection.rows;
-  data.outcome = cohort.outcome;
-  data.dataSha256 = cohort.sha256;
-  data.dataName = cohort.path;
+  const CohortData cohort = loadLocalCohort(args, modelPath);
+  const UpdateData data = updateDataOf(cohort);
   UpdateOptions options;
   options.firth = args.has("--firth");
   const ClosedTestResult closed = closedTest(model, data, alpha, options);
   const UpdatedModel updated = updateModel(model, data, *method, options);
-  writeModelFile(out, updated.model);
+  // The model file and the JSON report: all or none (core/util/output_transaction.h).
+  OutputTransaction files;
+  files.add(out, modelToJson(updated.model));
+
+  if (const auto jsonPath = args.value("--json")) {
+    nlohmann::json report = {{"model", modelPath},
+                             {"data", cohort.run->request.dataPath},
+                             {"data_sha256", cohort.run->dataSha256},
+                             {"n", cohort.rows().size()},
+                             {"events", cohort.run->result.cohort.events},
+                             {"method", updateMethodName(*method)},
+                             {"recalibration_intercept", updated.recalibrationIntercept},
+                             {"recalibration_slope", updated.recalibrationSlope},
+                             {"deviance", updated.deviance},
+                             {"out", out},
+                             {"closed_test", toJson(closed)},
+                             {"warnings", updated.warnings}};
+    files.add(*jsonPath, report.dump(2) + "\n");
+  }
+  files.commit();
 
   printExclusions(std::cout, cohort);
   std::cout << "model: " << modelPath << "\nmethod: " << updateMethodName(*method);
@@ -96,21 +108,6 @@ int runUpdateCommand(const std::vector<std::string>& words) {
   for (const auto& w : updated.warnings) std::cout << "warning: " << w << '\n';
   std::cout << "wrote " << out << '\n';
 
-  if (const auto jsonPath = args.value("--json")) {
-    nlohmann::json report = {{"model", modelPath},
-                             {"data", cohort.path},
-                             {"data_sha256", cohort.sha256},
-                             {"n", cohort.outcome.size()},
-                             {"events", cohort.events},
-                             {"method", updateMethodName(*method)},
-                             {"recalibration_intercept", updated.recalibrationIntercept},
-                             {"recalibration_slope", updated.recalibrationSlope},
-                             {"deviance", updated.deviance},
-                             {"out", out},
-                             {"closed_test", toJson(closed)},
-                             {"warnings", updated.warnings}};
-    writeFileAtomically(*jsonPath, report.dump(2) + "\n");
-  }
   return 0;
 }
 

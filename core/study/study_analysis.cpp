@@ -130,4 +130,14 @@ FittedModel fitModel(const Table& table, const ImportSettings& import, const Fit
   return out;
 }
 
+UpdateData updateDataOf(const CohortData& cohort) {
+  UpdateData out;
+  out.table = cohort.table().get();
+  out.rows = cohort.rows();
+  out.outcome = cohort.outcome();
+  out.dataSha256 = cohort.run->dataSha256;
+  out.dataName = std::filesystem::path(cohort.run->request.dataPath).filename().string();
+  return out;
+}
+
 }  // namespace calivera

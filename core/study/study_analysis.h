@@ -17,6 +17,7 @@
 #include "core/metrics/validation_run.h"
 #include "core/model/model.h"
 #include "core/study/study.h"
+#include "core/uncertainty/model_update.h"
 
 namespace calivera {
 
@@ -37,6 +38,11 @@ struct CohortData {
   const std::vector<double>& outcome() const { return input().outcome; }
   const std::vector<double>& risk() const { return input().risk; }
 };
+
+// The analysed patients as core's model-update input (core/uncertainty/model_update.h): the run's
+// table, rows and outcome, its cohort fingerprint and the cohort's file name. The workstation's
+// update and internal-validation dialogs and the update and internal commands all use this.
+UpdateData updateDataOf(const CohortData& cohort);
 
 struct AnalysisOutput {
   Model model;  // with the study's column mapping applied

@@ -12,10 +12,10 @@
 #include <QVBoxLayout>
 #include <algorithm>
 
+#include "core/study/spline_list.h"
 #include "ui/async/background_job.h"
 #include "ui/models/record_table_model.h"
 #include "ui/models/result_tables.h"
-#include "core/study/spline_list.h"
 
 namespace calivera::ui {
 

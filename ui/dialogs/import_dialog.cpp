@@ -18,8 +18,8 @@
 
 #include "core/data/cohort.h"
 #include "core/data/csv_reader.h"
-#include "ui/async/background_job.h"
 #include "core/study/study_analysis.h"
+#include "ui/async/background_job.h"
 
 namespace calivera::ui {
 

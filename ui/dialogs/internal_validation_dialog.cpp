@@ -120,7 +120,7 @@ void InternalValidationDialog::startRun() {
   save_->setEnabled(false);
   status_->setText(tr("Refitting on %1 resamples…").arg(options.bootstrap.replicates));
   std::function<InternalValidation(const ProgressCallback&)> work =
-      [model = model_, cohort = cohort_, data = updateDataOf(*cohort_, data_), options,
+      [model = model_, cohort = cohort_, data = updateDataOf(*cohort_), options,
        statedDevelopmentData =
            cohort_->run->request.developmentData](const ProgressCallback& progress) mutable {
         options.bootstrap.progress = progress;
@@ -174,7 +174,7 @@ bool InternalValidationDialog::startSaveShrunkModel(const QString& path) {
   run_->setEnabled(false);
   save_->setEnabled(false);
   std::function<bool(const ProgressCallback&)> work =
-      [model = model_, cohort = cohort_, data = updateDataOf(*cohort_, data_), factor, firth,
+      [model = model_, cohort = cohort_, data = updateDataOf(*cohort_), factor, firth,
        file = path.toStdString()](const ProgressCallback&) {
         writeModelFile(file, shrunkModel(model, data, factor, firth));
         return true;

@@ -11,8 +11,8 @@
 #include <optional>
 
 #include "core/model/model.h"
-#include "core/uncertainty/internal_validation.h"
 #include "core/study/study_analysis.h"
+#include "core/uncertainty/internal_validation.h"
 
 class QCheckBox;
 class QLabel;

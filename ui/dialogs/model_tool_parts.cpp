@@ -8,16 +8,6 @@
 
 namespace calivera::ui {
 
-UpdateData updateDataOf(const CohortData& cohort, const InputFileRecord& data) {
-  UpdateData out;
-  out.table = cohort.table().get();
-  out.rows = cohort.rows();
-  out.outcome = cohort.outcome();
-  out.dataSha256 = data.sha256;
-  out.dataName = std::filesystem::path(data.path).filename().string();
-  return out;
-}
-
 QLabel* addIntroText(QBoxLayout* layout, const QString& text, const QString& objectName) {
   auto* label = new QLabel(text);
   label->setObjectName(objectName);

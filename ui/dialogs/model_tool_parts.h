@@ -5,8 +5,8 @@
 
 #include <QString>
 
-#include "core/uncertainty/model_update.h"
 #include "core/study/study_analysis.h"
+#include "core/uncertainty/model_update.h"
 
 class QBoxLayout;
 class QLabel;
@@ -14,9 +14,6 @@ class QLabel;
 namespace calivera::ui {
 
 class BackgroundJob;
-
-// The analysed rows and outcome of `cohort`; the data file named by its file name only.
-UpdateData updateDataOf(const CohortData& cohort, const InputFileRecord& data);
 
 // A word-wrapped paragraph added to `layout`.
 QLabel* addIntroText(QBoxLayout* layout, const QString& text, const QString& objectName);

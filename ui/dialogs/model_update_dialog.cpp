@@ -133,7 +133,7 @@ void ModelUpdateDialog::chooseMethod(UpdateMethod method) {
 
 void ModelUpdateDialog::startRun() {
   if (!cohort_ || !cohort_->table() || job_->isRunning()) return;
-  const UpdateData data = updateDataOf(*cohort_, data_);
+  const UpdateData data = updateDataOf(*cohort_);
   UpdateOptions options;
   options.firth = firth_->isChecked();
   const double alpha = alpha_->value();

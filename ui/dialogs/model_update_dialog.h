@@ -11,8 +11,8 @@
 #include <vector>
 
 #include "core/model/model.h"
-#include "core/uncertainty/model_update.h"
 #include "core/study/study_analysis.h"
+#include "core/uncertainty/model_update.h"
 
 class QCheckBox;
 class QComboBox;
