@@ -278,9 +278,10 @@ void MainWindow::onFitModel() {
 
 void MainWindow::onMapVariables() {
   if (!study().model || !controller_->table()) return;
-  MappingDialog dialog(*study().model, *controller_->table(), study().columnMapping, this);
+  MappingDialog dialog(*study().model, *controller_->table(), study().columnMapping,
+                       study().levelMapping, this);
   if (dialog.exec() != QDialog::Accepted) return;
-  controller_->setColumnMapping(dialog.mapping());
+  controller_->setColumnMapping(dialog.mapping(), dialog.levelMapping());
 }
 
 void MainWindow::onUncertainty() {

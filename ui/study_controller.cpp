@@ -74,9 +74,10 @@ void StudyController::applyPipeline(PipelineOutput& output, const QString& study
   if (!output.inputWarnings.empty()) {
     add(tr("Results are recomputed from the files as they are now."));
   }
+  for (const auto& p : output.problems) add(toQ(p));
   for (const auto& n : output.notes) add(toQ(n));
   if (!text.isEmpty()) {
-    emit message(text, !output.inputWarnings.empty());
+    emit message(text, !output.inputWarnings.empty() || !output.problems.empty());
   } else if (study_.result) {
     emit messageCleared();
   }
@@ -188,10 +189,13 @@ bool StudyController::useFittedModel(const FitSettings& fit, const Model& model,
   return startPipeline(std::move(request), tr("Validating the fitted model"), {});
 }
 
-bool StudyController::setColumnMapping(const std::map<std::string, std::string>& mapping) {
+bool StudyController::setColumnMapping(
+    const std::map<std::string, std::string>& mapping,
+    const std::map<std::string, std::map<std::string, std::string>>& levels) {
   PipelineRequest request;
   request.study = study_;
   request.study.columnMapping = mapping;
+  request.study.levelMapping = levels;
   request.table = table_;
   return startPipeline(std::move(request), tr("Validating"), {});
 }

@@ -49,7 +49,9 @@ class StudyController : public QObject {
   bool validateUpdatedModel(const QString& path);
   bool useFittedModel(const FitSettings& fit, const Model& model,
                       const std::vector<std::string>& warnings);
-  bool setColumnMapping(const std::map<std::string, std::string>& mapping);
+  // Model variable -> cohort column, and model variable -> (cohort level -> model level).
+  bool setColumnMapping(const std::map<std::string, std::string>& mapping,
+                        const std::map<std::string, std::map<std::string, std::string>>& levels);
   bool runValidation();
   // Bootstrap intervals and bands, comparison and subgroups on the current run. Success replaces
   // study().uncertainty and study().uncertaintySettings; cancel or failure keeps the previous

@@ -21,6 +21,7 @@ constexpr const char* kHelp =
     "usage: calivera predictor-space --data COHORT.csv --outcome COL --model MODEL.json\n"
     "                                --predictor VAR [--predictor VAR2] [--hold VAR=VALUE]\n"
     "                                [--threshold T] [--points N] [--grid N] [--map VAR=COLUMN]\n"
+    "                                [--map-level VAR:LEVEL=MODEL_LEVEL]\n"
     "                                [--json FILE] [--csv FILE]\n\n"
     "The model's predicted risk against one predictor, or over two, with every other predictor\n"
     "held fixed: the numbers of the workstation's Predictor space tab. Held values default to the\n"
@@ -32,6 +33,8 @@ constexpr const char* kHelp =
     "  --points N           curve points (200)\n"
     "  --grid N             surface grid points per axis (60)\n"
     "  --map VAR=COLUMN     read the model variable VAR from the cohort column COLUMN\n"
+    "  --map-level VAR:LEVEL=MODEL_LEVEL\n"
+    "                       read the cohort's LEVEL of VAR as the model's MODEL_LEVEL\n"
     "  --json FILE          the curve or the grid and its boundary, as JSON\n"
     "  --csv FILE           the curve (value, risk) or the grid (x_value, y_value, risk), as CSV\n"
     "Only the model evaluated on a grid and aggregates are written, never a patient's values.\n";
@@ -54,8 +57,8 @@ int boundedCount(const Arguments& arguments, const std::string& option, int fall
 
 int runPredictorSpaceCommand(const std::vector<std::string>& words) {
   OptionSpec spec;
-  spec.valued = {"--data",      "--outcome", "--model", "--map",  "--predictor", "--hold",
-                 "--threshold", "--points",  "--grid",  "--json", "--csv"};
+  spec.valued = {"--map-level", "--data",      "--outcome", "--model", "--map",  "--predictor",
+                 "--hold",      "--threshold", "--points",  "--grid",  "--json", "--csv"};
   spec.flags = {"--help"};
   addDataOptions(spec);
   const Arguments arguments(words, spec);
@@ -95,7 +98,8 @@ int runPredictorSpaceCommand(const std::vector<std::string>& words) {
 
   // The analysed patients as `validate` (and the workstation) selects them: held defaults are
   // their medians and reference levels.
-  const Model model = readModelFile(*request.modelPath);
+  Model model = readModelFile(*request.modelPath);
+  model.levelMapping = request.levelMapping;
   const auto run = std::make_shared<const ValidationRun>(runValidation(request));
   const CohortData cohort{run};
   const std::vector<PredictorInfo> predictors =

@@ -32,7 +32,8 @@ namespace {
 
 constexpr const char* kHelp =
     "usage: calivera validate --data COHORT.csv --outcome COL (--model MODEL.json | --risk COL)\n"
-    "                         [--map VAR=COLUMN] [--development-data] [--groups G] [--thresholds "
+    "                         [--map VAR=COLUMN] [--map-level VAR:LEVEL=MODEL_LEVEL]\n"
+    "                         [--development-data] [--groups G] [--thresholds "
     "FROM:TO:STEP | T1,T2,...]\n"
     "                         [--json REPORT.json] [--csv-dir DIR]\n"
     "                         [--pdf REPORT.pdf [--title TEXT] [--suppress-below N]\n"
@@ -45,6 +46,9 @@ constexpr const char* kHelp =
     "  --risk COL           or: a column of predicted risks in [0, 1]\n"
     "  --map VAR=COLUMN     read the model variable VAR from the cohort column COLUMN\n"
     "                       (repeatable)\n"
+    "  --map-level VAR:LEVEL=MODEL_LEVEL\n"
+    "                       read the cohort's LEVEL of the categorical variable VAR as the\n"
+    "                       model's MODEL_LEVEL (repeatable; for categories spelled differently)\n"
     "  --development-data   the cohort is the model's development data: performance is\n"
     "                       apparent (Hosmer-Lemeshow on g-2 df) even when the model file's\n"
     "                       fingerprint of its data does not match the cohort file\n"
@@ -101,8 +105,8 @@ std::vector<double> parseThresholds(const std::string& text) {
 
 void addValidateOptions(OptionSpec& spec) {
   spec.valued.insert({"--data", "--outcome", "--model", "--risk", "--groups", "--thresholds",
-                      "--map", "--json", "--csv-dir", "--pdf", "--title", "--suppress-below",
-                      "--paper", "--reasonable-range", "--report-thresholds"});
+                      "--map", "--map-level", "--json", "--csv-dir", "--pdf", "--title",
+                      "--suppress-below", "--paper", "--reasonable-range", "--report-thresholds"});
   spec.flags.insert({"--help", "--development-data"});
   addDataOptions(spec);
   addUncertaintyOptions(spec);  // uncertainty: --bootstrap, --compare, --subgroup, ...
@@ -177,6 +181,23 @@ ValidationRequest validationRequestFrom(const Arguments& arguments) {
       throw InputError("--map: variable '" + variable + "' is mapped twice");
     }
     request.columnMapping[variable] = item.substr(eq + 1);
+  }
+  for (const std::string& item : arguments.values("--map-level")) {
+    // VARIABLE:LEVEL=MODEL_LEVEL, split at the first ':' and the first '=' after it.
+    const std::size_t colon = item.find(':');
+    const std::size_t eq = colon == std::string::npos ? colon : item.find('=', colon + 1);
+    if (colon == std::string::npos || colon == 0 || eq == std::string::npos) {
+      throw InputError("--map-level: '" + item + "' is not VARIABLE:LEVEL=MODEL_LEVEL");
+    }
+    if (request.riskColumn)
+      throw InputError("--map-level: needs --model (a risk column has no terms)");
+    const std::string variable = item.substr(0, colon);
+    const std::string from = item.substr(colon + 1, eq - colon - 1);
+    auto& levels = request.levelMapping[variable];
+    if (levels.count(from) != 0) {
+      throw InputError("--map-level: level '" + from + "' of '" + variable + "' is mapped twice");
+    }
+    levels[from] = item.substr(eq + 1);
   }
   request.developmentData = arguments.has("--development-data");
   if (const auto g = arguments.value("--groups")) {

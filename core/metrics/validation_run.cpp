@@ -141,6 +141,9 @@ ValidationRun runValidation(const ValidationRequest& request, std::shared_ptr<co
     for (const auto& [variable, column] : request.columnMapping) {
       run.model->columnMapping[variable] = column;
     }
+    for (const auto& [variable, levels] : request.levelMapping) {
+      for (const auto& [from, to] : levels) run.model->levelMapping[variable][from] = to;
+    }
   }
   const Model* model = run.model ? &*run.model : nullptr;
   run.cohort = prepareCohort(*table, request.outcome, model, request.riskColumn);

@@ -45,6 +45,9 @@ struct ValidationRequest {
   std::string modelLabel = "(fitted in the workstation)";
   // Model variable -> cohort column, applied on top of the model file's own mapping.
   std::map<std::string, std::string> columnMapping;
+  // Model variable -> (cohort level -> model level), applied on top of the model (Model::
+  // levelMapping); its targets must be levels the model knows (core/model/category_levels.h).
+  std::map<std::string, std::map<std::string, std::string>> levelMapping;
   // The user states that the cohort is the model's development data (apparent performance) even
   // when no fingerprint says so (for example the same patients saved with another delimiter).
   bool developmentData = false;

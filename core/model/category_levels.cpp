@@ -74,12 +74,60 @@ std::string unmatchedList(const std::vector<Unmatched>& unmatched) {
 
 }  // namespace
 
+const std::string& mappedLevel(const Model& model, const std::string& variable,
+                               const std::string& cohortLevel) {
+  const auto byVariable = model.levelMapping.find(variable);
+  if (byVariable == model.levelMapping.end()) return cohortLevel;
+  const auto found = byVariable->second.find(cohortLevel);
+  return found == byVariable->second.end() ? cohortLevel : found->second;
+}
+
+std::map<std::string, std::vector<std::string>> indicatorLevels(const Model& model) {
+  std::map<std::string, std::vector<std::string>> out;
+  for (const Term& term : model.terms) collectIndicatorLevels(term, out);
+  return out;
+}
+
 std::vector<std::string> checkCategoryLevels(const Model& model, const Table& table,
                                              const std::vector<std::uint32_t>& rows) {
-  std::map<std::string, std::vector<std::string>> indicatorLevels;
-  for (const Term& term : model.terms) collectIndicatorLevels(term, indicatorLevels);
+  const std::map<std::string, std::vector<std::string>> known = indicatorLevels(model);
   std::vector<std::string> warnings;
-  for (const auto& [variable, levels] : indicatorLevels) {
+  // The level mapping itself: only categorical variables of the model, onto levels it knows.
+  for (const auto& [variable, pairs] : model.levelMapping) {
+    const auto levels = known.find(variable);
+    if (levels == known.end()) {
+      throw UnknownLevelError(table.sourceName + ": level mapping for '" + shownText(variable) +
+                              "': the model has no categorical variable of that name");
+    }
+    const Column* column = table.find(mappedColumn(model, variable));
+    if (column != nullptr && column->kind != ColumnKind::Text) {
+      throw UnknownLevelError(table.sourceName + ": level mapping for '" + shownText(variable) +
+                              "': column '" + shownText(column->name) +
+                              "' holds numbers; map levels of text columns only");
+    }
+    const auto ref = model.referenceLevels.find(variable);
+    for (const auto& [from, to] : pairs) {
+      const bool isLevel =
+          std::find(levels->second.begin(), levels->second.end(), to) != levels->second.end();
+      const bool isReference =
+          ref != model.referenceLevels.end() &&
+          std::find(ref->second.begin(), ref->second.end(), to) != ref->second.end();
+      if (!isLevel && !isReference) {
+        throw UnknownLevelError(
+            table.sourceName + ": level mapping for '" + shownText(variable) + "' maps '" +
+            shownText(from) + "' to '" + shownText(to) + "', which is not a level of the model (" +
+            knownList(levels->second, ref == model.referenceLevels.end() ? nullptr : &ref->second) +
+            ")");
+      }
+      if (column != nullptr &&
+          std::find(column->levels.begin(), column->levels.end(), from) == column->levels.end()) {
+        warnings.push_back("level mapping for '" + shownText(variable) + "': no patient has '" +
+                           shownText(from) + "' in column '" + shownText(column->name) +
+                           "'; the mapping changes nothing");
+      }
+    }
+  }
+  for (const auto& [variable, levels] : known) {
     const std::string columnName = mappedColumn(model, variable);
     const Column* column = table.find(columnName);
     if (column == nullptr) continue;  // designMatrix names the missing column
@@ -99,8 +147,9 @@ std::vector<std::string> checkCategoryLevels(const Model& model, const Table& ta
       }
       for (std::size_t code = 0; code < counts.size(); ++code) {
         const std::string& level = column->levels[code];
-        if (counts[code] == 0 || std::find(levels.begin(), levels.end(), level) != levels.end() ||
-            isReference(level)) {
+        const std::string& asModel = mappedLevel(model, variable, level);
+        if (counts[code] == 0 || std::find(levels.begin(), levels.end(), asModel) != levels.end() ||
+            isReference(asModel)) {
           continue;
         }
         unmatched.push_back({level, counts[code]});
@@ -136,13 +185,14 @@ std::vector<std::string> checkCategoryLevels(const Model& model, const Table& ta
                          knownList(levels, nullptr) + ")");
       continue;
     }
-    throw InputError(table.sourceName + ": " + where + ": " +
-                     (unmatched.size() == 1 ? "level " : "levels ") + unmatchedList(unmatched) +
-                     (unmatched.size() == 1 ? " is" : " are") +
-                     " not known to the model (its levels: " + knownList(levels, reference) +
-                     "), and would otherwise be scored as the reference level. Recode the "
-                     "column, or pair the variable with a column that uses the model's levels "
-                     "(the column mapping)");
+    throw UnknownLevelError(
+        table.sourceName + ": " + where + ": " + (unmatched.size() == 1 ? "level " : "levels ") +
+        unmatchedList(unmatched) + (unmatched.size() == 1 ? " is" : " are") +
+        " not known to the model (its levels: " + knownList(levels, reference) +
+        "), and would otherwise be scored as the reference level. Recode the "
+        "column, map each level to one of the model's (--map-level "
+        "VARIABLE:LEVEL=MODEL_LEVEL, or Model → Map variables in the workstation), "
+        "or pair the variable with a column that uses the model's levels");
   }
   return warnings;
 }

@@ -12,19 +12,40 @@
 //     reference and named in a warning; two or more are an error.
 // The error names the file, the column, the unknown levels with their row counts (text cut to a
 // short prefix, control characters shown escaped) and the model's levels.
+//
+// A level mapping (Model::levelMapping) states which model level a cohort level stands for; the
+// check and the evaluation both read cohort levels through it. Its targets must be levels the
+// model knows, and it applies to text columns only.
 
 #include <cstdint>
+#include <map>
 #include <string>
 #include <vector>
 
 #include "core/data/table.h"
 #include "core/model/model.h"
+#include "core/util/errors.h"
 #include "core/util/shown_text.h"
 
 namespace calivera {
 
-// Throws InputError for unknown levels; returns the warnings of an assumed reference level.
+// Unknown levels (or a level mapping that cannot apply): an InputError the workstation can tell
+// apart, to keep the model loaded and offer the mapping step.
+class UnknownLevelError : public InputError {
+ public:
+  using InputError::InputError;
+};
+
+// Throws UnknownLevelError for unknown levels; returns the warnings of an assumed reference level
+// and of mapped levels no analysed patient has.
 std::vector<std::string> checkCategoryLevels(const Model& model, const Table& table,
                                              const std::vector<std::uint32_t>& rows);
+
+// The model level `cohortLevel` of `variable` stands for: its mapping, else itself.
+const std::string& mappedLevel(const Model& model, const std::string& variable,
+                               const std::string& cohortLevel);
+
+// Model variable -> the levels its indicator terms name (products included), in first-use order.
+std::map<std::string, std::vector<std::string>> indicatorLevels(const Model& model);
 
 }  // namespace calivera

@@ -54,7 +54,8 @@ double splineBasis(double x, const std::vector<double>& t, int j, bool scaled) {
 // One term bound to its cohort column, evaluated row by row.
 class BoundTerm {
  public:
-  BoundTerm(const Model& model, const Term& term, const Table& table) : term_(term), table_(table) {
+  BoundTerm(const Model& model, const Term& term, const Table& table)
+      : model_(model), term_(term), table_(table) {
     if (term.kind == TransformKind::Product) {
       for (const Term& factor : term.factors) factors_.emplace_back(model, factor, table);
       return;
@@ -90,7 +91,10 @@ class BoundTerm {
       return factors_[0].value(row) * factors_[1].value(row);
     if (column_->isMissing(row)) fail(row, "is missing");
     if (term_.kind == TransformKind::Indicator) {
-      if (column_->kind == ColumnKind::Text) return column_->codes[row] == levelCode_ ? 1.0 : 0.0;
+      if (column_->kind == ColumnKind::Text) {
+        const std::int32_t code = column_->codes[row];
+        return levelMatch_[static_cast<std::size_t>(code)] ? 1.0 : 0.0;
+      }
       return column_->numbers[row] == levelNumber_ ? 1.0 : 0.0;
     }
     const double x = column_->numbers[row];
@@ -119,10 +123,13 @@ class BoundTerm {
 
   void bindIndicator() {
     if (column_->kind == ColumnKind::Text) {
+      // Which cohort levels score 1: those that are, or are mapped to, the term's level
+      // (Model::levelMapping). A level absent from this cohort is legitimate: all zeros.
       const auto& levels = column_->levels;
-      const auto found = std::find(levels.begin(), levels.end(), term_.level);
-      // A level absent from this cohort is legitimate (nobody in that category): all zeros.
-      levelCode_ = found == levels.end() ? -2 : static_cast<std::int32_t>(found - levels.begin());
+      levelMatch_.assign(levels.size(), 0);
+      for (std::size_t code = 0; code < levels.size(); ++code) {
+        levelMatch_[code] = mappedLevel(model_, term_.variable, levels[code]) == term_.level;
+      }
       return;
     }
     const char* begin = term_.level.data();
@@ -140,11 +147,12 @@ class BoundTerm {
                      ": column '" + column_->name + "' " + what + " (term '" + label() + "')");
   }
 
+  const Model& model_;
   const Term& term_;
   const Table& table_;
   const Column* column_ = nullptr;
   std::vector<BoundTerm> factors_;
-  std::int32_t levelCode_ = -2;
+  std::vector<char> levelMatch_;  // text indicator: per cohort level code
   double levelNumber_ = 0.0;
 };
 

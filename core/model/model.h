@@ -67,6 +67,11 @@ struct Model {
   // other level is an error rather than scored as the reference (core/model/category_levels.h).
   // Written by `calivera fit`; optional in a model file.
   std::map<std::string, std::vector<std::string>> referenceLevels;
+  // Model variable -> (cohort level -> the model's level it stands for): a category spelled
+  // differently in the local cohort ("Emergency" for "emergency"), stated by the user for this
+  // validation (the column-mapping step, `--map-level`). Applied wherever the model is evaluated;
+  // not part of the model file format.
+  std::map<std::string, std::map<std::string, std::string>> levelMapping;
   // Free-form provenance of updates (which model it updates, on which data, which method).
   std::optional<std::string> provenance;
   // The file readModelFile read this model from, for messages; empty when built in memory.

@@ -187,8 +187,8 @@ Term readTransformed(const Json& object, const Context& context, bool isFactor) 
       // A zero or subnormal scale would blow (x - center) / scale up to infinity inside the fit,
       // far from this file; refused here, naming the term and the field.
       if (!std::isnormal(term.scale)) {
-        context.fail("field 'scale' must not be 0 or subnormal (got " +
-                     formatShortest(term.scale) + ")");
+        context.fail("field 'scale' must not be 0 or subnormal (got " + formatShortest(term.scale) +
+                     ")");
       }
       break;
     case TransformKind::Power:

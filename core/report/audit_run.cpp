@@ -48,6 +48,11 @@ AuditReportInput auditInputFromRun(const ValidationRun& run, const std::string& 
   for (const auto& [variable, column] : input.model.columnMapping) {
     settings.other.emplace_back("Column mapping: " + variable, column);
   }
+  for (const auto& [variable, levels] : input.model.levelMapping) {
+    std::string pairs;
+    for (const auto& [from, to] : levels) pairs += (pairs.empty() ? "" : "; ") + from + " as " + to;
+    settings.other.emplace_back("Level mapping: " + variable, pairs);
+  }
   input.result = run.result;
   return input;
 }

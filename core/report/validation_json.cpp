@@ -139,6 +139,7 @@ json settingsJson(const ValidationRun& run) {
            run.request.outcome.eventValue ? json(*run.request.outcome.eventValue) : json(nullptr)},
           {"groups", o.groups},
           {"column_mapping", run.request.columnMapping},
+          {"level_mapping", run.request.levelMapping},
           {"development_data_stated", run.request.developmentData},
           {"thresholds", o.thresholds},
           {"flag_rule", "risk >= threshold"},

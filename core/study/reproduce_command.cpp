@@ -49,6 +49,15 @@ void addImportWords(std::vector<std::string>& w, const CsvOptions& csv,
   }
 }
 
+void addLevelMappingWords(std::vector<std::string>& w,
+                          const std::map<std::string, std::map<std::string, std::string>>& m) {
+  for (const auto& [variable, levels] : m) {
+    for (const auto& [from, to] : levels) {
+      w.insert(w.end(), {"--map-level", variable + ":" + from + "=" + to});
+    }
+  }
+}
+
 }  // namespace
 
 std::vector<std::string> validateCommandWords(const ValidationRequest& validation,
@@ -65,6 +74,7 @@ std::vector<std::string> validateCommandWords(const ValidationRequest& validatio
   for (const auto& [variable, column] : validation.columnMapping) {
     w.insert(w.end(), {"--map", variable + "=" + column});
   }
+  addLevelMappingWords(w, validation.levelMapping);
   if (validation.developmentData) w.push_back("--development-data");
   const ValidationOptions defaults;
   if (validation.options.groups != defaults.groups) {
@@ -129,6 +139,7 @@ StudyRequests studyRequests(const StudyState& study) {
       break;
   }
   v.columnMapping = study.columnMapping;
+  v.levelMapping = study.levelMapping;
   // A model fitted in the workstation is judged on the data it was fitted on (as the pipeline).
   v.developmentData = study.analysis.apparent || study.modelSource == ModelSource::Fitted;
   v.options.groups = study.analysis.groups;
@@ -178,6 +189,7 @@ std::optional<std::string> predictorSpaceCommandLine(const StudyState& study) {
   for (const auto& [variable, column] : v.columnMapping) {
     w.insert(w.end(), {"--map", variable + "=" + column});
   }
+  addLevelMappingWords(w, v.levelMapping);
   for (const std::string& variable : study.predictorView) {
     w.insert(w.end(), {"--predictor", variable});
   }

@@ -83,6 +83,8 @@ struct StudyState {
   std::optional<InputFileRecord> modelFile;          // ModelSource::File
   FitSettings fit;                                   // ModelSource::Fitted
   std::map<std::string, std::string> columnMapping;  // model variable -> cohort column
+  // Model variable -> (cohort level -> model level): categories spelled differently here.
+  std::map<std::string, std::map<std::string, std::string>> levelMapping;
   AnalysisSettings analysis;
   // Predictor-space views: chosen predictors and the values the others are held at.
   std::vector<std::string> predictorView;

@@ -151,6 +151,7 @@ std::string studyToJson(const StudyState& study, const std::string& studyPath) {
                         : json(nullptr);
   j["model"] = model;
   j["columnMapping"] = study.columnMapping;
+  j["levelMapping"] = study.levelMapping;
   j["analysis"] = {{"threshold", study.analysis.threshold},
                    {"reasonableLo", study.analysis.reasonableLo},
                    {"reasonableHi", study.analysis.reasonableHi},
@@ -227,6 +228,8 @@ StudyState parseStudyJson(const std::string& text, const std::string& studyPath)
   }
   s.columnMapping =
       in.get<std::map<std::string, std::string>>(j, "columnMapping", "columnMapping", {});
+  s.levelMapping = in.get<std::map<std::string, std::map<std::string, std::string>>>(
+      j, "levelMapping", "levelMapping", {});
   const json& a = in.object(j, "analysis", "analysis");
   s.analysis.threshold = in.probability(a, "threshold", "analysis.threshold", 0.1, false);
   s.analysis.reasonableLo = in.probability(a, "reasonableLo", "analysis.reasonableLo", 0.05, true);

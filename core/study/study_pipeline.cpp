@@ -2,6 +2,7 @@
 
 #include <filesystem>
 
+#include "core/model/category_levels.h"
 #include "core/model/model_io.h"
 #include "core/study/study_file.h"
 #include "core/study/study_uncertainty.h"
@@ -102,9 +103,15 @@ PipelineOutput runPipeline(const PipelineRequest& request, const ProgressCallbac
   }
   const bool fullUncertainty = request.withUncertainty && s.uncertaintySettings.anyRequested();
   const double analysisEnd = fullUncertainty ? 0.6 : 1.0;
-  AnalysisOutput analysis = runAnalysis(out.table, *s.model, s, [&](double f) {
-    return progress ? progress(0.4 + (analysisEnd - 0.4) * f) : true;
-  });
+  AnalysisOutput analysis;
+  try {
+    analysis = runAnalysis(out.table, *s.model, s, [&](double f) {
+      return progress ? progress(0.4 + (analysisEnd - 0.4) * f) : true;
+    });
+  } catch (const UnknownLevelError& e) {
+    out.problems.push_back(e.what());
+    return out;
+  }
   s.exclusions = analysis.exclusions;
   s.result = analysis.result;
   s.run = analysis.cohort->run;

@@ -34,6 +34,9 @@ struct PipelineOutput {
   std::shared_ptr<const CohortData> cohort;    // null when no validation could run yet
   std::vector<std::string> unmappedVariables;  // model variables the cohort lacks
   std::vector<std::string> notes;  // why no validation ran, why no uncertainty analysis ran
+  // Why the validation could not run although the inputs were read (unknown category levels):
+  // the study keeps its cohort and model so the user can map the levels; shown as an error.
+  std::vector<std::string> problems;
   // Inputs missing or changed since the study was saved (checkRecordedInputs), one sentence each.
   std::vector<std::string> inputWarnings;
 };

@@ -48,6 +48,7 @@ std::string validationBasis(const StudyState& study) {
   j["event"] = study.import.eventValue.value_or("\x01(none)");
   j["model"] = study.model ? modelToJson(*study.model) : std::string();
   j["mapping"] = study.columnMapping;
+  j["levels"] = study.levelMapping;
   j["groups"] = study.analysis.groups;
   j["apparent"] = study.analysis.apparent;
   return j.dump();

@@ -4,6 +4,8 @@
 // Data: MASS::birthwt (Debian r-cran-mass), with a model fitted on it here.
 #include "ui/study_controller.h"
 
+#include <QComboBox>
+#include <QFile>
 #include <QSignalSpy>
 #include <QTemporaryDir>
 #include <QtTest>
@@ -11,7 +13,9 @@
 #include "core/data/csv_reader.h"
 #include "core/fit/cohort_fit.h"
 #include "core/model/model_io.h"
+#include "core/study/study_file.h"
 #include "ui/async/background_job.h"
+#include "ui/dialogs/mapping_dialog.h"
 
 using namespace calivera;
 using namespace calivera::ui;
@@ -143,6 +147,62 @@ class StudyControllerTest : public QObject {
     QCOMPARE(messages.count(), 1);
     QVERIFY(messages.at(0).at(1).toBool());
     QCOMPARE(c.study().result, before);
+  }
+
+  // A cohort that spells a category differently: the run stops with the unknown level named, the
+  // cohort and model stay loaded, the mapping dialog offers the level, and the mapped run gives the
+  // original file's numbers; the study saves the mapping and `calivera run` repeats it.
+  void unknownLevelsAreMappedThroughTheMappingStep() {
+    CohortFitSpec spec;
+    spec.outcome = OutcomeSpec{"low", std::nullopt};
+    spec.predictors = {"age", "lwt", "race", "smoke"};
+    const QString model = dir_.filePath("race.json");
+    writeModelFile(model.toStdString(),
+                   fitCohortModel(readCsvFile(kBirthwt, CsvOptions{}).table, spec).model);
+    QFile in(QString::fromStdString(kBirthwt));
+    QVERIFY(in.open(QIODevice::ReadOnly));
+    QByteArray text = in.readAll();
+    text.replace(",black,", ",Black,");
+    const QString respelled = dir_.filePath("respelled.csv");
+    QFile out(respelled);
+    QVERIFY(out.open(QIODevice::WriteOnly));
+    out.write(text);
+    out.close();
+
+    StudyController original;
+    ImportSettings import;
+    import.outcomeColumn = "low";
+    QVERIFY(original.openInputs(QString::fromStdString(kBirthwt), model, import));
+    QTRY_VERIFY_WITH_TIMEOUT(!original.job()->isRunning(), 60000);
+    QVERIFY(original.study().result != nullptr);
+
+    StudyController c;
+    QSignalSpy messages(&c, &StudyController::message);
+    QVERIFY(c.openInputs(respelled, model, import));
+    QTRY_VERIFY_WITH_TIMEOUT(!c.job()->isRunning(), 60000);
+    QVERIFY(c.study().result == nullptr);
+    QVERIFY(c.study().model.has_value());  // kept, so the mapping step can open
+    QVERIFY(c.table() != nullptr);
+    QVERIFY(!messages.isEmpty());
+    QVERIFY(messages.last().at(1).toBool());  // shown as an error
+    QVERIFY2(messages.last().at(0).toString().contains("'Black' (26 rows)"),
+             qPrintable(messages.last().at(0).toString()));
+
+    MappingDialog dialog(*c.study().model, *c.table(), {}, {});
+    auto* combo = dialog.findChild<QComboBox*>("levelMap_race_Black");
+    QVERIFY(combo != nullptr);
+    combo->setCurrentIndex(combo->findText("black"));
+    const auto levels = dialog.levelMapping();
+    QCOMPARE(levels.at("race").at("Black"), std::string("black"));
+    QVERIFY(c.setColumnMapping(dialog.mapping(), levels));
+    QTRY_VERIFY_WITH_TIMEOUT(!c.job()->isRunning(), 60000);
+    QVERIFY(c.study().result != nullptr);
+    QCOMPARE(c.study().result->discrimination.auc, original.study().result->discrimination.auc);
+    QCOMPARE(c.study().result->calibration.slope, original.study().result->calibration.slope);
+
+    const QString saved = dir_.filePath("mapped.cvstudy");
+    QVERIFY(c.saveStudy(saved));
+    QCOMPARE(readStudyFile(saved.toStdString()).levelMapping, levels);
   }
 
   void savingTellsThePath() {

@@ -7,6 +7,7 @@
 #include <gtest/gtest.h>
 
 #include <filesystem>
+#include <nlohmann/json.hpp>
 #include <string>
 
 #include "core/model/model_io.h"
@@ -49,6 +50,53 @@ TEST(CategoryLevels, UnknownLevelIsAnErrorNotTheReference) {
   EXPECT_NE(run.err.find("'Black' (26 rows)"), std::string::npos) << run.err;  // 26 in birthwt
   EXPECT_NE(run.err.find("'white' (reference)"), std::string::npos) << run.err;
   EXPECT_FALSE(std::filesystem::exists(dir.file("out.json")));
+}
+
+// Mapping the respelled level back (--map-level) gives, number for number, the validation of the
+// original file: the mapping is read exactly where the model is evaluated. A mapping onto a level
+// the model does not know, or of a numeric column, is refused naming it; the study file keeps it.
+TEST(CategoryLevels, MappedLevelsGiveTheOriginalNumbers) {
+  TempDir dir("level_mapping");
+  const std::string model = dir.file("m.json");
+  ASSERT_EQ(
+      runCalivera({"fit", "--data", testing::birthwtPath(), "--outcome", "low", "--predictors",
+                   "age,lwt,race,smoke", "--reference", "race=white", "--out", model})
+          .status,
+      0);
+  const std::string data = respelled(dir);
+  const testing::CliRun original =
+      runCalivera({"validate", "--data", testing::birthwtPath(), "--outcome", "low", "--model",
+                   model, "--json", dir.file("original.json")});
+  ASSERT_EQ(original.status, 0) << original.err;
+  const testing::CliRun mapped =
+      runCalivera({"validate", "--data", data, "--outcome", "low", "--model", model, "--map-level",
+                   "race:Black=black", "--json", dir.file("mapped.json")});
+  ASSERT_EQ(mapped.status, 0) << mapped.err;
+  const auto a = nlohmann::json::parse(readWhole(dir.file("original.json")));
+  const auto b = nlohmann::json::parse(readWhole(dir.file("mapped.json")));
+  EXPECT_EQ(a["discrimination"], b["discrimination"]);
+  EXPECT_EQ(a["calibration"], b["calibration"]);
+  // (The original file is the model's development data, so its Hosmer-Lemeshow has g - 2 df; the
+  // respelled copy is new data by its fingerprint. The statistic and groups are the same.)
+  EXPECT_EQ(a["hosmer_lemeshow"]["statistic"], b["hosmer_lemeshow"]["statistic"]);
+  EXPECT_EQ(a["hosmer_lemeshow"]["groups"], b["hosmer_lemeshow"]["groups"]);
+  EXPECT_EQ(b["settings"]["level_mapping"]["race"]["Black"], "black");
+
+  const std::pair<std::vector<std::string>, std::string> refused[] = {
+      {{"--map-level", "race:Black=purple"}, "maps 'Black' to 'purple', which is not a level"},
+      {{"--map-level", "age:30=31"}, "no categorical variable"},
+      {{"--map-level", "race=black"}, "is not VARIABLE:LEVEL=MODEL_LEVEL"},
+      {{"--map-level", "race:Black=black", "--map-level", "race:Black=other"}, "mapped twice"},
+  };
+  for (const auto& [extra, message] : refused) {
+    std::vector<std::string> words = {"validate", "--data", data,     "--outcome",           "low",
+                                      "--model",  model,    "--json", dir.file("never.json")};
+    words.insert(words.end(), extra.begin(), extra.end());
+    const testing::CliRun run = runCalivera(words);
+    EXPECT_EQ(run.status, 2) << message;
+    EXPECT_NE(run.err.find(message), std::string::npos) << run.err;
+    EXPECT_FALSE(std::filesystem::exists(dir.file("never.json")));
+  }
 }
 
 TEST(CategoryLevels, WithoutARecordedReferenceOneUnmatchedLevelIsNamedTwoAreAnError) {

@@ -10,8 +10,10 @@
 #include <algorithm>
 #include <cmath>
 
+#include "core/model/category_levels.h"
 #include "core/study/study_analysis.h"
 #include "core/study/unit_check.h"
+#include "core/util/shown_text.h"
 
 namespace calivera::ui {
 
@@ -42,8 +44,13 @@ QString rangeOf(const Column& c) {
 }  // namespace
 
 MappingDialog::MappingDialog(const Model& model, const Table& table,
-                             const std::map<std::string, std::string>& current, QWidget* parent)
-    : QDialog(parent), model_(model), table_(table), variables_(modelVariables(model)) {
+                             const std::map<std::string, std::string>& current,
+                             const LevelMapping& levels, QWidget* parent)
+    : QDialog(parent),
+      model_(model),
+      table_(table),
+      variables_(modelVariables(model)),
+      levels_(levels) {
   setObjectName(QStringLiteral("mappingDialog"));
   setWindowTitle(tr("Map model variables to cohort columns"));
   auto* layout = new QVBoxLayout(this);
@@ -80,6 +87,18 @@ MappingDialog::MappingDialog(const Model& model, const Table& table,
   grid_->horizontalHeader()->setSectionResizeMode(QHeaderView::ResizeToContents);
   grid_->horizontalHeader()->setStretchLastSection(true);
   layout->addWidget(grid_, 1);
+  levelNote_ = new QLabel;
+  levelNote_->setObjectName(QStringLiteral("levelMappingNote"));
+  levelNote_->setWordWrap(true);
+  layout->addWidget(levelNote_);
+  levelGrid_ = new QTableWidget(0, 4);
+  levelGrid_->setObjectName(QStringLiteral("levelGrid"));
+  levelGrid_->setHorizontalHeaderLabels(
+      {tr("Model variable"), tr("Level in the cohort"), tr("Rows"), tr("Read as the model's")});
+  levelGrid_->verticalHeader()->setVisible(false);
+  levelGrid_->horizontalHeader()->setSectionResizeMode(QHeaderView::ResizeToContents);
+  levelGrid_->horizontalHeader()->setStretchLastSection(true);
+  layout->addWidget(levelGrid_, 1);
   note_ = new QLabel;
   note_->setObjectName(QStringLiteral("mappingNote"));
   note_->setWordWrap(true);
@@ -91,11 +110,74 @@ MappingDialog::MappingDialog(const Model& model, const Table& table,
   connect(buttons, &QDialogButtonBox::accepted, this, &QDialog::accept);
   connect(buttons, &QDialogButtonBox::rejected, this, &QDialog::reject);
   layout->addWidget(buttons);
-  resize(820, 420);
+  resize(820, 560);
   refreshChecks();
 }
 
+std::string MappingDialog::pairedColumn(int row) const {
+  auto* combo = qobject_cast<QComboBox*>(grid_->cellWidget(row, 2));
+  return combo->currentIndex() <= 0 ? std::string() : combo->currentText().toStdString();
+}
+
+void MappingDialog::rebuildLevels() {
+  // Keep what the user chose before the pairings changed (the first time: the study's mapping).
+  if (levelGrid_->rowCount() > 0) levels_ = levelMapping();
+  levelGrid_->setRowCount(0);
+  const std::map<std::string, std::vector<std::string>> known = indicatorLevels(model_);
+  for (int row = 0; row < grid_->rowCount(); ++row) {
+    const std::string& variable = variables_[static_cast<std::size_t>(row)];
+    const auto modelLevels = known.find(variable);
+    const Column* column = table_.find(pairedColumn(row));
+    if (modelLevels == known.end() || column == nullptr || column->kind != ColumnKind::Text) {
+      continue;
+    }
+    std::vector<std::string> targets = modelLevels->second;
+    if (const auto ref = model_.referenceLevels.find(variable);
+        ref != model_.referenceLevels.end()) {
+      targets.insert(targets.begin(), ref->second.begin(), ref->second.end());
+    }
+    std::vector<std::size_t> counts(column->levels.size(), 0);
+    for (const std::int32_t code : column->codes) {
+      if (code >= 0) ++counts[static_cast<std::size_t>(code)];
+    }
+    const auto chosen = levels_.find(variable);
+    for (std::size_t code = 0; code < column->levels.size(); ++code) {
+      const std::string& level = column->levels[code];
+      const bool knownLevel = std::find(targets.begin(), targets.end(), level) != targets.end();
+      const bool mapped = chosen != levels_.end() && chosen->second.count(level) != 0;
+      if (knownLevel && !mapped) continue;  // the model knows it as it is
+      const int r = levelGrid_->rowCount();
+      levelGrid_->insertRow(r);
+      levelGrid_->setItem(r, 0, new QTableWidgetItem(QString::fromStdString(variable)));
+      auto* levelItem = new QTableWidgetItem(QString::fromStdString(visibleName(level, 60)));
+      levelItem->setData(Qt::UserRole, QString::fromStdString(level));
+      levelItem->setToolTip(QString::fromStdString(visibleName(level, 4096)));
+      levelGrid_->setItem(r, 1, levelItem);
+      levelGrid_->setItem(r, 2, new QTableWidgetItem(QString::number(counts[code])));
+      auto* combo = new QComboBox;
+      combo->setObjectName(
+          QStringLiteral("levelMap_%1_%2")
+              .arg(QString::fromStdString(variable), QString::fromStdString(level)));
+      combo->addItem(tr("(unknown: stops the validation)"));
+      for (const std::string& t : targets) combo->addItem(QString::fromStdString(t));
+      if (mapped) {
+        const int index = combo->findText(QString::fromStdString(chosen->second.at(level)));
+        combo->setCurrentIndex(index < 0 ? 0 : index);
+      }
+      levelGrid_->setCellWidget(r, 3, combo);
+    }
+  }
+  const bool any = levelGrid_->rowCount() > 0;
+  levelGrid_->setVisible(any);
+  levelNote_->setText(
+      any ? tr("Levels of the paired columns that the model does not know. Read each as one of "
+               "the model's levels only when it means the same category; a level left unknown "
+               "stops the validation instead of being scored as the reference.")
+          : tr("Every level of the paired text columns is one the model knows."));
+}
+
 void MappingDialog::refreshChecks() {
+  rebuildLevels();
   int unpaired = 0, mismatched = 0;
   for (int row = 0; row < grid_->rowCount(); ++row) {
     auto* combo = qobject_cast<QComboBox*>(grid_->cellWidget(row, 2));
@@ -130,6 +212,18 @@ std::map<std::string, std::string> MappingDialog::mapping() const {
     const std::string column = combo->currentText().toStdString();
     const std::string& v = variables_[static_cast<std::size_t>(row)];
     if (column != v) out[v] = column;
+  }
+  return out;
+}
+
+MappingDialog::LevelMapping MappingDialog::levelMapping() const {
+  LevelMapping out;
+  for (int row = 0; row < levelGrid_->rowCount(); ++row) {
+    auto* combo = qobject_cast<QComboBox*>(levelGrid_->cellWidget(row, 3));
+    if (combo == nullptr || combo->currentIndex() <= 0) continue;
+    const std::string variable = levelGrid_->item(row, 0)->text().toStdString();
+    const std::string level = levelGrid_->item(row, 1)->data(Qt::UserRole).toString().toStdString();
+    out[variable][level] = combo->currentText().toStdString();
   }
   return out;
 }
