@@ -160,7 +160,7 @@ void MainWindow::addUncertaintyLayers(charts::RocChart& roc, charts::Calibration
   // study's model on the comparison rows.
   const bool fewer = study().result && u->comparisonRows < study().result->cohort.n;
   for (std::size_t m = 1; m < u->comparedResults.size() && m < u->comparison->models.size(); ++m) {
-    QString name = toQ(u->comparison->models[m]);
+    QString name = toQ(visibleName(u->comparison->models[m], 40));
     if (fewer) name += tr(" (on %1 patients)").arg(u->comparisonRows);
     const ValidationResult& other = u->comparedResults[m];
     roc.addComparison(name, other.discrimination);

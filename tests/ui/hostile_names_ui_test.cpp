@@ -2,7 +2,9 @@
 // right-to-left override is written out instead of reversing what follows, and a 400-character
 // name is cut (full name in the tooltip) instead of widening the window.
 // Data: MASS::birthwt (Debian r-cran-mass).
+#include <QFile>
 #include <QLabel>
+#include <QTableView>
 #include <QTemporaryDir>
 #include <QtTest>
 
@@ -47,6 +49,63 @@ class HostileNamesUiTest : public QObject {
     QVERIFY(status->toolTip().contains(QString(400, 'x')));
     QVERIFY2(w.width() <= 1366 && w.minimumSizeHint().width() < 1366,
              qPrintable(QString::number(w.minimumSizeHint().width())));
+  }
+
+  // A subgroup column named with markup and a 300-character level: the note shows the markup as
+  // text, the table cell is cut with the whole level in its tooltip, the window keeps its width.
+  void subgroupNamesAreEscapedAndCut() {
+    QTemporaryDir dir;
+    QVERIFY(dir.isValid());
+    QFile in(CALIVERA_SOURCE_DIR "/tests/reference/data/birthwt.csv");
+    QVERIFY(in.open(QIODevice::ReadOnly));
+    QByteArray text = in.readAll();
+    const QByteArray longLevel = "L" + QByteArray(300, 'v');
+    text.replace("race,", "<i>group</i>,");  // the header's column name
+    text.replace(",black,", "," + longLevel + ",");
+    const QString data = dir.filePath("hostile.csv");
+    QFile out(data);
+    QVERIFY(out.open(QIODevice::WriteOnly));
+    out.write(text);
+    out.close();
+    CohortFitSpec spec;
+    spec.outcome = OutcomeSpec{"low", std::nullopt};
+    spec.predictors = {"age", "lwt"};
+    const QString model = dir.filePath("m.json");
+    writeModelFile(model.toStdString(),
+                   fitCohortModel(readCsvFile(data.toStdString(), CsvOptions{}).table, spec).model);
+    MainWindow w;
+    w.resize(1366, 768);
+    w.show();
+    ImportSettings import;
+    import.outcomeColumn = "low";
+    QVERIFY(w.controller().openInputs(data, model, import));
+    QTRY_VERIFY_WITH_TIMEOUT(!w.controller().job()->isRunning(), 60000);
+    UncertaintySettings settings;
+    settings.subgroupColumns = {"<i>group</i>"};
+    QVERIFY(w.controller().runUncertainty(settings));
+    QTRY_VERIFY_WITH_TIMEOUT(!w.controller().job()->isRunning(), 60000);
+    QVERIFY2(w.controller().study().uncertainty &&
+                 !w.controller().study().uncertainty->subgroups.empty(),
+             qPrintable(w.messageText()));
+    auto* view = w.findChild<QWidget*>("subgroupView");
+    QVERIFY(view != nullptr);
+    bool noteShowsMarkup = false;
+    for (auto* label : view->findChildren<QLabel*>()) {
+      if (label->text().contains("&lt;i&gt;group&lt;/i&gt;")) noteShowsMarkup = true;
+    }
+    QVERIFY(noteShowsMarkup);
+    auto* table = view->findChild<QTableView*>();
+    QVERIFY(table != nullptr);
+    bool cut = false;
+    for (int r = 0; r < table->model()->rowCount(); ++r) {
+      const QModelIndex index = table->model()->index(r, 0);
+      const QString tip = index.data(Qt::ToolTipRole).toString();
+      if (tip.contains(QString(longLevel))) {
+        cut = index.data().toString().size() < 80;
+      }
+    }
+    QVERIFY(cut);
+    QVERIFY(w.minimumSizeHint().width() < 1366);
   }
 };
 

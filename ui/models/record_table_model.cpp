@@ -27,6 +27,8 @@ QVariant RecordTableModel::data(const QModelIndex& index, int role) const {
   switch (role) {
     case Qt::DisplayRole:
       return c.text;
+    case Qt::ToolTipRole:
+      return c.tip.isEmpty() ? QVariant() : QVariant(c.tip);
     case kSortRole:
       return c.textual ? QVariant(c.text) : QVariant(c.sortKey);
     case Qt::TextAlignmentRole:

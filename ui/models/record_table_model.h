@@ -18,6 +18,7 @@ struct TableCell {
   QString text;
   double sortKey = 0.0;
   bool textual = false;  // sort by the text instead of sortKey
+  QString tip = {};      // tooltip: the full text of a name cut for the cell; may be empty
 };
 
 class RecordTableModel : public QAbstractTableModel {

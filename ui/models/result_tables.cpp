@@ -4,6 +4,7 @@
 #include <cmath>
 #include <limits>
 
+#include "core/util/shown_text.h"
 #include "render/charts/chart_text.h"
 
 namespace calivera::ui {
@@ -26,7 +27,12 @@ TableCell interval(const Interval& ci, int decimals) {
   return {QStringLiteral("%1 to %2").arg(fixed(ci.lo, decimals), fixed(ci.hi, decimals)), ci.lo};
 }
 TableCell text(const QString& s) {
-  return {s, 0.0, true};
+  // Names from files (levels, model names) are shown with invisible and bidirectional controls
+  // written out and cut, so one long name cannot widen the table; the tooltip holds them whole.
+  const std::string raw = s.toStdString();
+  const QString shown = QString::fromStdString(visibleName(raw, kShownNameChars));
+  const QString full = QString::fromStdString(visibleName(raw, 4096));
+  return {shown, 0.0, true, shown == full ? QString() : full};
 }
 
 }  // namespace cells

@@ -17,7 +17,10 @@ namespace cells {
 TableCell number(double v, int decimals);
 TableCell count(std::size_t v);
 TableCell interval(const Interval& ci, int decimals);  // "lo to hi", sorted by lo
-TableCell text(const QString& s);                      // sorts alphabetically
+// Sorts alphabetically; long or hostile names are cut (kShownNameChars) with the whole name in
+// the tooltip.
+TableCell text(const QString& s);
+inline constexpr std::size_t kShownNameChars = 60;
 }  // namespace cells
 
 // A core result table (core/report/result_table.h) on screen: its labels, its tooltips, values

@@ -8,6 +8,8 @@
 #include <QTableView>
 #include <QVBoxLayout>
 
+#include "core/util/shown_text.h"
+#include "core/util/shown_text.h"
 #include "render/charts/calibration_chart.h"
 #include "render/charts/overlay_series.h"
 #include "ui/models/record_table_model.h"
@@ -69,7 +71,9 @@ void SubgroupView::setResults(const std::shared_ptr<const UncertaintyResults>& r
   column_->clear();
   if (results_) {
     for (const SubgroupAnalysis& a : results_->subgroups) {
-      column_->addItem(QString::fromStdString(a.column));
+      column_->addItem(QString::fromStdString(visibleName(a.column, 40)));
+      column_->setItemData(column_->count() - 1,
+                           QString::fromStdString(visibleName(a.column, 4096)), Qt::ToolTipRole);
     }
   }
   column_->setEnabled(column_->count() > 0);
@@ -99,7 +103,7 @@ void SubgroupView::showColumn(int column) {
     if (first < 0 && a->levels[i].metrics) first = static_cast<int>(i);
   }
   QString note = tr("Each level of %1 validated on its own patients (%2 levels).")
-                     .arg(QString::fromStdString(a->column))
+                     .arg(QString::fromStdString(visibleName(a->column, 60)).toHtmlEscaped())
                      .arg(a->levels.size());
   if (small > 0) {
     note += tr(" <span style='color:#a04000'><b>%1 of them too small to judge</b> (fewer than "
@@ -122,16 +126,17 @@ void SubgroupView::showLevel(int level) {
   level_ = level;
   const SubgroupResult& r = a->levels[static_cast<std::size_t>(level)];
   auto* chart = new charts::CalibrationChart(r.metrics->calibration, r.metrics->distribution);
-  chart->setTitle(
-      QStringLiteral("%1 = %2: %3")
-          .arg(QString::fromStdString(a->column), QString::fromStdString(r.level), chart->title()));
+  chart->setTitle(QStringLiteral("%1 = %2: %3")
+                      .arg(QString::fromStdString(visibleName(a->column, 30)),
+                           QString::fromStdString(visibleName(r.level, 30)), chart->title()));
   if (r.bootstrap) chart->setCurveBand(r.bootstrap->calibrationCurve);
   // The other levels' smoothed curves, for comparison (each its own colour and dash pattern).
   std::size_t overlays = 0;
   for (std::size_t i = 0; i < a->levels.size() && overlays < charts::kComparisonStyles; ++i) {
     const SubgroupResult& other = a->levels[i];
     if (static_cast<int>(i) == level || !other.metrics) continue;
-    chart->addComparison(QString::fromStdString(other.level), other.metrics->calibration);
+    chart->addComparison(QString::fromStdString(visibleName(other.level, 40)),
+                         other.metrics->calibration);
     ++overlays;
   }
   chart_->setLinkedChart(chart);
