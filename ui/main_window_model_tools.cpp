@@ -13,9 +13,9 @@ void MainWindow::onInternalValidation() {
   if (!study().model || !controller_->cohort() || !study().data) return;
   // Refused before the dialog opens, with the reason: optimism correction of a model that was
   // not developed on this cohort would report "corrected" figures that mean nothing.
-  if (const std::string refusal =
-          internalValidationRefusal(*study().model, study().data->sha256,
-                                    controller_->cohort()->run->request.developmentData);
+  if (const std::string refusal = internalValidationRefusal(
+          *study().model, study().data->sha256, controller_->cohort()->run->request.developmentData,
+          controller_->cohort()->run->analysedSha256);
       !refusal.empty()) {
     showMessage(tr("Internal validation not run: %1.").arg(QString::fromStdString(refusal)), true);
     return;

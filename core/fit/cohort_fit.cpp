@@ -4,6 +4,7 @@
 #include <charconv>
 
 #include "core/fit/spline_knots.h"
+#include "core/model/analysed_fingerprint.h"
 #include "core/model/linear_predictor.h"
 #include "core/util/errors.h"
 #include "core/util/number_format.h"
@@ -256,6 +257,7 @@ CohortFit fitCohortModel(const Table& table, const CohortFitSpec& spec) {
     model.terms[j].estimate = {result.fit.beta[k], result.fit.se[k]};
   }
   model.development.n = static_cast<long long>(rows.size());
+  model.development.analysedSha256 = analysedDataFingerprint(model, table, rows, outcome);
   model.development.events = static_cast<long long>(result.events);
   model.development.software = std::string("calivera ") + CALIVERA_VERSION;
   model.development.method = spec.fit.firth

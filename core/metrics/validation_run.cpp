@@ -4,6 +4,7 @@
 #include <sstream>
 #include <utility>
 
+#include "core/model/analysed_fingerprint.h"
 #include "core/model/category_levels.h"
 #include "core/model/linear_predictor.h"
 #include "core/model/model_io.h"
@@ -95,20 +96,32 @@ PreparedCohort prepareCohort(const Table& table, const OutcomeSpec& outcome, con
   return prepared;
 }
 
-bool isApparent(const Model* model, const std::string& dataSha256) {
-  return model && model->development.dataSha256 && *model->development.dataSha256 == dataSha256;
+bool isApparent(const Model* model, const std::string& dataSha256,
+                const std::string& analysedSha256) {
+  if (!model) return false;
+  const DevelopmentRecord& d = model->development;
+  return (d.dataSha256 && *d.dataSha256 == dataSha256) ||
+         (d.analysedSha256 && !analysedSha256.empty() && *d.analysedSha256 == analysedSha256);
 }
 
 PerformanceDecision decidePerformance(const Model* model, const std::string& dataSha256,
+                                      const std::string& analysedSha256,
                                       bool statedDevelopmentData) {
   if (isApparent(model, dataSha256)) {
     return {true, "the cohort file is the model's development data (SHA-256 match)"};
   }
+  if (isApparent(model, {}, analysedSha256)) {
+    return {true,
+            "the analysed values are the model's development data (analysed-data fingerprint "
+            "match), although the file's bytes differ"};
+  }
   if (statedDevelopmentData) {
     return {true, "stated by the user: the cohort is the model's development data"};
   }
-  if (model && model->development.dataSha256) {
-    return {false, "the cohort file differs from the model's development data (SHA-256)"};
+  if (model && (model->development.dataSha256 || model->development.analysedSha256)) {
+    return {false,
+            "the cohort differs from the model's development data (file SHA-256 and "
+            "analysed-data fingerprint)"};
   }
   if (model) {
     return {false, "the model file records no development data SHA-256; treated as new data"};
@@ -147,8 +160,12 @@ ValidationRun runValidation(const ValidationRequest& request, std::shared_ptr<co
   }
   const Model* model = run.model ? &*run.model : nullptr;
   run.cohort = prepareCohort(*table, request.outcome, model, request.riskColumn);
+  if (model) {
+    run.analysedSha256 =
+        analysedDataFingerprint(*model, *table, run.cohort.rows, run.cohort.input.outcome);
+  }
   const PerformanceDecision decision =
-      decidePerformance(model, run.dataSha256, request.developmentData);
+      decidePerformance(model, run.dataSha256, run.analysedSha256, request.developmentData);
   run.performance = decision.apparent ? kPerformanceApparent : kPerformanceNewData;
   run.performanceBasis = decision.basis;
   ValidationOptions options = request.options;

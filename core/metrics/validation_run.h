@@ -65,6 +65,8 @@ struct PreparedCohort {
 struct ValidationRun {
   ValidationRequest request;  // as given, with options.thresholds filled in
   std::string dataSha256;
+  // The analysed-data fingerprint (core/model/analysed_fingerprint.h); model route only.
+  std::string analysedSha256;
   std::optional<Model> model;          // model route only
   std::string modelSha256;             // model route only
   std::string modelName;               // the model's name, or "risk column COL"
@@ -85,14 +87,17 @@ std::string exclusionWarning(const ExclusionReport& report);
 PreparedCohort prepareCohort(const Table& table, const OutcomeSpec& outcome, const Model* model,
                              const std::optional<std::string>& riskColumn);
 
-// "apparent" when the model's development data SHA-256 equals the cohort's, else "new data".
-bool isApparent(const Model* model, const std::string& dataSha256);
+// True when the model's development record matches the cohort: the file's SHA-256, or the
+// analysed-data fingerprint (the same values saved in another layout).
+bool isApparent(const Model* model, const std::string& dataSha256,
+                const std::string& analysedSha256 = {});
 
 struct PerformanceDecision {
   bool apparent = false;
   std::string basis;  // one sentence: why apparent / new data
 };
 PerformanceDecision decidePerformance(const Model* model, const std::string& dataSha256,
+                                      const std::string& analysedSha256,
                                       bool statedDevelopmentData);
 
 // Runs every step. Throws InputError (bad files, columns, values; exit 2 on the command line),

@@ -197,4 +197,24 @@ double logisticRisk(double linearPredictor) {
   return e / (1.0 + e);
 }
 
+namespace {
+
+void collectVariables(const Term& term, std::vector<std::string>& out) {
+  if (term.kind == TransformKind::Product) {
+    for (const Term& f : term.factors) collectVariables(f, out);
+    return;
+  }
+  if (!term.variable.empty() && std::find(out.begin(), out.end(), term.variable) == out.end()) {
+    out.push_back(term.variable);
+  }
+}
+
+}  // namespace
+
+std::vector<std::string> modelVariables(const Model& model) {
+  std::vector<std::string> out;
+  for (const Term& t : model.terms) collectVariables(t, out);
+  return out;
+}
+
 }  // namespace calivera

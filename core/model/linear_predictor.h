@@ -14,6 +14,8 @@ namespace calivera {
 
 // Cohort columns the model reads (after mapping), in first-use order: the complete-case set.
 std::vector<std::string> requiredColumns(const Model& model);
+// Model variables (term variables and product factors), in first-use order, before mapping.
+std::vector<std::string> modelVariables(const Model& model);
 
 // Throws InputError when a term names a column the cohort lacks, a cohort level is unknown to the
 // model (core/model/category_levels.h), a numeric transformation meets a text column (naming file,

@@ -48,7 +48,10 @@ struct Term {
 struct DevelopmentRecord {
   std::optional<long long> n;
   std::optional<long long> events;
-  std::optional<std::string> dataSha256;   // lowercase hex of the development data file
+  std::optional<std::string> dataSha256;  // lowercase hex of the development data file
+  // The analysed-data fingerprint of the development data (core/model/analysed_fingerprint.h):
+  // the same patients saved in another layout still match it.
+  std::optional<std::string> analysedSha256;
   std::optional<std::string> software;     // e.g. "calivera 0.1.0"
   std::optional<std::string> method;       // e.g. "maximum likelihood", "Firth penalized"
   std::optional<std::string> description;  // free text: source publication, setting

@@ -263,21 +263,26 @@ Term readTerm(const Json& object, std::size_t index, const Context& file) {
 DevelopmentRecord readDevelopment(const Json& object, const Context& file) {
   const Context context = file.within("development");
   requireObject(object, "development", file);
-  rejectUnknownFields(object, {"n", "events", "data_sha256", "software", "method", "description"},
-                      context);
+  rejectUnknownFields(
+      object,
+      {"n", "events", "data_sha256", "analysed_data_sha256", "software", "method", "description"},
+      context);
   DevelopmentRecord record;
   record.n = optionalCount(object, "n", context);
   record.events = optionalCount(object, "events", context);
   if (record.n && record.events && *record.events > *record.n) {
     context.fail("field 'events' exceeds 'n'");
   }
-  record.dataSha256 = optionalString(object, "data_sha256", context);
-  if (record.dataSha256) {
-    const std::string& hex = *record.dataSha256;
-    const bool valid =
-        hex.size() == 64 && hex.find_first_not_of("0123456789abcdef") == std::string::npos;
-    if (!valid) context.fail("field 'data_sha256' must be 64 lowercase hex digits");
-  }
+  const auto digest = [&](const char* field) {
+    std::optional<std::string> hex = optionalString(object, field, context);
+    if (hex &&
+        (hex->size() != 64 || hex->find_first_not_of("0123456789abcdef") != std::string::npos)) {
+      context.fail(std::string("field '") + field + "' must be 64 lowercase hex digits");
+    }
+    return hex;
+  };
+  record.dataSha256 = digest("data_sha256");
+  record.analysedSha256 = digest("analysed_data_sha256");
   record.software = optionalString(object, "software", context);
   record.method = optionalString(object, "method", context);
   record.description = optionalString(object, "description", context);
@@ -412,6 +417,7 @@ std::string modelToJson(const Model& model) {
   if (dev.n) development["n"] = *dev.n;
   if (dev.events) development["events"] = *dev.events;
   if (dev.dataSha256) development["data_sha256"] = *dev.dataSha256;
+  if (dev.analysedSha256) development["analysed_data_sha256"] = *dev.analysedSha256;
   if (dev.software) development["software"] = *dev.software;
   if (dev.method) development["method"] = *dev.method;
   if (dev.description) development["description"] = *dev.description;

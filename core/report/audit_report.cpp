@@ -124,6 +124,9 @@ void addIdentification(const AuditReportInput& input, const DisclosurePlan& plan
   ReportTable cohort = keyValueTable(std::string(kTablePrefix) + "Cohort file");
   cohort.rows.push_back({"File name", fileNameOnly(input.cohortFile.name)});
   cohort.rows.push_back({"SHA-256", input.cohortFile.sha256});
+  if (!input.analysedSha256.empty()) {
+    cohort.rows.push_back({"Analysed-data fingerprint", input.analysedSha256});
+  }
   cohort.rows.push_back({"Rows read", plan.rowsRead()});
   cohort.rows.push_back({"Rows excluded", plan.rowsExcluded()});
   for (std::size_t k = 0; k < input.exclusions.byColumn.size(); ++k) {
@@ -160,6 +163,7 @@ void addIdentification(const AuditReportInput& input, const DisclosurePlan& plan
   modelTable.rows.push_back({"Development: patients", orDash(dev.n)});
   modelTable.rows.push_back({"Development: events", orDash(dev.events)});
   modelTable.rows.push_back({"Development data SHA-256", orDash(dev.dataSha256)});
+  modelTable.rows.push_back({"Development analysed-data fingerprint", orDash(dev.analysedSha256)});
   modelTable.rows.push_back({"Development: software", orDash(dev.software)});
   modelTable.rows.push_back({"Development: method", orDash(dev.method)});
   modelTable.rows.push_back({"Development: description", orDash(dev.description)});

@@ -49,6 +49,7 @@ struct AuditReportInput {
   std::string createdAt;  // as printed, e.g. "2026-12-01 22:40:00 UTC"
   std::string softwareVersion;
   FileFingerprint cohortFile;
+  std::string analysedSha256;  // analysed-data fingerprint; empty for a risk column
   ExclusionReport exclusions;
   FileFingerprint modelFile;
   Model model;

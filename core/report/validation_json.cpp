@@ -127,7 +127,9 @@ json inputsJson(const ValidationRun& run) {
   const ValidationRequest& r = run.request;
   json model = nullptr;
   if (r.modelPath) model = {{"file", *r.modelPath}, {"sha256", run.modelSha256}};
-  return {{"data", {{"file", r.dataPath}, {"sha256", run.dataSha256}}},
+  json data = {{"file", r.dataPath}, {"sha256", run.dataSha256}};
+  if (!run.analysedSha256.empty()) data["analysed_data_sha256"] = run.analysedSha256;
+  return {{"data", data},
           {"model", model},
           {"risk_column", r.riskColumn ? json(*r.riskColumn) : json(nullptr)}};
 }
@@ -157,6 +159,10 @@ json validationToJson(const ValidationRun& run) {
   const ValidationResult& r = run.result;
   json dev = nullptr;
   if (run.model && run.model->development.dataSha256) dev = *run.model->development.dataSha256;
+  json devAnalysed = nullptr;
+  if (run.model && run.model->development.analysedSha256) {
+    devAnalysed = *run.model->development.analysedSha256;
+  }
   json hl = {{"statistic", jsonNumber(r.hosmerLemeshow.statistic)},
              {"df", r.hosmerLemeshow.df},
              {"p_value", jsonNumber(r.hosmerLemeshow.pValue)},
@@ -170,7 +176,10 @@ json validationToJson(const ValidationRun& run) {
           {"software", {{"name", "calivera"}, {"version", run.softwareVersion}}},
           {"caution", kCautionText},
           {"inputs", inputsJson(run)},
-          {"model", {{"name", run.modelName}, {"development_data_sha256", dev}}},
+          {"model",
+           {{"name", run.modelName},
+            {"development_data_sha256", dev},
+            {"development_analysed_data_sha256", devAnalysed}}},
           {"settings", settingsJson(run)},
           {"cohort", cohortJson(run)},
           {"discrimination", discriminationJson(r.discrimination)},

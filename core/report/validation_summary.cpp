@@ -35,6 +35,7 @@ std::string validationSummaryText(const ValidationRun& run, const std::string& b
   std::ostringstream out;
   out << "Calivera " << run.softwareVersion << " - validation of " << run.modelName << "\n\n";
   out << "Cohort file   " << run.request.dataPath << "\n  SHA-256     " << run.dataSha256 << "\n";
+  if (!run.analysedSha256.empty()) out << "  analysed    " << run.analysedSha256 << "\n";
   if (run.request.modelPath) {
     out << "Model file    " << *run.request.modelPath << "\n  SHA-256     " << run.modelSha256
         << "\n";

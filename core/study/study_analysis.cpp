@@ -15,16 +15,6 @@ namespace calivera {
 
 namespace {
 
-void collectVariables(const Term& term, std::vector<std::string>& out) {
-  if (term.kind == TransformKind::Product) {
-    for (const Term& f : term.factors) collectVariables(f, out);
-    return;
-  }
-  if (!term.variable.empty() && std::find(out.begin(), out.end(), term.variable) == out.end()) {
-    out.push_back(term.variable);
-  }
-}
-
 std::string problemText(FitProblem problem) {
   switch (problem) {
     case FitProblem::None:
@@ -60,12 +50,6 @@ LoadedTable loadCohortFile(const std::string& path, const ImportSettings& settin
   loaded.record.path = std::filesystem::absolute(path).string();
   loaded.record.sha256 = sha256OfFile(path);
   return loaded;
-}
-
-std::vector<std::string> modelVariables(const Model& model) {
-  std::vector<std::string> out;
-  for (const Term& t : model.terms) collectVariables(t, out);
-  return out;
 }
 
 ValidationRequest validationRequestFor(const StudyState& study, const Model& model) {
@@ -136,6 +120,7 @@ UpdateData updateDataOf(const CohortData& cohort) {
   out.rows = cohort.rows();
   out.outcome = cohort.outcome();
   out.dataSha256 = cohort.run->dataSha256;
+  out.analysedSha256 = cohort.run->analysedSha256;
   out.dataName = std::filesystem::path(cohort.run->request.dataPath).filename().string();
   return out;
 }

@@ -15,6 +15,7 @@
 #include "core/fit/profile_ci.h"
 #include "core/metrics/validation.h"
 #include "core/metrics/validation_run.h"
+#include "core/model/linear_predictor.h"  // modelVariables
 #include "core/model/model.h"
 #include "core/study/study.h"
 #include "core/uncertainty/model_update.h"
@@ -59,9 +60,6 @@ struct LoadedTable {
 
 CsvOptions csvOptionsFor(const ImportSettings& settings);
 LoadedTable loadCohortFile(const std::string& path, const ImportSettings& settings);
-
-// Model variables (term variables and product factors), in first-use order, before mapping.
-std::vector<std::string> modelVariables(const Model& model);
 
 // The request the study stands for (studyRequests, core/study/reproduce_command.h, the one
 // `calivera run` executes) with `model`, as the pipeline read or fitted it, held in memory.

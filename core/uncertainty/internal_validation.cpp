@@ -2,6 +2,7 @@
 
 #include <Eigen/Dense>
 
+#include "core/metrics/validation_run.h"
 #include "core/model/linear_predictor.h"
 #include "core/util/errors.h"
 
@@ -12,11 +13,10 @@ bool fittedWithFirth(const Model& model) {
 }
 
 std::string internalValidationRefusal(const Model& model, const std::string& dataSha256,
-                                      bool statedDevelopmentData) {
+                                      bool statedDevelopmentData,
+                                      const std::string& analysedSha256) {
   const bool recorded = model.development.dataSha256.has_value();
-  if (statedDevelopmentData || (recorded && *model.development.dataSha256 == dataSha256)) {
-    return {};
-  }
+  if (statedDevelopmentData || isApparent(&model, dataSha256, analysedSha256)) return {};
   const std::string reason =
       recorded ? "the model was developed on other data (its file records SHA-256 " +
                      *model.development.dataSha256 + ", this cohort's is " + dataSha256 + ")"
@@ -32,8 +32,8 @@ std::string internalValidationRefusal(const Model& model, const std::string& dat
 InternalValidation internalValidation(const Model& model, const UpdateData& data,
                                       OptimismOptions options, bool statedDevelopmentData) {
   if (data.table == nullptr) throw AnalysisError("internal validation: no cohort");
-  if (const std::string refusal =
-          internalValidationRefusal(model, data.dataSha256, statedDevelopmentData);
+  if (const std::string refusal = internalValidationRefusal(
+          model, data.dataSha256, statedDevelopmentData, data.analysedSha256);
       !refusal.empty()) {
     throw InputError(refusal);
   }
@@ -41,7 +41,7 @@ InternalValidation internalValidation(const Model& model, const UpdateData& data
   options.fit.firth = options.fit.firth || fittedWithFirth(model);
   out.firth = options.fit.firth;
   if (statedDevelopmentData && model.development.dataSha256 &&
-      *model.development.dataSha256 != data.dataSha256) {
+      !isApparent(&model, data.dataSha256, data.analysedSha256)) {
     out.warnings.push_back("the model file records other development data (SHA-256 " +
                            *model.development.dataSha256 +
                            "); run as stated: this cohort is the model's development data");

@@ -43,9 +43,11 @@ bool fittedWithFirth(const Model& model);
 InternalValidation internalValidation(const Model& model, const UpdateData& data,
                                       OptimismOptions options, bool statedDevelopmentData = false);
 
-// Empty when internal validation may run on `data`; else the reason it may not.
+// Empty when internal validation may run on `data` (stated, or the model's development record
+// matches the file or the analysed-data fingerprint); else the reason it may not.
 std::string internalValidationRefusal(const Model& model, const std::string& dataSha256,
-                                      bool statedDevelopmentData);
+                                      bool statedDevelopmentData,
+                                      const std::string& analysedSha256 = {});
 
 // The model refitted on `data` (same terms, Firth as given), every coefficient times
 // `shrinkage` and the intercept re-estimated (optimism.h, shrinkModel). Throws AnalysisError for

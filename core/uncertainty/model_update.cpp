@@ -158,6 +158,10 @@ UpdatedModel updateModel(const Model& model, const UpdateData& data, UpdateMetho
       for (double v : data.outcome) events += v > 0.5 ? 1 : 0;
       result.model.development.events = events;
       result.model.development.dataSha256 = data.dataSha256;
+      // Same terms on the same rows: the refitted model's development values are these.
+      if (!data.analysedSha256.empty()) {
+        result.model.development.analysedSha256 = data.analysedSha256;
+      }
       result.model.development.software = std::string("calivera ") + CALIVERA_VERSION;
       result.model.development.method =
           options.firth ? "Firth penalized likelihood" : "maximum likelihood";

@@ -45,6 +45,7 @@ struct UpdateData {
   std::vector<std::uint32_t> rows;  // complete cases over requiredColumns(model) and the outcome
   std::vector<double> outcome;      // 0/1 per row
   std::string dataSha256;           // of the data file, recorded in the provenance
+  std::string analysedSha256;       // analysed-data fingerprint (core/model/analysed_fingerprint.h)
   std::string dataName;             // file name as the user gave it
 };
 

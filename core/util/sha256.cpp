@@ -47,6 +47,20 @@ std::string sha256OfBytes(std::string_view bytes) {
   return finish(context.get());
 }
 
+Sha256Stream::Sha256Stream() : context_(newContext().release()) {}
+
+Sha256Stream::~Sha256Stream() {
+  EVP_MD_CTX_free(static_cast<EVP_MD_CTX*>(context_));
+}
+
+void Sha256Stream::add(std::string_view bytes) {
+  EVP_DigestUpdate(static_cast<EVP_MD_CTX*>(context_), bytes.data(), bytes.size());
+}
+
+std::string Sha256Stream::hex() {
+  return finish(static_cast<EVP_MD_CTX*>(context_));
+}
+
 std::string sha256OfFile(const std::string& path) {
   requireRegularFile(path, "input file");  // a FIFO or /dev/zero would never end
   std::ifstream in(path, std::ios::binary);

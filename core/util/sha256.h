@@ -11,4 +11,17 @@ namespace calivera {
 std::string sha256OfFile(const std::string& path);
 std::string sha256OfBytes(std::string_view bytes);
 
+// SHA-256 fed in pieces, for data that is never one string (the analysed-data fingerprint).
+class Sha256Stream {
+ public:
+  Sha256Stream();
+  ~Sha256Stream();
+  Sha256Stream(const Sha256Stream&) = delete;
+  Sha256Stream& operator=(const Sha256Stream&) = delete;
+  void add(std::string_view bytes);
+  std::string hex();  // the digest; the stream is finished
+ private:
+  void* context_;  // EVP_MD_CTX
+};
+
 }  // namespace calivera

@@ -96,6 +96,7 @@ class ModelToolsTest : public QObject {
     writeModelFile(modelPath_.toStdString(), fitted);
     // The same coefficients without a record of their development data: a model from elsewhere.
     fitted.development.dataSha256.reset();
+    fitted.development.analysedSha256.reset();
     publishedPath_ = dir_.filePath("published.json");
     writeModelFile(publishedPath_.toStdString(), fitted);
     ImportSettings import;

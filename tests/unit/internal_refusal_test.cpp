@@ -16,9 +16,15 @@ namespace {
 TEST(InternalRefusal, ModelFromElsewhereIsRefusedUnlessStated) {
   testing::TempDir dir("internal_refusal");
   const std::string model = dir.file("published.json");
-  // Fitted by core without a development record, as a published model's file would be.
+  // Fitted by core, then stripped of its development record, as a published model's file would
+  // be (a model fitted here records the analysed-data fingerprint and would be accepted).
   testing::writeBirthwtModel(model, {"age", "lwt", "smoke"}, "published elsewhere");
-  ASSERT_FALSE(readModelFile(model).development.dataSha256.has_value());
+  {
+    Model published = readModelFile(model);
+    EXPECT_TRUE(published.development.analysedSha256.has_value());
+    published.development = DevelopmentRecord{};
+    writeModelFile(model, published);
+  }
   const std::vector<std::string> base{
       "internal",          "--data", testing::birthwtPath(), "--outcome", "low",
       "--model",           model,    "--bootstrap",          "20",        "--json",
