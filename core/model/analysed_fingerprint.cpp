@@ -19,9 +19,7 @@ std::string analysedDataFingerprint(const Model& model, const Table& table,
   std::sort(variables.begin(), variables.end());  // byte order
   std::vector<std::pair<std::string, const Column*>> columns;
   for (const std::string& variable : variables) {
-    const auto mapped = model.columnMapping.find(variable);
-    const std::string name = mapped == model.columnMapping.end() ? variable : mapped->second;
-    columns.emplace_back(variable, &table.require(name));
+    columns.emplace_back(variable, &table.require(mappedColumn(model, variable)));
   }
   Sha256Stream hash;
   hash.add("calivera-analysed-data/1\n");

@@ -6,6 +6,7 @@
 #include <map>
 #include <optional>
 
+#include "core/model/linear_predictor.h"
 #include "core/util/errors.h"
 #include "core/util/number_format.h"
 
@@ -14,11 +15,6 @@ namespace {
 
 constexpr std::size_t kMaxListed = 5;
 constexpr std::size_t kMaxDistinctNumeric = 1000;
-
-std::string mappedColumn(const Model& model, const std::string& variable) {
-  const auto found = model.columnMapping.find(variable);
-  return found == model.columnMapping.end() ? variable : found->second;
-}
 
 // Model variable -> the levels its indicator terms name (products included), in first-use order.
 void collectIndicatorLevels(const Term& term,

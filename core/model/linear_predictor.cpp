@@ -9,12 +9,13 @@
 #include "core/util/errors.h"
 
 namespace calivera {
-namespace {
 
 std::string mappedColumn(const Model& model, const std::string& variable) {
   const auto found = model.columnMapping.find(variable);
   return found == model.columnMapping.end() ? variable : found->second;
 }
+
+namespace {
 
 void collectColumns(const Model& model, const Term& term, std::vector<std::string>& out) {
   if (term.kind == TransformKind::Product) {

@@ -14,6 +14,8 @@ namespace calivera {
 
 // Cohort columns the model reads (after mapping), in first-use order: the complete-case set.
 std::vector<std::string> requiredColumns(const Model& model);
+// The cohort column a model variable is read from (Model::columnMapping), else its own name.
+std::string mappedColumn(const Model& model, const std::string& variable);
 // Model variables (term variables and product factors), in first-use order, before mapping.
 std::vector<std::string> modelVariables(const Model& model);
 
