@@ -7,12 +7,12 @@
 
 namespace calivera {
 
-namespace {
+namespace table_columns {
 
-TableColumn number(std::string key, std::string label, int decimals, std::string tip = {}) {
+TableColumn number(std::string key, std::string label, int decimals, std::string tip) {
   return {std::move(key), {}, std::move(label), std::move(tip), TableColumnKind::Number, decimals};
 }
-TableColumn count(std::string key, std::string label, std::string tip = {}) {
+TableColumn count(std::string key, std::string label, std::string tip) {
   return {std::move(key), {}, std::move(label), std::move(tip), TableColumnKind::Count, 0};
 }
 TableColumn interval(std::string lo, std::string hi, std::string label, int decimals,
@@ -20,6 +20,21 @@ TableColumn interval(std::string lo, std::string hi, std::string label, int deci
   return {std::move(lo), std::move(hi), std::move(label), std::move(tip), TableColumnKind::Interval,
           decimals};
 }
+TableColumn text(std::string key, std::string label, std::string tip, std::size_t shownChars) {
+  return {std::move(key),        {}, std::move(label), std::move(tip),
+          TableColumnKind::Text, 0,  shownChars};
+}
+TableColumn pValue(std::string key, std::string label, std::string tip) {
+  return {std::move(key), {}, std::move(label), std::move(tip), TableColumnKind::PValue, 3};
+}
+
+}  // namespace table_columns
+
+namespace {
+
+using table_columns::count;
+using table_columns::interval;
+using table_columns::number;
 
 const char* const kWilson = "Wilson score 95% interval";
 
@@ -38,6 +53,7 @@ std::string tableCsv(const ResultTable& table) {
       const TableValue& v = row[k];
       switch (table.columns[k].kind) {
         case TableColumnKind::Number:
+        case TableColumnKind::PValue:
           csv.num(v.number);
           break;
         case TableColumnKind::Count:

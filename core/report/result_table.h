@@ -19,7 +19,8 @@
 
 namespace calivera {
 
-enum class TableColumnKind { Number, Count, Interval, Text };
+// PValue: a number in the CSV, shown on screen with the p floor of core/present/number_text.h.
+enum class TableColumnKind { Number, Count, Interval, Text, PValue };
 
 struct TableColumn {
   std::string key;    // CSV header (for an interval: the lower bound's)
@@ -28,6 +29,9 @@ struct TableColumn {
   std::string tip;    // on-screen header tooltip; may be empty
   TableColumnKind kind = TableColumnKind::Number;
   int decimals = 3;  // on screen only; the CSV keeps 10 significant digits
+  // Text only: how many characters the screen shows (0: the screen's default cut); the CSV and
+  // the tooltip keep the whole text. A 64-digit SHA-256 shows its first 16.
+  std::size_t shownChars = 0;
 };
 
 // One cell; which member is read follows the column's kind.
@@ -48,12 +52,24 @@ struct ResultTable {
   std::vector<TableColumn> columns;
   std::vector<std::vector<TableValue>> rows;  // each row has one value per column
   // The order the screen shows the columns in (indices into `columns`); empty: as in the CSV.
-  // The CSV keeps its own order, which later additions never disturb.
+  // The CSV keeps its own order, which later additions never disturb. A column left out is
+  // written to the CSV but not shown (a constant, or the name of the table a view already shows).
   std::vector<std::size_t> shownOrder;
 };
 
 // The CSV text (core/report/csv_text.h conventions).
 std::string tableCsv(const ResultTable& table);
+
+// Column makers shared by the table definitions (result_table.cpp, uncertainty_result_tables.cpp).
+namespace table_columns {
+TableColumn number(std::string key, std::string label, int decimals, std::string tip = {});
+TableColumn count(std::string key, std::string label, std::string tip = {});
+TableColumn interval(std::string lo, std::string hi, std::string label, int decimals,
+                     std::string tip = {});
+TableColumn text(std::string key, std::string label, std::string tip = {},
+                 std::size_t shownChars = 0);
+TableColumn pValue(std::string key, std::string label, std::string tip = {});
+}  // namespace table_columns
 
 // The threshold trade-off table: one row per threshold of the result's grid, with the net
 // benefit of the decision curve at the same threshold (core builds both from the same grid).

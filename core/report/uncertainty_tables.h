@@ -11,7 +11,8 @@
 //   calibration_band.csv            --bootstrap: risk, estimate, ci_lo, ci_hi, replicates_used
 //   net_benefit_band.csv            --bootstrap: threshold, estimate, ci_lo, ci_hi, replicates_used
 //   compared_models.csv             --compare: model, file, sha256, auc, auc_ci_lo, auc_ci_hi,
-//                                   comparison_rows
+//                                   comparison_rows, brier, calibration_intercept,
+//                                   calibration_slope, oe_ratio
 //   model_comparison_auc.csv        --compare: first, second, auc_first, auc_second,
 //                                   auc_difference, se, ci_lo, ci_hi, z, p_value, correlation
 //   model_comparison_net_benefit.csv --compare: first, second, threshold, net_benefit_first,
@@ -20,7 +21,9 @@
 //                                   auc_ci_lo, auc_ci_hi, calibration_intercept, intercept_ci_lo,
 //                                   intercept_ci_hi, calibration_slope, slope_ci_lo, slope_ci_hi,
 //                                   oe_ratio, oe_ci_lo, oe_ci_hi, brier, auc_bootstrap_lo,
-//                                   auc_bootstrap_hi, warnings
+//                                   auc_bootstrap_hi, warnings, prevalence, ici,
+//                                   slope_bootstrap_lo, slope_bootstrap_hi, size_note
+// The last four tables are defined in uncertainty_result_tables.h, which the workstation shows.
 // Intervals: analytic where the validation gives them (DeLong AUC, Wald intercept and slope, O/E),
 // percentile bootstrap 95% in the bootstrap and band tables and the *_bootstrap_* columns.
 

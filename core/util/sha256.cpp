@@ -1,5 +1,6 @@
 #include "core/util/sha256.h"
 
+#include <openssl/crypto.h>
 #include <openssl/evp.h>
 
 #include <array>
@@ -59,6 +60,10 @@ void Sha256Stream::add(std::string_view bytes) {
 
 std::string Sha256Stream::hex() {
   return finish(static_cast<EVP_MD_CTX*>(context_));
+}
+
+void releaseThreadHashState() {
+  OPENSSL_thread_stop();
 }
 
 std::string sha256OfFile(const std::string& path) {

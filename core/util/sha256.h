@@ -11,6 +11,12 @@ namespace calivera {
 std::string sha256OfFile(const std::string& path);
 std::string sha256OfBytes(std::string_view bytes);
 
+// Frees the calling thread's OpenSSL state (its error queue), which OpenSSL otherwise frees only
+// when the thread exits. A pooled worker thread that hashes calls this when its job ends: a pool
+// thread still alive when the process exits outlives OpenSSL's exit handler, so its state would
+// never be freed (LeakSanitizer reports the 904-byte error queue).
+void releaseThreadHashState();
+
 // SHA-256 fed in pieces, for data that is never one string (the analysed-data fingerprint).
 class Sha256Stream {
  public:

@@ -200,6 +200,58 @@ class StudyParityTest : public QObject {
              calivera::testing::readWhole(std::filesystem::path(folder) / "thresholds.csv"));
   }
 
+  // The comparison and subgroup tables, defined once in core
+  // (core/report/uncertainty_result_tables.h): the workstation's export writes what
+  // `calivera run --csv-dir` writes. The net-benefit difference table shows only the reasonable
+  // thresholds, so its export is the command line's file restricted to those rows.
+  void comparisonAndSubgroupTablesExportAsTheCommandLineWritesThem() {
+    const Table table = readCsvFile(kBirthwt, CsvOptions{}).table;
+    CohortFitSpec spec;
+    spec.outcome = OutcomeSpec{"low", std::nullopt};
+    spec.predictors = {"age", "lwt"};
+    spec.modelName = "birthwt two terms";
+    const std::string second = path("second_model.json");
+    writeModelFile(second, fitCohortModel(table, spec).model);
+    StudyState study = calivera::testing::birthwtFileStudy(kBirthwt, model_);
+    study.uncertaintySettings.compareModels = {InputFileRecord{second, sha256OfFile(second)}};
+    study.uncertaintySettings.subgroupColumns = {"race"};
+    study.uncertaintySettings.bootstrapReplicates = 20;
+    study.uncertaintySettings.threads = 1;
+    MainWindow w;
+    open(w, study, "compare.cvstudy");
+    QTRY_VERIFY_WITH_TIMEOUT(w.controller().study().uncertainty != nullptr, 120000);
+    QTRY_VERIFY_WITH_TIMEOUT(!w.controller().job()->isRunning(), 120000);
+    const std::string folder = path("cli_compare");
+    const auto cli =
+        calivera::testing::runCalivera({"run", path("compare.cvstudy"), "--csv-dir", folder}, 120);
+    QVERIFY2(cli.status == 0, cli.err.c_str());
+    for (const char* view : {"comparisonModelsTable", "comparisonDelongTable", "subgroupTable"}) {
+      auto* shown = w.findChild<QTableView*>(view);
+      QVERIFY2(shown != nullptr, view);
+      const ResultTable* core = coreTableOf(*shown->model());
+      QVERIFY2(core != nullptr && !core->rows.empty(), view);
+      const std::string written =
+          calivera::testing::readWhole(std::filesystem::path(folder) / core->fileName);
+      QVERIFY2(!written.empty(), core->fileName.c_str());
+      QCOMPARE(tableToCsv(*shown->model()).toStdString(), written);
+    }
+    auto* netBenefit = w.findChild<QTableView*>("comparisonNetBenefitTable");
+    QVERIFY(netBenefit != nullptr);
+    const QStringList exported = tableToCsv(*netBenefit->model()).split('\n', Qt::SkipEmptyParts);
+    const QStringList whole =
+        QString::fromStdString(calivera::testing::readWhole(std::filesystem::path(folder) /
+                                                            "model_comparison_net_benefit.csv"))
+            .split('\n', Qt::SkipEmptyParts);
+    QVERIFY(exported.size() > 1);
+    QVERIFY(exported.size() < whole.size());  // some grid thresholds lie outside 0.05 to 0.30
+    QCOMPARE(exported.front(), whole.front());
+    qsizetype at = 1;
+    for (qsizetype i = 1; i < exported.size(); ++i) {  // in the file, in the file's order
+      at = whole.indexOf(exported[i], at);
+      QVERIFY2(at > 0, qPrintable(exported[i]));
+    }
+  }
+
   // The same study through the workstation's report export and through `calivera run --pdf`:
   // the same report settings (saved with the study), the same PDF text as pdftotext reads it.
   // Both runs share SOURCE_DATE_EPOCH, so even the creation date agrees. The model's development

@@ -18,6 +18,7 @@
 #include <memory>
 
 #include "core/util/progress.h"
+#include "core/util/sha256.h"
 
 namespace calivera::ui {
 
@@ -74,6 +75,7 @@ class BackgroundJob : public QObject {
       } catch (...) {
         outcome->error = describeCurrentException();
       }
+      releaseThreadHashState();  // the pool thread may outlive OpenSSL at exit
       return outcome;
     }));
     return true;

@@ -4,6 +4,7 @@
 #include <cmath>
 #include <limits>
 
+#include "core/present/number_text.h"
 #include "core/util/shown_text.h"
 #include "render/charts/chart_text.h"
 
@@ -26,11 +27,11 @@ TableCell count(std::size_t v) {
 TableCell interval(const Interval& ci, int decimals) {
   return {QStringLiteral("%1 to %2").arg(fixed(ci.lo, decimals), fixed(ci.hi, decimals)), ci.lo};
 }
-TableCell text(const QString& s) {
+TableCell text(const QString& s, std::size_t shownChars) {
   // Names from files (levels, model names) are shown with invisible and bidirectional controls
   // written out and cut, so one long name cannot widen the table; the tooltip holds them whole.
   const std::string raw = s.toStdString();
-  const QString shown = QString::fromStdString(visibleName(raw, kShownNameChars));
+  const QString shown = QString::fromStdString(visibleName(raw, shownChars));
   const QString full = QString::fromStdString(visibleName(raw, 4096));
   return {shown, 0.0, true, shown == full ? QString() : full};
 }
@@ -71,8 +72,15 @@ void showResultTable(RecordTableModel& model, ResultTable table) {
           row.push_back(interval(v.interval, c.decimals));
           break;
         case TableColumnKind::Text:
-          row.push_back(cells::text(QString::fromStdString(v.text)));
+          row.push_back(cells::text(QString::fromStdString(v.text),
+                                    c.shownChars > 0 ? c.shownChars : cells::kShownNameChars));
           break;
+        case TableColumnKind::PValue: {
+          TableCell p = number(v.number, c.decimals);
+          if (!std::isnan(v.number)) p.text = QString::fromStdString(formatPValue(v.number));
+          row.push_back(std::move(p));
+          break;
+        }
       }
     }
     rows.push_back(std::move(row));

@@ -1,6 +1,7 @@
 #pragma once
-// Fills RecordTableModels from core: any core result table (the threshold trade-off table and the
-// Hosmer-Lemeshow groups among them), and the coefficient table.
+// Fills RecordTableModels from core: any core result table (the threshold trade-off table, the
+// Hosmer-Lemeshow groups, the comparison and subgroup tables of
+// core/report/uncertainty_result_tables.h), and the coefficient table.
 
 #include <vector>
 
@@ -19,8 +20,8 @@ TableCell count(std::size_t v);
 TableCell interval(const Interval& ci, int decimals);  // "lo to hi", sorted by lo
 // Sorts alphabetically; long or hostile names are cut (kShownNameChars) with the whole name in
 // the tooltip.
-TableCell text(const QString& s);
 inline constexpr std::size_t kShownNameChars = 60;
+TableCell text(const QString& s, std::size_t shownChars = kShownNameChars);
 }  // namespace cells
 
 // A core result table (core/report/result_table.h) on screen: its labels, its tooltips, values

@@ -4,9 +4,10 @@
 #include <QTableView>
 #include <QVBoxLayout>
 
+#include "core/report/uncertainty_result_tables.h"
 #include "render/charts/chart_text.h"
 #include "ui/models/record_table_model.h"
-#include "ui/models/uncertainty_tables.h"
+#include "ui/models/result_tables.h"
 #include "ui/views/result_table_view.h"
 
 namespace calivera::ui {
@@ -67,9 +68,9 @@ void ComparisonView::setResults(const std::shared_ptr<const UncertaintyResults>&
     return;
   }
   const ModelComparison& c = *results->comparison;
-  fillComparedModelsTable(*models_, *results);
-  fillDelongTable(*delong_, c);
-  fillNetBenefitDifferenceTable(*netBenefit_, c, reasonableLo, reasonableHi);
+  showResultTable(*models_, comparedModelsTable(*results));
+  showResultTable(*delong_, modelComparisonAucTable(c));
+  showResultTable(*netBenefit_, modelComparisonNetBenefitTable(c, reasonableLo, reasonableHi));
   capTableHeight(modelsTable_, 6);
   capTableHeight(delongTable_, 6);
   QString note =

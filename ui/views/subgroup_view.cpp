@@ -8,12 +8,12 @@
 #include <QTableView>
 #include <QVBoxLayout>
 
-#include "core/util/shown_text.h"
+#include "core/report/uncertainty_result_tables.h"
 #include "core/util/shown_text.h"
 #include "render/charts/calibration_chart.h"
 #include "render/charts/overlay_series.h"
 #include "ui/models/record_table_model.h"
-#include "ui/models/uncertainty_tables.h"
+#include "ui/models/result_tables.h"
 #include "ui/views/chart_panel.h"
 #include "ui/views/result_table_view.h"
 
@@ -95,7 +95,7 @@ void SubgroupView::showColumn(int column) {
            "cohort columns (site, sex, age band) to see the model's performance in each level."));
     return;
   }
-  fillSubgroupTable(*model_, *a);
+  showResultTable(*model_, subgroupsTable({*a}));
   capTableHeight(table_, 8);
   int small = 0, first = -1;
   for (std::size_t i = 0; i < a->levels.size(); ++i) {
