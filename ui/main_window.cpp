@@ -4,15 +4,19 @@
 #include <QApplication>
 #include <QCheckBox>
 #include <QCloseEvent>
+#include <QFileInfo>
 #include <QGridLayout>
+#include <QGuiApplication>
 #include <QHBoxLayout>
 #include <QHeaderView>
 #include <QLabel>
 #include <QMenuBar>
 #include <QProgressBar>
 #include <QPushButton>
+#include <QScreen>
 #include <QScrollArea>
 #include <QScrollBar>
+#include <QSettings>
 #include <QShortcut>
 #include <QSortFilterProxyModel>
 #include <QSpinBox>
@@ -149,6 +153,7 @@ MainWindow::MainWindow(QWidget* parent) : QMainWindow(parent) {
     addRecentStudy(path);
     updateStatus();
   });
+  connect(controller_, &StudyController::modifiedChanged, this, &QWidget::setWindowModified);
   connect(controller_, &StudyController::message, this, &MainWindow::showMessage);
   connect(controller_, &StudyController::messageCleared, this, &MainWindow::clearMessage);
 
@@ -157,7 +162,48 @@ MainWindow::MainWindow(QWidget* parent) : QMainWindow(parent) {
   rebuildViews();
   updateStatus();
   updateActions();
-  resize(1280, 800);
+  // 1280×800 where it fits, otherwise the screen's free area less a margin (a 1366×768 laptop).
+  QSize size(1280, 800);
+  if (const QScreen* screen = QGuiApplication::primaryScreen()) {
+    const QSize free = screen->availableGeometry().size();
+    size = size.boundedTo(QSize(free.width() * 97 / 100, free.height() * 92 / 100));
+  }
+  resize(size);
+}
+
+void MainWindow::restoreWindowState() {
+  const QSettings settings;
+  restoreGeometry(settings.value(QStringLiteral("window/geometry")).toByteArray());
+  restoreState(settings.value(QStringLiteral("window/state")).toByteArray());
+  if (auto* splitter = findChild<QSplitter*>(QStringLiteral("linkedViewsPage"))) {
+    splitter->restoreState(settings.value(QStringLiteral("window/linkedViewsSplit")).toByteArray());
+  }
+}
+
+bool MainWindow::confirmDiscardChanges() {
+  if (!controller_->isModified()) return true;
+  const QString name = controller_->studyPath().isEmpty()
+                           ? tr("The study (never saved)")
+                           : QFileInfo(controller_->studyPath()).fileName();
+  QMessageBox::StandardButton answer = QMessageBox::Cancel;
+  if (askUnsaved_) {
+    answer = askUnsaved_(name);
+  } else {
+    answer = QMessageBox::warning(
+        this, tr("Unsaved changes"),
+        tr("%1 has changes that are not saved. Save them first?").arg(name.toHtmlEscaped()),
+        QMessageBox::Save | QMessageBox::Discard | QMessageBox::Cancel, QMessageBox::Save);
+  }
+  if (answer == QMessageBox::Discard) return true;
+  if (answer == QMessageBox::Save) {
+    onSaveStudy(false);
+    return !controller_->isModified();
+  }
+  return false;
+}
+
+void MainWindow::onNewStudy() {
+  if (confirmDiscardChanges()) controller_->newStudy();
 }
 
 MainWindow::~MainWindow() = default;
@@ -189,6 +235,8 @@ void MainWindow::buildMenus() {
     connect(a, &QAction::triggered, this, slot);
     return a;
   };
+  add(file, QStringLiteral("actionNewStudy"), tr("&New study"), QKeySequence::New,
+      &MainWindow::onNewStudy);
   actionOpen_ = add(file, QStringLiteral("actionOpenStudy"), tr("&Open study…"), QKeySequence::Open,
                     &MainWindow::onOpenStudy);
   recentMenu_ = file->addMenu(tr("Recent &studies"));
@@ -201,6 +249,8 @@ void MainWindow::buildMenus() {
   actionSaveAs_->setObjectName(QStringLiteral("actionSaveStudyAs"));
   actionSaveAs_->setShortcut(QKeySequence::SaveAs);
   connect(actionSaveAs_, &QAction::triggered, this, [this]() { onSaveStudy(true); });
+  add(file, QStringLiteral("actionCloseStudy"), tr("&Close study"), QKeySequence::Close,
+      &MainWindow::onNewStudy);
   file->addSeparator();
   actionImport_ = add(file, QStringLiteral("actionImportCohort"), tr("&Import cohort CSV…"),
                       QKeySequence(Qt::CTRL | Qt::Key_I), &MainWindow::onImportCohort);
@@ -420,8 +470,18 @@ std::vector<ChartPanel*> MainWindow::chartPanels() const {
 }
 
 void MainWindow::closeEvent(QCloseEvent* event) {
+  if (!confirmDiscardChanges()) {
+    event->ignore();
+    return;
+  }
   controller_->job()->cancel();
   controller_->job()->waitForFinished();
+  QSettings settings;
+  settings.setValue(QStringLiteral("window/geometry"), saveGeometry());
+  settings.setValue(QStringLiteral("window/state"), saveState());
+  if (auto* splitter = findChild<QSplitter*>(QStringLiteral("linkedViewsPage"))) {
+    settings.setValue(QStringLiteral("window/linkedViewsSplit"), splitter->saveState());
+  }
   event->accept();
 }
 

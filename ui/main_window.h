@@ -9,7 +9,9 @@
 // whose methods are what the menu actions call.
 
 #include <QMainWindow>
+#include <QMessageBox>
 #include <QStringList>
+#include <functional>
 #include <memory>
 #include <vector>
 
@@ -68,6 +70,17 @@ class MainWindow : public QMainWindow {
   void showMessage(const QString& text, bool error);
   void clearMessage();
 
+  // What to do with unsaved changes before they would be lost (quit, open, new, close):
+  // Save, Discard or Cancel. The default asks with a message box; tests replace it.
+  using UnsavedChangesPrompt = std::function<QMessageBox::StandardButton(const QString& study)>;
+  void setUnsavedChangesPrompt(UnsavedChangesPrompt prompt) { askUnsaved_ = std::move(prompt); }
+  // True when the study may be replaced: nothing unsaved, saved now, or discarded by the user.
+  bool confirmDiscardChanges();
+
+  // Window size, position, toolbar state and splitter positions from the user's settings (the
+  // workstation calls this at start; tests do not, so one test's window never sizes another's).
+  void restoreWindowState();
+
  protected:
   void closeEvent(QCloseEvent* event) override;
 
@@ -102,6 +115,7 @@ class MainWindow : public QMainWindow {
   void onFitModel();
   void onMapVariables();
   void onOpenStudy();
+  void onNewStudy();
   void onSaveStudy(bool askPath);
   void onExportCharts();
   void onExportChart(ChartPanel* panel);
@@ -157,6 +171,7 @@ class MainWindow : public QMainWindow {
   QAction* actionExportCharts_ = nullptr;
   QAction* actionExportTable_ = nullptr;
   QAction* actionExportReport_ = nullptr;
+  UnsavedChangesPrompt askUnsaved_;
   QMenu* recentMenu_ = nullptr;
 };
 

@@ -235,10 +235,11 @@ void MainWindow::updateStatus() {
   if (!controller_->studyPath().isEmpty())
     parts << tr("Study: %1").arg(QFileInfo(controller_->studyPath()).fileName());
   status_->setText(parts.join(QStringLiteral("  ·  ")));
+  // "[*]": Qt shows an asterisk there while the study has unsaved changes (setWindowModified).
   setWindowTitle(
       controller_->studyPath().isEmpty()
-          ? tr("Calivera workstation")
-          : tr("%1 — Calivera workstation").arg(QFileInfo(controller_->studyPath()).fileName()));
+          ? tr("Calivera workstation[*]")
+          : tr("%1[*] — Calivera workstation").arg(QFileInfo(controller_->studyPath()).fileName()));
 }
 
 QString MainWindow::exportAllCharts(const QString& folder) {
@@ -295,7 +296,7 @@ void MainWindow::onUncertainty() {
 void MainWindow::onOpenStudy() {
   const QString path = QFileDialog::getOpenFileName(
       this, tr("Open study"), QString(), tr("Calivera study (*.cvstudy *.json);;All files (*)"));
-  if (!path.isEmpty()) controller_->openStudy(path);
+  if (!path.isEmpty() && confirmDiscardChanges()) controller_->openStudy(path);
 }
 
 void MainWindow::onSaveStudy(bool askPath) {
@@ -408,8 +409,9 @@ void MainWindow::rebuildRecentMenu() {
   for (int i = 0; i < recent.size(); ++i) {
     QAction* a = recentMenu_->addAction(QStringLiteral("&%1 %2").arg(i + 1).arg(recent[i]));
     a->setObjectName(QStringLiteral("actionRecentStudy%1").arg(i + 1));
-    connect(a, &QAction::triggered, this,
-            [this, path = recent[i]]() { controller_->openStudy(path); });
+    connect(a, &QAction::triggered, this, [this, path = recent[i]]() {
+      if (confirmDiscardChanges()) controller_->openStudy(path);
+    });
   }
   recentMenu_->setEnabled(!recent.isEmpty());
 }

@@ -37,6 +37,23 @@ bool StudyController::refuseWhileBusy() {
   return true;
 }
 
+std::string StudyController::snapshot() const {
+  // A fixed study path: only equality matters, and relative paths must not change the text.
+  return study_.data || study_.model ? studyToJson(study_, "/snapshot.cvstudy") : std::string();
+}
+
+void StudyController::updateModified() {
+  const bool now = snapshot() != savedSnapshot_;
+  if (now == modified_) return;
+  modified_ = now;
+  emit modifiedChanged(modified_);
+}
+
+void StudyController::markSaved() {
+  savedSnapshot_ = snapshot();
+  updateModified();
+}
+
 bool StudyController::startPipeline(PipelineRequest request, const QString& description,
                                     const QString& studyPathOnSuccess, const QString& leadNote) {
   if (refuseWhileBusy()) return false;
@@ -64,8 +81,10 @@ void StudyController::applyPipeline(PipelineOutput& output, const QString& study
   threshold_.setThreshold(study_.analysis.threshold);
   if (!studyPathOnSuccess.isEmpty()) {
     studyPath_ = studyPathOnSuccess;
+    savedSnapshot_ = snapshot();  // as opened: recorded fingerprints refreshed by the run
     emit studyPathChanged(studyPath_);
   }
+  updateModified();
   emit resultsChanged();
 
   QString text = leadNote;
@@ -106,8 +125,25 @@ bool StudyController::saveStudy(const QString& path) {
     return false;
   }
   studyPath_ = path;
+  markSaved();
   emit studyPathChanged(studyPath_);
   emit message(tr("Study saved to %1").arg(path), false);
+  return true;
+}
+
+bool StudyController::newStudy() {
+  if (refuseWhileBusy()) return false;
+  study_ = StudyState{};
+  studyPath_.clear();
+  table_.reset();
+  cohort_.reset();
+  threshold_.clear();
+  threshold_.setThreshold(study_.analysis.threshold);
+  savedSnapshot_.clear();
+  updateModified();
+  emit studyPathChanged(studyPath_);
+  emit resultsChanged();
+  emit messageCleared();
   return true;
 }
 
@@ -226,6 +262,7 @@ bool StudyController::runUncertainty(const UncertaintySettings& settings) {
         study_.uncertaintySettings = withComparedHashes(settings, results);
         study_.uncertaintyBasis = basis;
         study_.uncertainty = std::make_shared<const UncertaintyResults>(std::move(results));
+        updateModified();
         emit resultsChanged();
         emit messageCleared();
       };
@@ -235,6 +272,7 @@ bool StudyController::runUncertainty(const UncertaintySettings& settings) {
 void StudyController::setThreshold(double threshold) {
   threshold_.setThreshold(threshold);
   study_.analysis.threshold = threshold_.threshold();
+  updateModified();
   emit thresholdChanged(threshold_.threshold());
 }
 
@@ -247,25 +285,30 @@ bool StudyController::nudgeThreshold(int steps) {
 void StudyController::setReasonableRange(double lo, double hi) {
   study_.analysis.reasonableLo = lo;
   study_.analysis.reasonableHi = hi;
+  updateModified();
   emit resultsChanged();
 }
 
 void StudyController::setGroups(int groups) {
   study_.analysis.groups = groups;
+  updateModified();
 }
 
 void StudyController::setApparent(bool apparent) {
   study_.analysis.apparent = apparent;
+  updateModified();
 }
 
 void StudyController::setReportSettings(const ReportSettings& report) {
   study_.report = report;
+  updateModified();
 }
 
 void StudyController::setPredictorViewChoices(const std::vector<std::string>& chosen,
                                               const std::map<std::string, std::string>& held) {
   study_.predictorView = chosen;
   study_.heldValues = held;
+  updateModified();
 }
 
 }  // namespace calivera::ui

@@ -6,6 +6,8 @@
 //                        changed — rebuild every view, at the current threshold;
 //   thresholdChanged()   only the threshold moved — update the linked views' markers;
 //   studyPathChanged()   the study now lives in a file (opened or saved);
+//   modifiedChanged()    the study differs from (or again equals) what was last opened or saved:
+//                        any setting, input or choice the study file records, the threshold too;
 //   message()            something to tell the user (error or note), cleared by messageCleared().
 //
 // No widgets: the controller can be driven and checked without a window. Heavy work runs on the
@@ -60,6 +62,11 @@ class StudyController : public QObject {
 
   // Synchronous; false with a message when the file cannot be written.
   bool saveStudy(const QString& path);
+  // An empty study: no inputs, default settings, no file. Refused while a job runs.
+  bool newStudy();
+  // True when saving would write something other than the study as last opened or saved (an
+  // empty study is never modified; one with inputs but never saved always is).
+  bool isModified() const { return modified_; }
 
   // Settings that take effect at once (threshold, reasonable range, predictor-view choices) or at
   // the next run (groups, the development-data statement).
@@ -85,6 +92,7 @@ class StudyController : public QObject {
   void resultsChanged();
   void thresholdChanged(double threshold);
   void studyPathChanged(const QString& path);
+  void modifiedChanged(bool modified);
   void message(const QString& text, bool error);
   void messageCleared();
 
@@ -95,6 +103,11 @@ class StudyController : public QObject {
   void applyPipeline(PipelineOutput& output, const QString& studyPathOnSuccess,
                      const QString& leadNote);
   bool refuseWhileBusy();
+  // The study as its file would record it (empty for a study without inputs).
+  std::string snapshot() const;
+  // Compares with the last opened or saved snapshot; emits modifiedChanged on a change.
+  void updateModified();
+  void markSaved();
 
   StudyState study_;
   QString studyPath_;
@@ -102,6 +115,8 @@ class StudyController : public QObject {
   std::shared_ptr<const CohortData> cohort_;
   ThresholdState threshold_;
   BackgroundJob* job_ = nullptr;
+  std::string savedSnapshot_;
+  bool modified_ = false;
 };
 
 }  // namespace calivera::ui

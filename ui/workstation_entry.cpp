@@ -93,6 +93,7 @@ int runWorkstation(int argc, char** argv) {
   if (!parse(QApplication::arguments(), options)) return 2;
 
   MainWindow window;
+  window.restoreWindowState();
   window.show();
   if (!options.study.isEmpty()) {
     window.controller().openStudy(options.study);

@@ -103,7 +103,7 @@ void PredictorView::setData(const Model* model, std::shared_ptr<const CohortData
   second_->setCurrentIndex(chosen.size() > 1 ? std::max(0, second_->findText(q(chosen[1]))) : 0);
   updating_ = false;
   rebuildHeldTable();
-  rebuildChart();
+  rebuildChart(false);  // the study's own choices: nothing for the study to record
 }
 
 void PredictorView::choose(const QString& first, const QString& second) {
@@ -150,7 +150,7 @@ std::map<std::string, std::string> PredictorView::heldValues() const {
   return out;
 }
 
-void PredictorView::rebuildChart() {
+void PredictorView::rebuildChart(bool userChoice) {
   if (!model_ || !cohort_ || first_->count() == 0) {
     panel_->setLinkedChart(nullptr);
     note_->setText(model_ && cohort_ ? tr("The model has no numeric predictor to plot.")
@@ -176,7 +176,7 @@ void PredictorView::rebuildChart() {
     }
     panel_->setLinkedChart(chart);
     if (hasSnapshot_) chart->setThreshold(snapshot_);
-    emit settingsChanged(chosen, held_);
+    if (userChoice) emit settingsChanged(chosen, held_);
   } catch (const std::exception& e) {
     panel_->setLinkedChart(nullptr);
     note_->setText(tr("<b>Cannot draw:</b> %1").arg(q(e.what()).toHtmlEscaped()));

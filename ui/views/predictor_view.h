@@ -47,7 +47,9 @@ class PredictorView : public QWidget {
 
  private:
   void rebuildHeldTable();
-  void rebuildChart();
+  // `userChoice`: the user changed a variable or a held value, so settingsChanged() tells the
+  // study; a rebuild from the study's own choices does not.
+  void rebuildChart(bool userChoice = true);
   std::map<std::string, std::string> heldValues() const;
 
   std::optional<Model> model_;
