@@ -14,6 +14,7 @@
 #include "core/fit/cohort_fit.h"
 #include "core/model/model_io.h"
 #include "core/study/study_file.h"
+#include "tests/unit/study_fixture.h"
 #include "ui/async/background_job.h"
 #include "ui/dialogs/mapping_dialog.h"
 
@@ -43,12 +44,8 @@ class StudyControllerTest : public QObject {
  private slots:
   void initTestCase() {
     QVERIFY(dir_.isValid());
-    CohortFitSpec spec;
-    spec.outcome = OutcomeSpec{"low", std::nullopt};
-    spec.predictors = {"age", "lwt", "smoke"};
     model_ = dir_.filePath("m.json");
-    writeModelFile(model_.toStdString(),
-                   fitCohortModel(readCsvFile(kBirthwt, CsvOptions{}).table, spec).model);
+    calivera::testing::writeBirthwtModel(kBirthwt, {"age", "lwt", "smoke"}, model_.toStdString());
   }
 
   void runReplacesTheStudyAndSaysSoOnce() {
@@ -153,12 +150,9 @@ class StudyControllerTest : public QObject {
   // cohort and model stay loaded, the mapping dialog offers the level, and the mapped run gives the
   // original file's numbers; the study saves the mapping and `calivera run` repeats it.
   void unknownLevelsAreMappedThroughTheMappingStep() {
-    CohortFitSpec spec;
-    spec.outcome = OutcomeSpec{"low", std::nullopt};
-    spec.predictors = {"age", "lwt", "race", "smoke"};
     const QString model = dir_.filePath("race.json");
-    writeModelFile(model.toStdString(),
-                   fitCohortModel(readCsvFile(kBirthwt, CsvOptions{}).table, spec).model);
+    calivera::testing::writeBirthwtModel(kBirthwt, {"age", "lwt", "race", "smoke"},
+                                         model.toStdString());
     QFile in(QString::fromStdString(kBirthwt));
     QVERIFY(in.open(QIODevice::ReadOnly));
     QByteArray text = in.readAll();

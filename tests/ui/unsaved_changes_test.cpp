@@ -7,9 +7,6 @@
 #include <QTemporaryDir>
 #include <QtTest>
 
-#include "core/data/csv_reader.h"
-#include "core/fit/cohort_fit.h"
-#include "core/model/model_io.h"
 #include "core/study/study_file.h"
 #include "tests/unit/study_fixture.h"
 #include "ui/async/background_job.h"
@@ -47,11 +44,8 @@ class UnsavedChangesTest : public QObject {
  private slots:
   void initTestCase() {
     QVERIFY(dir_.isValid());
-    CohortFitSpec spec;
-    spec.outcome = OutcomeSpec{"low", std::nullopt};
-    spec.predictors = {"age", "lwt", "smoke"};
     const std::string model = dir_.filePath("m.json").toStdString();
-    writeModelFile(model, fitCohortModel(readCsvFile(kBirthwt, CsvOptions{}).table, spec).model);
+    calivera::testing::writeBirthwtModel(kBirthwt, {"age", "lwt", "smoke"}, model);
     study_ = dir_.filePath("s.cvstudy");
     writeStudyFile(study_.toStdString(), calivera::testing::birthwtFileStudy(kBirthwt, model));
   }

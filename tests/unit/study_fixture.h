@@ -4,7 +4,11 @@
 // command-line and workstation parity tests.
 
 #include <string>
+#include <vector>
 
+#include "core/data/csv_reader.h"
+#include "core/fit/cohort_fit.h"
+#include "core/model/model_io.h"
 #include "core/study/study.h"
 #include "core/util/sha256.h"
 
@@ -18,6 +22,15 @@ inline StudyState birthwtFileStudy(const std::string& data, const std::string& m
   study.modelFile = InputFileRecord{model, sha256OfFile(model)};
   study.analysis.groups = 8;
   return study;
+}
+
+// Fits `low` on `predictors` of the birthwt file at `data` and writes the model file to `path`.
+inline void writeBirthwtModel(const std::string& data, const std::vector<std::string>& predictors,
+                              const std::string& path) {
+  CohortFitSpec spec;
+  spec.outcome = OutcomeSpec{"low", std::nullopt};
+  spec.predictors = predictors;
+  writeModelFile(path, fitCohortModel(readCsvFile(data, CsvOptions{}).table, spec).model);
 }
 
 }  // namespace calivera::testing
