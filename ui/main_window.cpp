@@ -29,6 +29,7 @@
 #include <QVBoxLayout>
 #include <algorithm>
 
+#include "core/report/result_table.h"
 #include "core/study/limits.h"
 #include "ui/async/background_job.h"
 #include "ui/dialogs/reproduce_dialog.h"
@@ -47,6 +48,7 @@ namespace calivera::ui {
 MainWindow::MainWindow(QWidget* parent) : QMainWindow(parent) {
   setObjectName(QStringLiteral("mainWindow"));
   setWindowTitle(tr("Calivera workstation"));
+  setAcceptDrops(true);  // study, model or cohort files (openDroppedFile)
   controller_ = new StudyController(this);
   BackgroundJob* job = controller_->job();
 
@@ -418,6 +420,16 @@ QWidget* MainWindow::buildTablesTab() {
   thresholdTable_ =
       makeTableView(QStringLiteral("thresholdTable"), thresholdModel_, &thresholdProxy_);
   hlTable_ = makeTableView(QStringLiteral("hosmerLemeshowTable"), hlModel_, nullptr);
+  // A click (or Enter) on a row moves the threshold there; every linked view follows.
+  thresholdTable_->setToolTip(tr("Click a row to move the threshold to it"));
+  const auto moveThresholdTo = [this](const QModelIndex& index) {
+    const ResultTable* table = thresholdModel_->source();
+    const int row = thresholdProxy_->mapToSource(index).row();
+    if (table == nullptr || row < 0 || row >= static_cast<int>(table->rows.size())) return;
+    controller_->setThreshold(table->rows[static_cast<std::size_t>(row)][0].number);
+  };
+  connect(thresholdTable_, &QTableView::clicked, this, moveThresholdTo);
+  connect(thresholdTable_, &QTableView::activated, this, moveThresholdTo);
   tabs->addTab(thresholdTable_, tr("Threshold trade-offs"));
   tabs->addTab(hlTable_, tr("Calibration groups (Hosmer-Lemeshow)"));
   return tabs;

@@ -77,12 +77,19 @@ class MainWindow : public QMainWindow {
   // True when the study may be replaced: nothing unsaved, saved now, or discarded by the user.
   bool confirmDiscardChanges();
 
+  // A file dropped on the window (or given by the caller): a study file opens (after the
+  // unsaved-changes question), a model file loads into the current study, a CSV or text file
+  // opens the import dialog on it. Anything else is refused with a message. False when refused.
+  bool openDroppedFile(const QString& path);
+
   // Window size, position, toolbar state and splitter positions from the user's settings (the
   // workstation calls this at start; tests do not, so one test's window never sizes another's).
   void restoreWindowState();
 
  protected:
   void closeEvent(QCloseEvent* event) override;
+  void dragEnterEvent(QDragEnterEvent* event) override;
+  void dropEvent(QDropEvent* event) override;
 
  private:
   const StudyState& study() const { return controller_->study(); }
@@ -111,6 +118,7 @@ class MainWindow : public QMainWindow {
   void rebuildRecentMenu();
 
   void onImportCohort();
+  void importCohortFrom(const QString& path);
   void onLoadModel();
   void onFitModel();
   void onMapVariables();

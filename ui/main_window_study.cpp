@@ -4,18 +4,24 @@
 #include <QCheckBox>
 #include <QClipboard>
 #include <QDir>
+#include <QDragEnterEvent>
+#include <QDropEvent>
 #include <QElapsedTimer>
+#include <QFile>
 #include <QFileDialog>
 #include <QFileInfo>
 #include <QItemSelectionModel>
 #include <QLabel>
 #include <QMenu>
+#include <QMimeData>
 #include <QSettings>
 #include <QSortFilterProxyModel>
 #include <QSpinBox>
 #include <QTabWidget>
 #include <QTableView>
 #include <QTextBrowser>
+#include <QTimer>
+#include <QUrl>
 #include <filesystem>
 #include <set>
 
@@ -254,10 +260,71 @@ QString MainWindow::exportAllCharts(const QString& folder) {
 }
 
 void MainWindow::onImportCohort() {
+  importCohortFrom(study().data ? toQ(study().data->path) : QString());
+}
+
+void MainWindow::importCohortFrom(const QString& path) {
   ImportDialog dialog(this);
-  if (study().data) dialog.setInitial(toQ(study().data->path), study().import);
+  if (!path.isEmpty()) dialog.setInitial(path, study().import);
   if (dialog.exec() != QDialog::Accepted) return;
   controller_->importCohort(dialog.path(), dialog.settings(), dialog.loadedTable());
+}
+
+namespace {
+
+// The dropped-file kinds, by name and, for .json (a study or a model), by the study format id
+// near the start of the file.
+enum class DroppedKind { Study, Model, Cohort, Unknown };
+
+DroppedKind droppedKind(const QString& path) {
+  const QString suffix = QFileInfo(path).suffix().toLower();
+  if (suffix == QLatin1String("cvstudy")) return DroppedKind::Study;
+  if (suffix == QLatin1String("csv") || suffix == QLatin1String("tsv") ||
+      suffix == QLatin1String("txt")) {
+    return DroppedKind::Cohort;
+  }
+  if (suffix != QLatin1String("json")) return DroppedKind::Unknown;
+  QFile file(path);
+  if (!QFileInfo(path).isFile() || !file.open(QIODevice::ReadOnly)) return DroppedKind::Model;
+  const QByteArray head = file.read(4096);  // the study writer puts "format" first
+  return head.contains(kStudyFormatId) ? DroppedKind::Study : DroppedKind::Model;
+}
+
+}  // namespace
+
+bool MainWindow::openDroppedFile(const QString& path) {
+  switch (droppedKind(path)) {
+    case DroppedKind::Study:
+      return confirmDiscardChanges() && controller_->openStudy(path);
+    case DroppedKind::Model:
+      return controller_->loadModelFile(path);
+    case DroppedKind::Cohort:
+      importCohortFrom(path);
+      return true;
+    case DroppedKind::Unknown:
+      break;
+  }
+  showMessage(tr("Not opened: %1. Drop a study (.cvstudy), a model file (.json) or a cohort "
+                 "(.csv, .tsv, .txt).")
+                  .arg(QFileInfo(path).fileName()),
+              true);
+  return false;
+}
+
+void MainWindow::dragEnterEvent(QDragEnterEvent* event) {
+  const QList<QUrl> urls = event->mimeData()->urls();
+  if (urls.size() == 1 && urls.front().isLocalFile() && !controller_->job()->isRunning()) {
+    event->acceptProposedAction();
+  }
+}
+
+void MainWindow::dropEvent(QDropEvent* event) {
+  const QList<QUrl> urls = event->mimeData()->urls();
+  if (urls.size() != 1 || !urls.front().isLocalFile()) return;
+  event->acceptProposedAction();
+  const QString path = urls.front().toLocalFile();
+  // After the drop returns: the import dialog and the unsaved-changes question are modal.
+  QTimer::singleShot(0, this, [this, path]() { openDroppedFile(path); });
 }
 
 void MainWindow::onLoadModel() {

@@ -415,6 +415,27 @@ class MainWindowTest : public QObject {
                      std::clamp(p.threshold, 0.0, 1.0)) < 0.05);
   }
 
+  // A click on a threshold-table row moves the threshold to that row's threshold, also when the
+  // table is sorted (the row is mapped through the sort).
+  void clickingAThresholdRowSetsTheThreshold() {
+    MainWindow w;
+    w.show();
+    openStudy(w);
+    auto* table = child<QTableView>(w, "thresholdTable");
+    child<QTabWidget>(w, "tableTabs")->setCurrentWidget(table);
+    child<QTabWidget>(w, "mainTabs")->setCurrentWidget(child<QTabWidget>(w, "tableTabs"));
+    QVERIFY(QTest::qWaitForWindowExposed(&w));
+    table->sortByColumn(0, Qt::DescendingOrder);
+    const QModelIndex first = table->model()->index(0, 0);
+    const double shown = table->model()->data(first).toString().toDouble();
+    const QRect cell = table->visualRect(first);
+    QTest::mouseClick(table->viewport(), Qt::LeftButton, {}, cell.center());
+    QCOMPARE(w.controller().thresholdState().threshold(),
+             w.controller().study().result->thresholds.back().threshold);
+    QVERIFY(std::abs(shown - w.controller().thresholdState().threshold()) < 5e-4);
+    table->sortByColumn(-1, Qt::AscendingOrder);
+  }
+
   void badStudyFileLeavesTheStudyIntact() {
     MainWindow w;
     w.show();
