@@ -32,6 +32,7 @@
 #include "core/report/result_table.h"
 #include "core/study/limits.h"
 #include "ui/async/background_job.h"
+#include "ui/dialogs/help_dialog.h"
 #include "ui/dialogs/reproduce_dialog.h"
 #include "ui/models/record_table_model.h"
 #include "ui/views/caution_text.h"
@@ -249,10 +250,12 @@ void MainWindow::buildMenus() {
   connect(actionSave_, &QAction::triggered, this, [this]() { onSaveStudy(false); });
   actionSaveAs_ = file->addAction(tr("Save study &as…"));
   actionSaveAs_->setObjectName(QStringLiteral("actionSaveStudyAs"));
-  actionSaveAs_->setShortcut(QKeySequence::SaveAs);
+  // Explicit keys where the platform's standard key may be empty (SaveAs, Quit) or unusual
+  // (Close is Ctrl+F4 on some desktops).
+  actionSaveAs_->setShortcut(QKeySequence(Qt::CTRL | Qt::SHIFT | Qt::Key_S));
   connect(actionSaveAs_, &QAction::triggered, this, [this]() { onSaveStudy(true); });
-  add(file, QStringLiteral("actionCloseStudy"), tr("&Close study"), QKeySequence::Close,
-      &MainWindow::onNewStudy);
+  add(file, QStringLiteral("actionCloseStudy"), tr("&Close study"),
+      QKeySequence(Qt::CTRL | Qt::Key_W), &MainWindow::onNewStudy);
   file->addSeparator();
   actionImport_ = add(file, QStringLiteral("actionImportCohort"), tr("&Import cohort CSV…"),
                       QKeySequence(Qt::CTRL | Qt::Key_I), &MainWindow::onImportCohort);
@@ -268,7 +271,7 @@ void MainWindow::buildMenus() {
   file->addSeparator();
   QAction* quit = file->addAction(tr("&Quit"));
   quit->setObjectName(QStringLiteral("actionQuit"));
-  quit->setShortcut(QKeySequence::Quit);
+  quit->setShortcut(QKeySequence(Qt::CTRL | Qt::Key_Q));
   connect(quit, &QAction::triggered, this, &QWidget::close);
 
   QMenu* model = menuBar()->addMenu(tr("&Model"));
@@ -321,6 +324,23 @@ void MainWindow::buildMenus() {
                       QKeySequence::Copy, &MainWindow::onCopyTable);
   copy->setShortcutContext(Qt::WidgetWithChildrenShortcut);
   tabs_->addAction(copy);
+
+  QMenu* help = menuBar()->addMenu(tr("&Help"));
+  help->setObjectName(QStringLiteral("menuHelp"));
+  const auto helpItem = [this, help](const QString& objectName, const QString& text,
+                                     const QKeySequence& key, HelpPage page) {
+    QAction* a = help->addAction(text);
+    a->setObjectName(objectName);
+    if (!key.isEmpty()) a->setShortcut(key);
+    connect(a, &QAction::triggered, this, [this, page]() { showHelpDialog(this, page); });
+  };
+  helpItem(QStringLiteral("actionHelpGuide"), tr("&Guide to the views"), QKeySequence::HelpContents,
+           HelpPage::Guide);
+  helpItem(QStringLiteral("actionHelpMeasures"), tr("&Measures and their sources"), {},
+           HelpPage::Measures);
+  helpItem(QStringLiteral("actionHelpKeyboard"), tr("&Keyboard shortcuts"), {}, HelpPage::Keyboard);
+  help->addSeparator();
+  helpItem(QStringLiteral("actionHelpAbout"), tr("&About Calivera"), {}, HelpPage::About);
 }
 
 void MainWindow::buildToolBar() {

@@ -37,6 +37,7 @@ struct Measure {
   BootstrapEstimate ValidationBootstrap::*bootstrap = nullptr;  // nullptr: not bootstrapped
   const char* target = "";  // the value of a perfect model, "" when there is none
   const char* meaning = "";
+  const char* source = "";  // the published definition (docs/methods.md has the full references)
 };
 
 // In summary.csv's order.

@@ -62,6 +62,10 @@ std::string Sha256Stream::hex() {
   return finish(static_cast<EVP_MD_CTX*>(context_));
 }
 
+std::string hashLibraryVersion() {
+  return OpenSSL_version(OPENSSL_VERSION);
+}
+
 void releaseThreadHashState() {
   OPENSSL_thread_stop();
 }

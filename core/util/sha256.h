@@ -11,6 +11,9 @@ namespace calivera {
 std::string sha256OfFile(const std::string& path);
 std::string sha256OfBytes(std::string_view bytes);
 
+// The hashing library as it reports itself at run time (e.g. "OpenSSL 3.0.x ..."), for About.
+std::string hashLibraryVersion();
+
 // Frees the calling thread's OpenSSL state (its error queue), which OpenSSL otherwise frees only
 // when the thread exits. A pooled worker thread that hashes calls this when its job ends: a pool
 // thread still alive when the process exits outlives OpenSSL's exit handler, so its state would

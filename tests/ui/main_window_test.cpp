@@ -48,6 +48,7 @@
 #include "render/charts/predictor_charts.h"
 #include "render/charts/roc_chart.h"
 #include "ui/async/background_job.h"
+#include "ui/dialogs/help_dialog.h"
 #include "ui/dialogs/report_export_dialog.h"
 #include "ui/dialogs/reproduce_dialog.h"
 #include "ui/dialogs/uncertainty_dialog.h"
@@ -1103,6 +1104,17 @@ class MainWindowTest : public QObject {
     summary->verticalScrollBar()->setValue(summary->verticalScrollBar()->value() +
                                            summary->viewport()->height() / 2 - 30);
     save(&w, "summary_intervals");
+    // Help: each page of the one help dialog.
+    for (const auto& [page, name] :
+         {std::pair{HelpPage::Guide, "help_guide"}, std::pair{HelpPage::Measures, "help_measures"},
+          std::pair{HelpPage::Keyboard, "help_keyboard"},
+          std::pair{HelpPage::About, "help_about"}}) {
+      showHelpDialog(&w, page);
+      auto* help = child<QDialog>(w, "helpDialog");
+      QVERIFY(QTest::qWaitForWindowExposed(help));
+      save(help, name);
+    }
+    child<QDialog>(w, "helpDialog")->close();
   }
 };
 
