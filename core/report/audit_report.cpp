@@ -315,8 +315,9 @@ void addCharts(const AuditDocument& doc, std::vector<ReportBlock>& blocks) {
        "Figure 1. ROC curve: sensitivity against 1 - specificity over all "
        "thresholds, with the chance diagonal"},
       {ChartKind::Calibration,
-       "Figure 2. Calibration: smoothed observed proportion and risk "
-       "groups (95% CI) against predicted risk; the ideal is the diagonal"},
+       "Figure 2. Calibration: smoothed observed risk and risk groups (95% CI) against "
+       "predicted risk; on the diagonal predicted equals observed; the strip below 0 shows how "
+       "many patients have each predicted risk"},
       {ChartKind::DecisionCurve,
        doc.reasonableThresholds
            ? "Figure 3. Decision curve: net benefit of the model, of treating all and of treating "
@@ -325,11 +326,20 @@ void addCharts(const AuditDocument& doc, std::vector<ReportBlock>& blocks) {
              "none (no reasonable threshold range was set)"},
       {ChartKind::RiskDistribution, "Figure 4. Distribution of predicted risk by outcome"},
   };
+  // Every chart marks the same threshold (render/report/report_charts.cpp): say which.
+  const auto marker = [&doc](ChartKind kind) -> std::string {
+    if (!doc.markedThreshold) {
+      return "; no threshold is marked (the counts of every tabulated threshold are hidden)";
+    }
+    return (kind == ChartKind::Roc ? "; the square marks threshold "
+                                   : "; the line marks threshold ") +
+           formatNumber(doc.markedThreshold->threshold, 3);
+  };
   for (const auto& [kind, caption] : charts) {
     ReportBlock block;
     block.kind = Kind::ChartPair;
     block.charts = {kind};
-    block.captions = {caption};
+    block.captions = {caption + marker(kind)};
     if (doc.suppressionApplied && kind != ChartKind::Roc) {
       block.captions[0] += kind == ChartKind::RiskDistribution
                                ? " (bins with hidden counts drawn empty)"

@@ -1,5 +1,7 @@
 #include "render/charts/calibration_chart.h"
 
+#include <QGraphicsRectItem>
+#include <QGraphicsSimpleTextItem>
 #include <QtCharts/QAreaSeries>
 #include <QtCharts/QLineSeries>
 #include <QtCharts/QScatterSeries>
@@ -7,6 +9,7 @@
 #include <algorithm>
 #include <cmath>
 
+#include "core/present/measures.h"
 #include "render/charts/chart_style.h"
 #include "render/charts/chart_text.h"
 #include "render/charts/histogram_series.h"
@@ -25,92 +28,160 @@ double axisLimit(const Calibration& c) {
   return std::clamp(std::ceil(top * 10.0 - 1e-9) / 10.0, 0.2, 1.0);
 }
 
+// The observed axis's label step: few enough labels for a short plot (a quarter-screen chart
+// is about 150 pixels high), fine enough to read a low-risk cohort.
+double tickStep(double axisMax) {
+  if (axisMax <= 0.3) return 0.05;
+  return axisMax <= 0.6 ? 0.1 : 0.2;
+}
+// The risk-distribution strip below the zero line: just under one tick step deep.
+double stripDepthFor(double axisMax) {
+  return 0.95 * tickStep(axisMax);
+}
+
 }  // namespace
 
 CalibrationChart::CalibrationChart(const Calibration& calibration,
                                    const RiskHistogram& distribution)
-    : groups_(calibration.groups), curve_(calibration.curve), axisMax_(axisLimit(calibration)) {
-  applyChartStyle(this, QStringLiteral("Calibration — slope %1, intercept %2")
-                            .arg(fixed(calibration.slope, 2), fixed(calibration.intercept, 2)));
-  // One tick per 0.1 (axisMax_ is a multiple of 0.1), or per 0.05 when zoomed in closely.
+    : groups_(calibration.groups),
+      curve_(calibration.curve),
+      distribution_(distribution),
+      axisMax_(axisLimit(calibration)),
+      stripDepth_(stripDepthFor(axisMax_)) {
+  applyChartStyle(this, QStringLiteral("Calibration"));
+  // x: one tick per 0.1 (axisMax_ is a multiple of 0.1), or per 0.05 when zoomed in closely.
   const bool fine = axisMax_ <= 0.3;
   const int tickCount = static_cast<int>(std::lround(axisMax_ * (fine ? 20 : 10))) + 1;
   auto* x = makeAxis(QStringLiteral("Predicted risk (0–1)"), 0, axisMax_, fine ? "%.2f" : "%.1f",
                      tickCount);
-  auto* y =
-      makeAxis(QStringLiteral("Observed (0–1)"), 0, axisMax_, fine ? "%.2f" : "%.1f", tickCount);
+  // The observed axis is labelled from 0 up only: below 0 lies the strip of the risk
+  // distribution, which shares the x axis but has no observed scale. Ticks are anchored at 0 and
+  // the strip is a little shallower than one tick step, so no negative label appears.
+  auto* y = makeAxis(QStringLiteral("Observed risk"), -stripDepth_, axisMax_,
+                     fine ? "%.2f" : "%.1f", tickCount);
+  y->setTickType(QValueAxis::TicksDynamic);
+  y->setTickAnchor(0.0);
+  y->setTickInterval(tickStep(axisMax_));
   addAxis(x, Qt::AlignBottom);
   addAxis(y, Qt::AlignLeft);
-  auto attach = [&](QAbstractSeries* s, QValueAxis* yAxis) { addOnAxes(this, s, x, yAxis); };
+  auto attach = [&](QAbstractSeries* s) { addOnAxes(this, s, x, y); };
 
-  // Histogram first so that every line is drawn over it.
-  std::size_t maxCount = 1;
+  // The risk distribution hangs below the zero line, scaled so the fullest bin fills the strip;
+  // drawn first so every line lies over it. Bins beyond the axis are cut at it.
   std::vector<double> totals(distribution.eventCounts.size());
+  double maxCount = 1.0;
   for (std::size_t i = 0; i < totals.size(); ++i) {
     totals[i] = static_cast<double>(distribution.eventCounts[i] + distribution.nonEventCounts[i]);
-    maxCount = std::max(maxCount, static_cast<std::size_t>(totals[i]));
+    maxCount = std::max(maxCount, totals[i]);
   }
-  auto* histogramAxis = new QValueAxis;
-  histogramAxis->setRange(0, static_cast<double>(maxCount) * 5.0);
-  histogramAxis->setVisible(false);
-  addAxis(histogramAxis, Qt::AlignRight);
-  // Bins beyond the axis are cut at it: drawn whole they ran past the plot in the PDF.
   std::vector<double> edges = distribution.binEdges;
   while (edges.size() > 2 && edges[edges.size() - 2] >= axisMax_) {
     edges.pop_back();
     totals.pop_back();
   }
   if (!edges.empty()) edges.back() = std::min(edges.back(), axisMax_);
+  for (double& t : totals) t = -0.9 * stripDepth_ * t / maxCount;
   if (!totals.empty()) {
-    auto* histogram = makeHistogramArea(edges, totals);
-    histogram->setName(QStringLiteral("Histogram"));
-    histogram->setColor(QColor(200, 200, 200, 150));
-    histogram->setBorderColor(palette::kGrey);
-    attach(histogram, histogramAxis);
+    auto* strip = makeHistogramArea(edges, totals);
+    strip->setName(QStringLiteral("Risk distribution (strip)"));
+    // A light fill with a dark outline, so the strip survives greyscale print (a hatch pattern
+    // would be lost: the report replays charts from SVG, whose renderer ignores patterns).
+    strip->setBrush(QColor(205, 205, 205));
+    strip->setBorderColor(palette::kGrey);
+    attach(strip);
   }
+  auto* zero = new QLineSeries;  // the strip's top edge, a firm line under the observed scale
+  zero->setPen(QPen(palette::kGrey, 1.0));
+  zero->append(0, 0);
+  zero->append(axisMax_, 0);
+  attach(zero);
+  hideFromLegend(this, zero);
 
   auto* ideal = new QLineSeries;
-  ideal->setName(QStringLiteral("Ideal"));
+  ideal->setName(QStringLiteral("Predicted = observed"));
   ideal->setPen(rolePen(SeriesRole::Reference));
   ideal->append(0, 0);
   ideal->append(axisMax_, axisMax_);
-  attach(ideal, y);
+  attach(ideal);
 
   auto* smooth = new QLineSeries;
-  smooth->setName(QStringLiteral("Loess curve"));
+  smooth->setName(QStringLiteral("Smoothed (loess)"));
   smooth->setPen(rolePen(SeriesRole::Model));
   QList<QPointF> pts;
-  for (const auto& p : curve_) pts.append(QPointF(p.risk, p.observed));
+  for (const auto& p : curve_) pts.append(QPointF(p.risk, std::clamp(p.observed, 0.0, axisMax_)));
   smooth->replace(pts);
-  attach(smooth, y);
+  attach(smooth);
 
+  // Each risk group: a diamond at (mean predicted, observed share) on a vertical interval with
+  // short caps.
+  const double cap = axisMax_ * 0.008;
   for (const auto& g : groups_) {
     auto* bar = new QLineSeries;
     bar->setPen(rolePen(SeriesRole::Groups));
-    bar->append(g.meanRisk, g.observedCi.lo);
-    bar->append(g.meanRisk, g.observedCi.hi);
-    attach(bar, y);
-    hideFromLegend(this, bar);  // the group markers' legend entry names the CI bars too
+    const double lo = std::max(g.observedCi.lo, 0.0), hi = std::min(g.observedCi.hi, axisMax_);
+    bar->replace({QPointF(g.meanRisk - cap, lo), QPointF(g.meanRisk + cap, lo),
+                  QPointF(g.meanRisk, lo), QPointF(g.meanRisk, hi), QPointF(g.meanRisk - cap, hi),
+                  QPointF(g.meanRisk + cap, hi)});
+    attach(bar);
+    hideFromLegend(this, bar);  // the group markers' legend entry names the intervals too
   }
   auto* observed = new QScatterSeries;
-  observed->setName(QStringLiteral("Groups, 95% CI"));
-  observed->setMarkerShape(QScatterSeries::MarkerShapeRectangle);
-  observed->setMarkerSize(9);
-  observed->setColor(Qt::white);
-  observed->setBorderColor(palette::kBlack);
+  observed->setName(QStringLiteral("Risk groups, 95% CI"));
+  observed->setMarkerShape(QScatterSeries::MarkerShapeRotatedRectangle);
+  observed->setMarkerSize(10);
+  observed->setColor(roleColor(SeriesRole::Groups));
+  observed->setBorderColor(Qt::white);
   for (const auto& g : groups_) observed->append(g.meanRisk, g.observedProportion);
-  attach(observed, y);
+  attach(observed);
 
   marker_ = new QLineSeries;
   marker_->setName(QStringLiteral("Threshold"));
   marker_->setPen(rolePen(SeriesRole::Threshold));
-  marker_->append(0, 0);
+  marker_->append(0, -stripDepth_);
   marker_->append(0, axisMax_);
-  attach(marker_, y);
+  attach(marker_);
+
+  addSummaryBox(calibration);
+}
+
+void CalibrationChart::addSummaryBox(const Calibration& c) {
+  // The summary numbers sit in a small box in the plot's upper-left corner (observed far above
+  // predicted at low risk, where a model's curve rarely goes), not in the title; the targets are
+  // the measure catalog's (core/present/measures.h).
+  const auto line = [](const char* shortName, const char* key, double value) {
+    return QStringLiteral("%1 %2 (target %3)")
+        .arg(QString::fromUtf8(shortName), fixed(value, 2),
+             QString::fromUtf8(measureByKey(key).target));
+  };
+  const QString text = QStringList{line("Slope", "calibration_slope", c.slope),
+                                   line("Intercept", "calibration_intercept", c.intercept),
+                                   line("O/E", "oe_ratio", c.oeRatio)}
+                           .join(QChar('\n'));
+  summary_ = new QGraphicsRectItem(this);  // owned by the chart (Qt parent)
+  summary_->setBrush(QColor(255, 255, 255, 210));
+  summary_->setPen(QPen(QColor(170, 170, 170), 0));
+  summary_->setZValue(100);
+  auto* label = new QGraphicsSimpleTextItem(text, summary_);
+  QFont font = titleFont();
+  font.setBold(false);
+  font.setPointSizeF(7.5);
+  label->setFont(font);
+  label->setPos(5, 3);
+  summary_->setRect(label->boundingRect().adjusted(0, 0, 10, 6));
+  connect(this, &QChart::plotAreaChanged, this,
+          [this](const QRectF& plot) { summary_->setPos(plot.topLeft() + QPointF(6, 6)); });
+}
+
+QString CalibrationChart::summaryText() const {
+  for (QGraphicsItem* child : summary_->childItems()) {
+    if (auto* label = dynamic_cast<QGraphicsSimpleTextItem*>(child)) return label->text();
+  }
+  return {};
 }
 
 void CalibrationChart::setThreshold(const ThresholdSnapshot& snapshot) {
-  marker_->replace({QPointF(snapshot.threshold, 0), QPointF(snapshot.threshold, axisMax_)});
+  marker_->replace(
+      {QPointF(snapshot.threshold, -stripDepth_), QPointF(snapshot.threshold, axisMax_)});
 }
 
 double CalibrationChart::markedThreshold() const {
@@ -124,6 +195,18 @@ std::optional<double> CalibrationChart::thresholdAt(QPointF value) const {
 
 QString CalibrationChart::describeAt(QPointF value) const {
   const double tolerance = axisMax_ * 0.02;
+  if (value.y() < 0) {  // the risk-distribution strip: the bin under the pointer
+    const auto& e = distribution_.binEdges;
+    for (std::size_t i = 0; i + 1 < e.size() && i < distribution_.eventCounts.size(); ++i) {
+      if (value.x() < e[i] || value.x() >= e[i + 1]) continue;
+      const std::size_t events = distribution_.eventCounts[i];
+      return QStringLiteral("Predicted risk %1 to %2: %3 patients, %4 with the event")
+          .arg(fixed(e[i], 3), fixed(e[i + 1], 3))
+          .arg(events + distribution_.nonEventCounts[i])
+          .arg(events);
+    }
+    return {};
+  }
   for (std::size_t i = 0; i < groups_.size(); ++i) {
     const auto& g = groups_[i];
     if (std::abs(g.meanRisk - value.x()) < tolerance && value.y() >= g.observedCi.lo - tolerance &&

@@ -1,10 +1,12 @@
 #pragma once
-// Calibration view: observed proportion against predicted risk. Shows the ideal line, core's
-// smoothed (loess) calibration curve, the grouped observed proportions with their Wilson 95% CIs
-// as vertical bars, the distribution of predicted risks as a histogram along the bottom (its
-// height is relative; a hidden right-hand axis scales it to the lowest fifth of the plot), and a
-// vertical line at the threshold. With the uncertainty layer: a shaded bootstrap band around the
-// smoothed curve (setCurveBand) and the smoothed curves of further models (addComparison).
+// Calibration view: observed share with the event against predicted risk. Shows the line where
+// predicted equals observed, core's smoothed (loess) calibration curve, each risk group as a
+// diamond on its Wilson 95% interval, and a vertical line at the threshold. The distribution of
+// predicted risk is a separate hatched strip below the zero line, sharing the x axis (its height
+// is relative: the fullest bin fills the strip). The calibration slope, intercept and O/E are in
+// a small box in the plot's upper-left corner, not in the title. With the uncertainty layer: a
+// shaded bootstrap band around the smoothed curve (setCurveBand) and the smoothed curves of further
+// models (addComparison).
 
 #include <vector>
 
@@ -13,6 +15,7 @@
 #include "render/charts/linked_chart.h"
 
 class QAreaSeries;
+class QGraphicsRectItem;
 class QLineSeries;
 
 namespace calivera::charts {
@@ -28,6 +31,10 @@ class CalibrationChart : public LinkedChart {
 
   double markedThreshold() const;
   double axisMax() const { return axisMax_; }
+  // Depth of the risk-distribution strip below 0, in observed-axis units.
+  double stripDepth() const { return stripDepth_; }
+  // The summary box's lines ("Slope 0.77 (target 1)", "Intercept ...", "O/E ...").
+  QString summaryText() const;
 
   // Shaded percentile 95% band of the smoothed curve (ValidationBootstrap::calibrationCurve);
   // grid points without a finite interval are left out. A second call replaces the band.
@@ -44,13 +51,17 @@ class CalibrationChart : public LinkedChart {
     std::vector<CalibrationCurvePoint> curve;
   };
   QString describeOverlays(QPointF value, double tolerance) const;
+  void addSummaryBox(const Calibration& calibration);
 
   std::vector<BandPoint> bandPoints_;
   QAreaSeries* band_ = nullptr;
   std::vector<Comparison> comparisons_;
   std::vector<CalibrationGroup> groups_;
   std::vector<CalibrationCurvePoint> curve_;
+  RiskHistogram distribution_;
   double axisMax_ = 1.0;
+  double stripDepth_ = 0.0;
+  QGraphicsRectItem* summary_ = nullptr;
   QLineSeries* marker_ = nullptr;
 };
 

@@ -28,7 +28,7 @@ DecisionCurveChart::DecisionCurveChart(const std::vector<DecisionCurvePoint>& cu
   const int xTicks = static_cast<int>(std::lround(xMax_ * (fine ? 20 : 10))) + 1;
   auto* x = makeAxis(QStringLiteral("Threshold probability (0–1)"), 0, xMax_,
                      fine ? "%.2f" : "%.1f", xMax_ >= 0.99 ? 6 : xTicks);
-  auto* y = makeAxis(QStringLiteral("Net benefit (per patient)"), yMin_, yMax_, "%.3f", 6);
+  auto* y = makeAxis(QStringLiteral("Net benefit"), yMin_, yMax_, "%.3f", 6);
   y->applyNiceNumbers();
   yMin_ = y->min();
   yMax_ = y->max();

@@ -83,10 +83,10 @@ class ChartLegendTest : public QObject {
     const LegendStrip* strip = panel.legendStrip();
     const QStringList labels = strip->labels();
     // Every named series once, whole; the unnamed CI bars (hidden from the legend) not at all.
-    QVERIFY(labels.contains("Loess curve"));
+    QVERIFY(labels.contains("Smoothed (loess)"));
     QVERIFY(labels.contains("A rival score with a rather long descriptive name"));
     for (const QString& l : labels) QVERIFY2(!l.contains(QChar(0x2026)), qPrintable(l));
-    QCOMPARE(labels.count("Loess curve"), 1);
+    QCOMPARE(labels.count("Smoothed (loess)"), 1);
     QVERIFY(!labels.contains(QString()));
     QVERIFY(!chart->legend()->isVisible());  // the strip replaces Qt's one-row legend
     QVERIFY(strip->rowsForWidth(440) > strip->rowsForWidth(2400));
@@ -111,10 +111,16 @@ class ChartLegendTest : public QObject {
     QVERIFY(chart.axisMax() < 1.0);
     for (QAbstractSeries* s : chart.series()) {
       auto* area = qobject_cast<QAreaSeries*>(s);
-      if (area == nullptr || area->name() != "Histogram") continue;
+      if (area == nullptr || !area->name().startsWith("Risk distribution")) continue;
       for (const QPointF& p : area->upperSeries()->points()) {
         QVERIFY2(p.x() <= chart.axisMax() + 1e-12, qPrintable(QString::number(p.x())));
+        // A strip of its own below the zero line, within its depth.
+        QVERIFY(p.y() <= 0.0 && p.y() >= -chart.stripDepth());
       }
+      // The summary numbers are in their box, not in the title.
+      QCOMPARE(chart.title(), QString("Calibration"));
+      QVERIFY(chart.summaryText().contains("Slope 1.00 (target 1)"));
+      QVERIFY(chart.summaryText().contains("O/E"));
       return;
     }
     QFAIL("no histogram series");

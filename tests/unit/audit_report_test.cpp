@@ -174,4 +174,18 @@ TEST(AuditReport, TimestampsFollowSourceDateEpoch) {
 }
 
 }  // namespace
+// Every chart caption states the threshold its marker shows (issue 12): the first tabulated
+// threshold whose counts are shown.
+TEST(AuditReport, ChartCaptionsStateTheMarkedThreshold) {
+  const AuditDocument doc = buildAuditDocument(minimalInput());
+  int charts = 0;
+  for (const ReportBlock& block : doc.blocks) {
+    if (block.kind != ReportBlock::Kind::ChartPair) continue;
+    ++charts;
+    ASSERT_EQ(block.captions.size(), 1u);
+    EXPECT_TRUE(contains(block.captions[0], "marks threshold 0.200")) << block.captions[0];
+  }
+  EXPECT_EQ(charts, 4);
+}
+
 }  // namespace calivera

@@ -57,6 +57,13 @@ void ChartPanel::placeLegend() {
   setViewportMargins(0, 0, 0, h);
   legend_->setGeometry(inside.left(), inside.bottom() + 1 - h, inside.width(), h);
   legend_->setVisible(h > 0);
+  // QChartView sizes its chart to the whole view, margins included; the chart must fit the
+  // viewport above the strip, or its x axis (numbers and title) is drawn under the strip.
+  if (QChart* c = chart()) {
+    const QSize free = viewport()->size();
+    c->resize(free);
+    setSceneRect(QRectF(QPointF(0, 0), QSizeF(free)));
+  }
 }
 
 template <class Export>
