@@ -11,6 +11,9 @@
 #include "app/cli/data_options.h"
 #include "app/cli/local_cohort.h"
 #include "core/model/model_io.h"
+#include "core/present/caution.h"
+#include "core/present/number_text.h"
+#include "core/report/model_tool_tables.h"
 #include "core/uncertainty/internal_validation.h"
 #include "core/uncertainty/uncertainty_json.h"
 #include "core/util/errors.h"
@@ -89,13 +92,9 @@ int runInternalCommand(const std::vector<std::string>& words) {
   std::cout << "model: " << modelPath << (internal.firth ? " (refitted with Firth)" : "")
             << "\nbootstrap: " << result.run.replicates << " replicates, seed " << result.run.seed
             << ", " << result.run.threads << " threads, " << result.run.failed << " failed\n";
-  std::cout << "  measure                  apparent   optimism  corrected\n";
-  for (const auto& m : result.measures) {
-    std::cout << "  " << m.measure
-              << std::string(24 - std::min<std::size_t>(24, m.measure.size()), ' ') << ' '
-              << m.apparent << "  " << m.meanOptimism << "  " << m.corrected << '\n';
-  }
-  std::cout << "shrinkage factor (corrected calibration slope): " << result.shrinkageFactor << '\n';
+  std::cout << tableText(optimismTable(result));
+  std::cout << "shrinkage factor (the calibration slope on new patients): "
+            << formatNumber(result.shrinkageFactor, 3) << '\n';
   for (const auto& w : warnings) std::cout << "warning: " << w << '\n';
 
   nlohmann::json report = toJson(result);
@@ -114,6 +113,7 @@ int runInternalCommand(const std::vector<std::string>& words) {
   files.commit();
   if (const auto shrunkPath = args.value("--shrunk-out"))
     std::cout << "wrote " << *shrunkPath << '\n';
+  std::cout << '\n' << kCautionText << '\n';
   return 0;
 }
 

@@ -10,6 +10,9 @@
 #include "app/cli/data_options.h"
 #include "app/cli/local_cohort.h"
 #include "core/model/model_io.h"
+#include "core/present/caution.h"
+#include "core/present/number_text.h"
+#include "core/report/model_tool_tables.h"
 #include "core/uncertainty/model_update.h"
 #include "core/uncertainty/uncertainty_json.h"
 #include "core/util/errors.h"
@@ -90,24 +93,20 @@ int runUpdateCommand(const std::vector<std::string>& words) {
   printExclusions(std::cout, cohort);
   std::cout << "model: " << modelPath << "\nmethod: " << updateMethodName(*method);
   if (*method != UpdateMethod::Refit) {
-    std::cout << " (a = " << updated.recalibrationIntercept
-              << ", b = " << updated.recalibrationSlope << ")";
+    std::cout << " (a = " << formatNumber(updated.recalibrationIntercept, 3)
+              << ", b = " << formatNumber(updated.recalibrationSlope, 3) << ")";
   }
-  std::cout << "\ndeviance on the local data: " << updated.deviance << "\nclosed test (alpha "
-            << alpha << "):\n";
-  for (const auto& step : closed.steps) {
-    std::cout << "  " << step.hypothesis << ": LR " << step.lrStatistic << ", df " << step.df
-              << ", p " << step.pValue << (step.rejected ? " (rejected)" : " (not rejected)")
-              << '\n';
-  }
-  std::cout << "  suggested update: " << updateMethodName(closed.suggested) << '\n';
+  std::cout << "\ndeviance on the local data: " << formatNumber(updated.deviance, 2)
+            << "\nclosed test (alpha " << alpha << "):\n"
+            << tableText(closedTestTable(closed));
+  std::cout << "suggested update: " << updateMethodName(closed.suggested) << '\n';
   if (closed.suggested != *method) {
     std::cout << "note: the data support '" << updateMethodName(closed.suggested)
               << "'; you chose '" << updateMethodName(*method) << "'\n";
   }
   for (const auto& w : updated.warnings) std::cout << "warning: " << w << '\n';
   std::cout << "wrote " << out << '\n';
-
+  std::cout << '\n' << kCautionText << '\n';
   return 0;
 }
 

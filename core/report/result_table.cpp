@@ -1,9 +1,12 @@
 #include "core/report/result_table.h"
 
+#include <algorithm>
 #include <cassert>
 #include <cmath>
 
+#include "core/present/number_text.h"
 #include "core/report/csv_text.h"
+#include "core/util/shown_text.h"
 
 namespace calivera {
 
@@ -70,6 +73,65 @@ std::string tableCsv(const ResultTable& table) {
     csv.end();
   }
   return csv.str();
+}
+
+namespace {
+
+// Code points, for alignment (every byte but a UTF-8 continuation byte starts one).
+std::size_t shownWidth(const std::string& s) {
+  std::size_t n = 0;
+  for (const unsigned char c : s) n += (c & 0xC0) != 0x80;
+  return n;
+}
+
+std::string cellText(const TableColumn& c, const TableValue& v) {
+  switch (c.kind) {
+    case TableColumnKind::Number:
+      return formatNumber(v.number, c.decimals);
+    case TableColumnKind::Count:
+      return std::to_string(static_cast<std::size_t>(v.number));
+    case TableColumnKind::Interval:
+      return formatRange(v.interval.lo, v.interval.hi, c.decimals);
+    case TableColumnKind::Text:
+      return visibleName(v.text, c.shownChars > 0 ? c.shownChars : 60);
+    case TableColumnKind::PValue:
+      return formatPValue(v.number);
+  }
+  return {};
+}
+
+}  // namespace
+
+std::string tableText(const ResultTable& table, const std::string& indent) {
+  std::vector<std::size_t> order = table.shownOrder;
+  if (order.empty()) {
+    for (std::size_t k = 0; k < table.columns.size(); ++k) order.push_back(k);
+  }
+  std::vector<std::vector<std::string>> lines(1);
+  for (const std::size_t k : order) lines[0].push_back(table.columns[k].label);
+  for (const auto& row : table.rows) {
+    std::vector<std::string> cells;
+    for (const std::size_t k : order) cells.push_back(cellText(table.columns[k], row[k]));
+    lines.push_back(std::move(cells));
+  }
+  std::vector<std::size_t> width(order.size(), 0);
+  for (const auto& line : lines) {
+    for (std::size_t i = 0; i < line.size(); ++i)
+      width[i] = std::max(width[i], shownWidth(line[i]));
+  }
+  std::string out;
+  for (const auto& line : lines) {
+    std::string text = indent;
+    for (std::size_t i = 0; i < line.size(); ++i) {
+      const std::string pad(width[i] - shownWidth(line[i]), ' ');
+      const bool left = table.columns[order[i]].kind == TableColumnKind::Text;
+      if (i > 0) text += "  ";
+      text += left ? line[i] + pad : pad + line[i];
+    }
+    while (!text.empty() && text.back() == ' ') text.pop_back();
+    out += text + "\n";
+  }
+  return out;
 }
 
 ResultTable thresholdTable(const ValidationResult& result) {

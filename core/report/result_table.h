@@ -60,6 +60,12 @@ struct ResultTable {
 // The CSV text (core/report/csv_text.h conventions).
 std::string tableCsv(const ResultTable& table);
 
+// The table as the command line prints it: the screen's labels and column order, values rounded
+// as on screen (core/present/number_text.h: "not defined", p floors, "lo to hi"), names from files
+// shown with controls written out and cut (core/util/shown_text.h), columns aligned (text left,
+// numbers right), each line starting with `indent`.
+std::string tableText(const ResultTable& table, const std::string& indent = "  ");
+
 // Column makers shared by the table definitions (result_table.cpp, uncertainty_result_tables.cpp).
 namespace table_columns {
 TableColumn number(std::string key, std::string label, int decimals, std::string tip = {});

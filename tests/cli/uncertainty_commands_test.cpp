@@ -11,6 +11,7 @@
 #include <sstream>
 
 #include "core/model/model_io.h"
+#include "core/present/caution.h"
 
 namespace calivera {
 namespace {
@@ -39,6 +40,12 @@ class UncertaintyCommands : public ::testing::Test {
     const int status = std::system(command.c_str());
     return WIFEXITED(status) ? WEXITSTATUS(status) : -1;
   }
+  std::string text(const std::string& name) const {
+    std::ifstream in(path(name));
+    std::ostringstream out;
+    out << in.rdbuf();
+    return out.str();
+  }
   nlohmann::json json(const std::string& name) const {
     std::ifstream in(path(name));
     return nlohmann::json::parse(in);
@@ -59,6 +66,14 @@ TEST_F(UncertaintyCommands, UpdateWritesAPlainModelWithProvenanceAndTheClosedTes
   EXPECT_NEAR(report["recalibration_slope"].get<double>(), 1.0, 1e-8);
   EXPECT_EQ(report["closed_test"]["suggested"], "none");
   EXPECT_EQ(report["closed_test"]["steps"].size(), 1u);
+  // The printed closed test is the workstation's table (core/report/model_tool_tables.h), with
+  // p at three decimals, and the output ends with the caution.
+  const std::string out = text("stdout.txt");
+  EXPECT_NE(out.find("Test               LR statistic  df      p  Decision"), std::string::npos)
+      << out;
+  EXPECT_NE(out.find("original vs refit         0.000"), std::string::npos) << out;
+  EXPECT_EQ(out.substr(out.size() - std::string(kCautionText).size() - 1),
+            std::string(kCautionText) + "\n");
 }
 
 TEST_F(UncertaintyCommands, UpdateRejectsAnUnknownMethodWithoutWritingAFile) {
@@ -84,6 +99,15 @@ TEST_F(UncertaintyCommands, InternalIsReproducibleAcrossThreadsAndWritesAShrunkM
   const Model shrunk = readModelFile(path("shrunk.json"));
   EXPECT_NEAR(shrunk.terms[0].estimate.coefficient,
               shrinkage * fitted.terms[0].estimate.coefficient, 1e-8);
+  // Printed: the optimism table in our words, rounded to four decimals, then the caution.
+  const std::string out = text("stdout.txt");
+  EXPECT_NE(out.find("On new patients"), std::string::npos) << out;
+  const double corrected = two["measures"][0]["corrected"].get<double>();
+  char expected[32];
+  std::snprintf(expected, sizeof expected, "%.4f", corrected);
+  EXPECT_NE(out.find(expected), std::string::npos) << expected << "\n" << out;
+  EXPECT_EQ(out.substr(out.size() - std::string(kCautionText).size() - 1),
+            std::string(kCautionText) + "\n");
 }
 
 TEST_F(UncertaintyCommands, ValidateAddsSampleSizeBootstrapComparisonAndSubgroups) {

@@ -108,5 +108,39 @@ TEST(ResultTableCsv, UndefinedIsAnEmptyFieldAndTextIsNeutralised) {
   EXPECT_EQ(tableCsv(t), "name,value,lo,hi\n\"'=1+1\",,0.25,0.5\n");
 }
 
+// The printed table (tableText): the screen's labels and order, aligned (text left, numbers
+// right), rounded as on screen, "not defined" for NaN, the p floor, "lo to hi" intervals, and a
+// name from a file with its control characters written out.
+TEST(ResultTableText, AlignedRoundedAndSafe) {
+  ResultTable t;
+  t.columns = {{"name", {}, "Name", {}, TableColumnKind::Text, 0},
+               {"value", {}, "Value", {}, TableColumnKind::Number, 3},
+               {"lo", "hi", "95% CI", {}, TableColumnKind::Interval, 2},
+               {"p", {}, "p", {}, TableColumnKind::PValue, 3}};
+  t.shownOrder = {0, 1, 3, 2};
+  t.rows = {{TableValue::of(std::string("a")), TableValue::of(0.12345),
+             TableValue::of(Interval{-0.414, -0.166}), TableValue::of(0.00001)},
+            {TableValue::of(std::string("bad\x1b[2Jname")), TableValue::of(std::nan("")),
+             TableValue::of(Interval{0.5, 0.75}), TableValue::of(0.2)}};
+  const std::string text = tableText(t, "");
+  std::vector<std::string> lines = csvLines(text);
+  ASSERT_EQ(lines.size(), 3u);
+  // The escape character is shown, not sent to the terminal.
+  EXPECT_EQ(text.find('\x1b'), std::string::npos);
+  EXPECT_NE(lines[0].find("Name"), std::string::npos);
+  EXPECT_LT(lines[0].find("Value"), lines[0].find("p"));
+  EXPECT_LT(lines[0].find("  p"), lines[0].find("95% CI"));  // the shown order, not the CSV's
+  EXPECT_NE(lines[1].find("0.123"), std::string::npos);
+  EXPECT_NE(lines[1].find("< 0.001"), std::string::npos);
+  EXPECT_NE(lines[1].find("-0.41 to -0.17"), std::string::npos);
+  EXPECT_NE(lines[2].find("not defined"), std::string::npos);
+  // Right-aligned numbers: each column ends at the same place on every line.
+  const auto endOf = [](const std::string& line, const std::string& cell) {
+    return line.find(cell) + cell.size();
+  };
+  EXPECT_EQ(endOf(lines[1], "0.123"), endOf(lines[2], "not defined"));
+  EXPECT_EQ(endOf(lines[1], "< 0.001"), endOf(lines[2], "0.200"));
+}
+
 }  // namespace
 }  // namespace calivera

@@ -13,6 +13,7 @@
 #include <filesystem>
 
 #include "core/model/model_io.h"
+#include "core/report/model_tool_tables.h"
 #include "core/study/limits.h"
 #include "render/charts/chart_text.h"
 #include "ui/async/background_job.h"
@@ -134,26 +135,11 @@ void InternalValidationDialog::startRun() {
 }
 
 void InternalValidationDialog::showResult() {
-  using cells::count;
-  using cells::number;
-  using cells::text;
-  std::vector<std::vector<TableCell>> rows;
-  for (const OptimismMeasure& m : result_->optimism.measures) {
-    rows.push_back({text(QString::fromStdString(m.measure)), number(m.apparent, 4),
-                    number(m.meanOptimism, 4), number(m.corrected, 4), number(m.optimismSd, 4),
-                    count(m.replicatesUsed)});
-  }
-  table_->setTable({tr("Measure"), tr("Apparent"), tr("Mean optimism"), tr("Corrected"),
-                    tr("Optimism SD"), tr("Replicates used")},
-                   {tr("On the data the model was fitted on"),
-                    tr("Mean over replicates of (performance on the resample - on the original)"),
-                    tr("Apparent minus mean optimism: expected on new patients like these"),
-                    tr("Spread of the optimism over the replicates"), QString(), QString()},
-                   std::move(rows));
+  showResultTable(*table_, optimismTable(result_->optimism));
   const BootstrapSummary& run = result_->optimism.run;
   QString status =
       tr("%1 replicates (seed %2, %3 threads), %4 failed and left out%5. Shrinkage factor "
-         "(the corrected calibration slope): <b>%6</b>.")
+         "(the calibration slope on new patients): <b>%6</b>.")
           .arg(run.replicates)
           .arg(run.seed)
           .arg(run.threads)

@@ -13,6 +13,7 @@
 #include <filesystem>
 
 #include "core/model/model_io.h"
+#include "core/report/model_tool_tables.h"
 #include "core/util/errors.h"
 #include "render/charts/chart_text.h"
 #include "ui/async/background_job.h"
@@ -162,17 +163,7 @@ void ModelUpdateDialog::showResult() {
   using cells::count;
   using cells::number;
   using cells::text;
-  std::vector<std::vector<TableCell>> closedRows;
-  for (const ClosedTestStep& step : result_->closed.steps) {
-    closedRows.push_back({text(QString::fromStdString(step.hypothesis)),
-                          number(step.lrStatistic, 3), count(static_cast<std::size_t>(step.df)),
-                          number(step.pValue, 4),
-                          text(step.rejected ? tr("rejected") : tr("not rejected"))});
-  }
-  closedTable_->setTable({tr("Test"), tr("LR statistic"), tr("df"), tr("p"), tr("Decision")},
-                         {tr("Each smaller model against the refit"), tr("Difference in deviance"),
-                          QString(), QString(), tr("At the chosen alpha")},
-                         std::move(closedRows));
+  showResultTable(*closedTable_, closedTestTable(result_->closed));
   std::vector<std::vector<TableCell>> updateRows;
   for (const UpdatedModel& u : result_->updates) {
     const bool refit = u.method == UpdateMethod::Refit;
