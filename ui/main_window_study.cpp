@@ -451,9 +451,10 @@ void MainWindow::onCopyTable() {
 
 void MainWindow::onExportReport() {
 #ifdef CALIVERA_HAVE_REPORT_DIALOG
-  showReportExportDialog(this, study(), [this](const ReportSettings& report) {
-    controller_->setReportSettings(report);
-  });
+  showReportExportDialog(
+      this, study(),
+      [this](const ReportSettings& report) { controller_->setReportSettings(report); },
+      controller_->savedStudyFile());
 #else
   showMessage(tr("The PDF report export is not available in this build."), true);
 #endif

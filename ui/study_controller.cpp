@@ -7,6 +7,7 @@
 
 #include "core/study/study_file.h"
 #include "core/study/study_uncertainty.h"
+#include "core/util/sha256.h"
 #include "ui/async/background_job.h"
 
 namespace calivera::ui {
@@ -129,6 +130,15 @@ bool StudyController::saveStudy(const QString& path) {
   emit studyPathChanged(studyPath_);
   emit message(tr("Study saved to %1").arg(path), false);
   return true;
+}
+
+std::optional<FileFingerprint> StudyController::savedStudyFile() const {
+  if (studyPath_.isEmpty() || modified_) return std::nullopt;
+  try {
+    return FileFingerprint{studyPath_.toStdString(), sha256OfFile(studyPath_.toStdString())};
+  } catch (const std::exception&) {
+    return std::nullopt;  // moved or deleted since: the report names no study file
+  }
 }
 
 bool StudyController::newStudy() {

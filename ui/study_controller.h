@@ -22,6 +22,7 @@
 #include <string>
 #include <vector>
 
+#include "core/report/audit_report.h"
 #include "core/study/study.h"
 #include "core/study/study_pipeline.h"
 #include "core/study/threshold_state.h"
@@ -67,6 +68,9 @@ class StudyController : public QObject {
   // True when saving would write something other than the study as last opened or saved (an
   // empty study is never modified; one with inputs but never saved always is).
   bool isModified() const { return modified_; }
+  // The study file with its SHA-256 when the study is saved and unchanged since (what a report
+  // may name as its study); empty otherwise.
+  std::optional<FileFingerprint> savedStudyFile() const;
 
   // Settings that take effect at once (threshold, reasonable range, predictor-view choices) or at
   // the next run (groups, the development-data statement).

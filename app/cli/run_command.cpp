@@ -8,6 +8,7 @@
 #include "core/study/reproduce_command.h"
 #include "core/study/study_file.h"
 #include "core/util/errors.h"
+#include "core/util/sha256.h"
 
 namespace calivera::cli {
 namespace {
@@ -23,11 +24,14 @@ constexpr const char* kHelp =
     "sample-size thresholds. Outputs and exit statuses are those of `calivera validate`; the\n"
     "summary ends with the validate command line that gives the same numbers. The PDF shades the\n"
     "study's reasonable threshold range and uses the report settings the workstation last\n"
-    "exported with (title, table thresholds, suppression, paper); an option given here wins.\n\n"
+    "exported with (title, names, table thresholds, suppression, paper); an option given here "
+    "wins.\n\n"
     "  --json FILE          write the full report as JSON instead of the summary on stdout\n"
     "  --csv-dir DIR        also write every table as CSV into DIR\n"
     "  --pdf FILE           also write the audit report as PDF (aggregates only)\n"
     "  --title TEXT         the report's title\n"
+    "  --analyst NAME, --reviewer NAME\n"
+    "                       names on the report's sign-off lines\n"
     "  --suppress-below N   in the report, show counts from 1 to N-1 as <N\n"
     "  --paper SIZE         a4 (default) or letter\n"
     "  --report-thresholds T1,T2,...\n"
@@ -37,8 +41,8 @@ constexpr const char* kHelp =
 
 int runRunCommand(const std::vector<std::string>& words) {
   OptionSpec spec;
-  spec.valued = {"--json",  "--csv-dir",          "--pdf", "--title", "--suppress-below",
-                 "--paper", "--report-thresholds"};
+  spec.valued = {"--json",  "--csv-dir",           "--pdf",     "--title",   "--suppress-below",
+                 "--paper", "--report-thresholds", "--analyst", "--reviewer"};
   spec.flags = {"--help"};
   const Arguments arguments(words, spec);
   if (arguments.has("--help")) {
@@ -70,6 +74,10 @@ int runRunCommand(const std::vector<std::string>& words) {
     if (!arguments.has("--suppress-below")) outputs.suppressBelow = report.suppressBelow;
     if (!arguments.has("--paper")) outputs.paper = report.paper;
     if (!arguments.has("--report-thresholds")) outputs.tableThresholds = report.thresholds;
+    if (!arguments.has("--analyst")) outputs.analyst = report.analyst;
+    if (!arguments.has("--reviewer")) outputs.reviewer = report.reviewer;
+    // The report names the study it ran, by name and fingerprint.
+    outputs.studyFile = FileFingerprint{studyPath, sha256OfFile(studyPath)};
   }
   // Inputs changed since the study was saved: checked once the run has read (and hashed) the
   // cohort, so a large cohort is hashed once.

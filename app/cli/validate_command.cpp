@@ -61,6 +61,9 @@ constexpr const char* kHelp =
     "  --pdf FILE           also write the audit report as PDF (aggregates only; with\n"
     "                       SOURCE_DATE_EPOCH set, byte-identical for the same inputs)\n"
     "  --title TEXT         the report's title\n"
+    "  --analyst NAME, --reviewer NAME\n"
+    "                       names on the report's sign-off lines (blank lines to sign when\n"
+    "                       not given)\n"
     "  --suppress-below N   in the report, show counts from 1 to N-1 as <N and hide the\n"
     "                       counts that would reveal them (off by default)\n"
     "  --paper SIZE         a4 (default) or letter\n"
@@ -106,7 +109,8 @@ std::vector<double> parseThresholds(const std::string& text) {
 void addValidateOptions(OptionSpec& spec) {
   spec.valued.insert({"--data", "--outcome", "--model", "--risk", "--groups", "--thresholds",
                       "--map", "--map-level", "--json", "--csv-dir", "--pdf", "--title",
-                      "--suppress-below", "--paper", "--reasonable-range", "--report-thresholds"});
+                      "--analyst", "--reviewer", "--suppress-below", "--paper",
+                      "--reasonable-range", "--report-thresholds"});
   spec.flags.insert({"--help", "--development-data"});
   addDataOptions(spec);
   addUncertaintyOptions(spec);  // uncertainty: --bootstrap, --compare, --subgroup, ...
@@ -119,10 +123,19 @@ ValidateOutputs validateOutputsFrom(const Arguments& arguments) {
   out.pdfPath = arguments.value("--pdf");
   if (!out.pdfPath &&
       (arguments.has("--title") || arguments.has("--suppress-below") || arguments.has("--paper") ||
-       arguments.has("--reasonable-range") || arguments.has("--report-thresholds"))) {
+       arguments.has("--reasonable-range") || arguments.has("--report-thresholds") ||
+       arguments.has("--analyst") || arguments.has("--reviewer"))) {
     throw InputError(
-        "--title, --suppress-below, --paper, --reasonable-range and --report-thresholds need "
-        "--pdf");
+        "--title, --analyst, --reviewer, --suppress-below, --paper, --reasonable-range and "
+        "--report-thresholds need --pdf");
+  }
+  for (const auto& [option, name] :
+       {std::pair{"--analyst", &out.analyst}, std::pair{"--reviewer", &out.reviewer}}) {
+    *name = arguments.value(option).value_or("");
+    if (name->size() > kMaxSignOffNameBytes) {
+      throw InputError(std::string(option) + ": longer than " +
+                       std::to_string(kMaxSignOffNameBytes) + " bytes");
+    }
   }
   if (const auto list = arguments.value("--report-thresholds")) {
     const std::string option = "--report-thresholds";
@@ -261,6 +274,8 @@ int executeValidation(const ValidationRequest& request, const UncertaintyRequest
     AuditReportInput input =
         auditInputFromRun(run, outputs.title, outputs.suppressBelow, uncertainty);
     input.settings.reasonableThresholds = outputs.reasonable;
+    input.signOff = {outputs.analyst, outputs.reviewer};
+    input.studyFile = outputs.studyFile;
     if (!outputs.tableThresholds.empty()) input.settings.tableThresholds = outputs.tableThresholds;
     pdf = report::renderAuditReportPdf(input, paper);
   }

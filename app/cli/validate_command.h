@@ -11,6 +11,7 @@
 
 #include "app/cli/arguments.h"
 #include "core/metrics/validation_run.h"
+#include "core/report/audit_report.h"
 #include "core/uncertainty/uncertainty_run.h"
 
 namespace calivera::cli {
@@ -20,7 +21,11 @@ struct ValidateOutputs {
   std::optional<std::string> jsonPath;
   std::optional<std::string> csvDir;
   std::optional<std::string> pdfPath;
-  std::string title;              // the report's title
+  std::string title;    // the report's title
+  std::string analyst;  // the sign-off lines' names; empty: blank lines
+  std::string reviewer;
+  // The saved study the run came from (calivera run), named with its fingerprint in the report.
+  std::optional<FileFingerprint> studyFile;
   std::size_t suppressBelow = 0;  // 0: off
   std::string paper = "a4";       // "a4" or "letter"
   std::optional<Interval> reasonable;

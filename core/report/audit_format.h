@@ -26,6 +26,8 @@ std::string fileNameOnly(const std::string& path);
 // bidirectional overrides written out, cut after kReportNameChars characters, so a 2,000-character
 // level cannot run over the page or its caution and fingerprint footer (core/util/shown_text.h).
 inline constexpr std::size_t kReportNameChars = 80;
+// The report's title gets three lines of the title font before it is cut.
+inline constexpr std::size_t kReportTitleChars = 160;
 std::string reportName(const std::string& text);
 
 }  // namespace calivera

@@ -16,8 +16,10 @@
 #include "core/report/audit_disclosure.h"
 #include "core/report/audit_format.h"
 #include "core/report/audit_methods.h"
+#include "core/report/audit_overview.h"
 #include "core/report/audit_uncertainty.h"
 #include "core/util/errors.h"
+#include "core/util/shown_text.h"
 
 namespace calivera {
 
@@ -528,7 +530,8 @@ AuditDocument buildAuditDocument(const AuditReportInput& input) {
       input.result, input.exclusions, tableRows, input.settings.suppressBelow,
       input.uncertainty ? disclosureExtras(*input.uncertainty) : DisclosureExtras{});
   AuditDocument doc;
-  doc.title = input.title.empty() ? std::string(kDefaultAuditTitle) : reportName(input.title);
+  doc.title = input.title.empty() ? std::string(kDefaultAuditTitle)
+                                  : visibleName(input.title, kReportTitleChars);
   doc.subtitle = "Created " + input.createdAt + "  |  Calivera " + input.softwareVersion;
   doc.caution = auditCautionText();
   doc.footer = {
@@ -548,6 +551,13 @@ AuditDocument buildAuditDocument(const AuditReportInput& input) {
   caution.kind = Kind::Caution;
   caution.text = doc.caution;
   blocks.push_back(caution);
+  std::vector<std::string> warnings = reportWarnings(input);
+  if (input.uncertainty) {
+    for (std::string& w : uncertaintyWarnings(*input.uncertainty, plan)) warnings.push_back(w);
+  }
+  // The first page: the result in brief and the sign-off lines, then the full sections.
+  addOverview(input, doc, plan, warnings, blocks);
+  addSignOff(input, blocks);
   addIdentification(input, plan, tableRows, blocks);
   if (input.uncertainty) addSampleSizeSection(*input.uncertainty, plan, blocks);
 
@@ -556,13 +566,11 @@ AuditDocument buildAuditDocument(const AuditReportInput& input) {
   addCharts(doc, blocks);
   addHosmerLemeshow(input, plan, blocks);
   addThresholdTable(tableRows, plan, blocks);
-  std::vector<std::string> warnings = reportWarnings(input);
   if (input.uncertainty) {
     std::vector<double> tabulated;
     for (const ThresholdRow& row : tableRows) tabulated.push_back(row.threshold);
     addComparisonSection(input, plan, tabulated, blocks);
     addSubgroupSection(*input.uncertainty, plan, blocks);
-    for (std::string& w : uncertaintyWarnings(*input.uncertainty, plan)) warnings.push_back(w);
   }
   blocks.push_back(reportHeading("Warnings", 2));
   if (warnings.empty()) blocks.push_back(reportParagraph("None."));

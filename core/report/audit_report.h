@@ -44,6 +44,12 @@ struct AuditSettings {
   std::vector<std::pair<std::string, std::string>> other;
 };
 
+// Who prepared and who reviewed the report (the report settings); empty: a blank line to sign.
+struct ReportSignOff {
+  std::string analyst;
+  std::string reviewer;
+};
+
 struct AuditReportInput {
   std::string title;
   std::string createdAt;  // as printed, e.g. "2026-12-01 22:40:00 UTC"
@@ -58,6 +64,10 @@ struct AuditReportInput {
   // The uncertainty layer's results for the same run (comparedModels' paths are reduced to file
   // names in the report); absent: the report has no uncertainty sections.
   std::optional<UncertaintyResults> uncertainty;
+  // The saved study the run came from (calivera run, or the workstation's saved and unchanged
+  // study); absent for a run from command-line options.
+  std::optional<FileFingerprint> studyFile;
+  ReportSignOff signOff;
 };
 
 enum class CellAlign { Left, Right };

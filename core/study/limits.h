@@ -22,6 +22,8 @@ inline constexpr IntegerLimit kSeedLimit{"seed", 0, (1LL << 53)};  // exact in a
 inline constexpr IntegerLimit kSuppressBelowLimit{"suppression threshold", 2, 1000};
 // A report title in bytes (the report itself shows at most 80 characters of it).
 inline constexpr std::size_t kMaxReportTitleBytes = 1000;
+// The analyst's or reviewer's name on the report's sign-off lines, in bytes.
+inline constexpr std::size_t kMaxSignOffNameBytes = 200;
 // The threshold grid's size limit is core/metrics/validation.h's kMaxThresholdCount (thresholdRange
 // refuses a longer grid), kept there because the metrics layer checks it.
 

@@ -74,6 +74,8 @@ struct ReportSettings {
                                    // (defaultTableThresholds, core/report/audit_report.h)
   std::size_t suppressBelow = 0;   // 0: off; else within kSuppressBelowLimit
   std::string paper = "a4";        // "a4" or "letter"
+  std::string analyst;             // on the sign-off lines; empty: a blank line to sign
+  std::string reviewer;
 };
 
 struct StudyState {

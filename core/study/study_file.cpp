@@ -170,7 +170,9 @@ std::string studyToJson(const StudyState& study, const std::string& studyPath) {
   j["report"] = {{"title", study.report.title},
                  {"thresholds", study.report.thresholds},
                  {"suppressBelow", study.report.suppressBelow},
-                 {"paper", study.report.paper}};
+                 {"paper", study.report.paper},
+                 {"analyst", study.report.analyst},
+                 {"reviewer", study.report.reviewer}};
   return j.dump(2) + "\n";
 }
 
@@ -276,6 +278,14 @@ StudyState parseStudyJson(const std::string& text, const std::string& studyPath)
     out.title = in.get<std::string>(r, "title", "report.title", "");
     if (out.title.size() > kMaxReportTitleBytes) {
       in.fail("report.title", "longer than " + std::to_string(kMaxReportTitleBytes) + " bytes");
+    }
+    for (const auto& [key, name] :
+         {std::pair{"analyst", &out.analyst}, std::pair{"reviewer", &out.reviewer}}) {
+      const std::string field = std::string("report.") + key;
+      *name = in.get<std::string>(r, key, field, "");
+      if (name->size() > kMaxSignOffNameBytes) {
+        in.fail(field, "longer than " + std::to_string(kMaxSignOffNameBytes) + " bytes");
+      }
     }
     out.thresholds = in.get<std::vector<double>>(r, "thresholds", "report.thresholds", {});
     if (out.thresholds.size() > kMaxThresholdCount) {

@@ -9,6 +9,7 @@
 #include <string>
 #include <vector>
 
+#include "core/study/limits.h"
 #include "core/study/reproduce_command.h"
 #include "core/study/study_file.h"
 #include "core/util/sha256.h"
@@ -191,8 +192,12 @@ TEST_F(RunCommand, ReportSettingsRoundTripAndBadOnesAreRefused) {
   study.report.thresholds = {0.1, 0.2};
   study.report.suppressBelow = 5;
   study.report.paper = "letter";
+  study.report.analyst = "A. Analyst";
+  study.report.reviewer = "R. Reviewer";
   writeStudyFile(dir_.file("report.cvstudy"), study);
   const StudyState back = readStudyFile(dir_.file("report.cvstudy"));
+  EXPECT_EQ(back.report.analyst, "A. Analyst");
+  EXPECT_EQ(back.report.reviewer, "R. Reviewer");
   EXPECT_EQ(back.report.title, study.report.title);
   EXPECT_EQ(back.report.thresholds, study.report.thresholds);
   EXPECT_EQ(back.report.suppressBelow, 5u);
@@ -221,12 +226,16 @@ TEST_F(RunCommand, ReportSettingsRoundTripAndBadOnesAreRefused) {
     text.replace(at, end + 1 - at, "\"report\": " + report);
     return dir_.write("bad.cvstudy", text);
   };
+  const std::string longName =
+      R"({"reviewer": ")" + std::string(kMaxSignOffNameBytes + 1, 'r') + "\"}";
   const std::pair<const char*, const char*> cases[] = {
       {R"({"paper": "a3"})", "report.paper"},
       {R"({"suppressBelow": 1})", "report.suppressBelow"},
       {R"({"suppressBelow": 5000})", "report.suppressBelow"},
       {R"({"thresholds": [0.2, 1.5]})", "report.thresholds"},
       {R"({"title": 7})", "report.title"},
+      {R"({"analyst": ["x"]})", "report.analyst"},
+      {longName.c_str(), "report.reviewer"},
   };
   for (const auto& [report, field] : cases) {
     const CliRun run = runCalivera({"run", withReport(report)});

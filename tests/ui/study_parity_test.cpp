@@ -262,14 +262,18 @@ class StudyParityTest : public QObject {
     study.report.thresholds = {0.1, 0.25, 0.4};
     study.report.suppressBelow = 5;
     study.report.paper = "letter";
+    study.report.analyst = "A. Analyst";
+    study.report.reviewer = "R. Reviewer";
     qputenv("SOURCE_DATE_EPOCH", "1764590400");
     MainWindow w;
     open(w, study, "pdf.cvstudy");
     QCOMPARE(w.controller().study().report.thresholds, study.report.thresholds);
     const std::string guiPdf = path("gui.pdf");
-    QCOMPARE(exportReport(w.controller().study(), exportRequestFor(w.controller().study(), guiPdf))
-                 .result(),
-             QString());
+    // The opened study is saved and unchanged: the report names it, as `calivera run` does.
+    ReportExportRequest request = exportRequestFor(w.controller().study(), guiPdf);
+    request.studyFile = w.controller().savedStudyFile();
+    QVERIFY(request.studyFile.has_value());
+    QCOMPARE(exportReport(w.controller().study(), request).result(), QString());
     const std::string cliPdf = path("cli.pdf");
     const auto cli = calivera::testing::runCalivera(
         {"run", path("pdf.cvstudy"), "--pdf", cliPdf, "--json", path("cli.json")}, 120);
@@ -279,6 +283,9 @@ class StudyParityTest : public QObject {
     QVERIFY(guiText.contains("Parity <check>"));
     QVERIFY(guiText.contains("apparent", Qt::CaseInsensitive));
     QVERIFY(guiText.contains("2025-12-01"));
+    QVERIFY(guiText.contains("A. Analyst") && guiText.contains("R. Reviewer"));
+    QVERIFY(guiText.contains("pdf.cvstudy, SHA-256"));
+    QVERIFY(guiText.contains(QString::fromStdString(sha256OfFile(path("pdf.cvstudy")))));
     QCOMPARE(guiText, cliText);
     // An option given to `run` wins over the saved setting.
     const auto retitled = calivera::testing::runCalivera(

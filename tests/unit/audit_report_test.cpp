@@ -188,4 +188,30 @@ TEST(AuditReport, ChartCaptionsStateTheMarkedThreshold) {
   EXPECT_EQ(charts, 4);
 }
 
+// The first page (issue 12): the result in brief, in the measure catalog's words, with the
+// performance basis and the main warnings, then sign-off lines that are the settings' names or
+// blank lines to sign, and the study file's fingerprint when the run came from a study.
+TEST(AuditReport, FirstPageSummarisesAndLeavesLinesToSign) {
+  AuditReportInput input = minimalInput();
+  const AuditDocument blank = buildAuditDocument(input);
+  const std::string text = allText(blank);
+  EXPECT_LT(text.find("The result in brief"), text.find("1  What was validated"));
+  EXPECT_TRUE(contains(text, "Discrimination\tAUC (c-statistic) 0.813 (95% CI 0.751 to 0.861)"));
+  EXPECT_TRUE(contains(text, "new data (external validation)"));
+  EXPECT_TRUE(contains(text, "At threshold 0.200: net benefit"));
+  EXPECT_TRUE(contains(text, "Analyst\t______________________________"));
+  EXPECT_TRUE(contains(text, "Clinical governance\t______________________________"));
+  EXPECT_FALSE(contains(text, "Study file"));
+
+  input.signOff = {"A. Analyst", "R. <Reviewer>"};
+  input.studyFile = FileFingerprint{"/home/someone/ward.cvstudy", std::string(64, 'c')};
+  input.settings.apparent = true;
+  const std::string filled = allText(buildAuditDocument(input));
+  EXPECT_TRUE(contains(filled, "Analyst\tA. Analyst\t"));
+  EXPECT_TRUE(contains(filled, "Reviewer\tR. <Reviewer>\t"));  // escaped by the PDF writer
+  EXPECT_TRUE(contains(filled, "Study file\tward.cvstudy, SHA-256 " + std::string(64, 'c')));
+  EXPECT_FALSE(contains(filled, "/home/someone"));
+  EXPECT_TRUE(contains(filled, "apparent performance (the cohort is the development data)"));
+}
+
 }  // namespace calivera

@@ -37,6 +37,8 @@ ReportExportRequest exportRequestFor(const StudyState& study, const std::string&
   request.thresholds = study.report.thresholds;
   request.suppressBelow = study.report.suppressBelow;
   request.paper = report::parsePaperSize(study.report.paper, "report.paper");
+  request.analyst = study.report.analyst;
+  request.reviewer = study.report.reviewer;
   return request;
 }
 
@@ -46,6 +48,8 @@ ReportSettings reportSettingsOf(const ReportExportRequest& request) {
   settings.thresholds = request.thresholds;
   settings.suppressBelow = request.suppressBelow;
   settings.paper = request.paper == report::PaperSize::Letter ? "letter" : "a4";
+  settings.analyst = request.analyst;
+  settings.reviewer = request.reviewer;
   return settings;
 }
 
@@ -60,6 +64,8 @@ AuditReportInput auditInputFromStudy(const StudyState& study, const ReportExport
       auditInputFromRun(*study.run, request.title, request.suppressBelow,
                         study.uncertainty ? *study.uncertainty : kNoUncertainty);
   if (!study.uncertainty) input.uncertainty.reset();
+  input.signOff = {request.analyst, request.reviewer};
+  input.studyFile = request.studyFile;
   AuditSettings& settings = input.settings;
   settings.tableThresholds = request.thresholds;
   settings.reasonableThresholds =
@@ -112,7 +118,8 @@ std::vector<double> parseThresholds(const QString& text) {
 }  // namespace
 
 void showReportExportDialog(QWidget* parent, const StudyState& study,
-                            const std::function<void(const ReportSettings&)>& remember) {
+                            const std::function<void(const ReportSettings&)>& remember,
+                            const std::optional<FileFingerprint>& studyFile) {
   if (!study.result || !study.data || !study.model) {
     QMessageBox::information(parent, QObject::tr("Export report"),
                              QObject::tr("Load a cohort and a model first: the report describes "
@@ -133,6 +140,20 @@ void showReportExportDialog(QWidget* parent, const StudyState& study,
   title->setText(QString::fromStdString(saved.title));
   title->setPlaceholderText(QString::fromUtf8(kDefaultAuditTitle));
   form->addRow(QObject::tr("Title"), title);
+
+  // Names for the sign-off lines; left empty, the report prints blank lines to sign by hand.
+  const auto nameEdit = [&dialog, form](const char* objectName, const QString& label,
+                                        const std::string& value) {
+    auto* edit = new QLineEdit(&dialog);
+    edit->setObjectName(QString::fromLatin1(objectName));
+    edit->setMaxLength(static_cast<int>(kMaxSignOffNameBytes / 4));
+    edit->setText(QString::fromStdString(value));
+    edit->setPlaceholderText(QObject::tr("blank line to sign"));
+    form->addRow(label, edit);
+    return edit;
+  };
+  QLineEdit* analyst = nameEdit("reportAnalystEdit", QObject::tr("Analyst"), saved.analyst);
+  QLineEdit* reviewer = nameEdit("reportReviewerEdit", QObject::tr("Reviewer"), saved.reviewer);
 
   auto* thresholds = new QLineEdit(&dialog);
   thresholds->setObjectName(QStringLiteral("reportThresholdsEdit"));
@@ -200,6 +221,9 @@ void showReportExportDialog(QWidget* parent, const StudyState& study,
   QObject::connect(buttons, &QDialogButtonBox::accepted, &dialog, [&] {
     try {
       request.title = title->text().toStdString();
+      request.analyst = analyst->text().trimmed().toStdString();
+      request.reviewer = reviewer->text().trimmed().toStdString();
+      request.studyFile = studyFile;
       request.thresholds = parseThresholds(thresholds->text());
       request.suppressBelow =
           suppress->value() <= 1 ? 0 : static_cast<std::size_t>(suppress->value());

@@ -28,6 +28,10 @@ struct ReportExportRequest {
   std::vector<double> thresholds;  // rows of the threshold table
   std::size_t suppressBelow = 0;   // 0: off
   report::PaperSize paper = report::PaperSize::A4;
+  std::string analyst;  // sign-off lines; empty: blank lines to sign
+  std::string reviewer;
+  // The saved, unchanged study file this export describes (StudyController::savedStudyFile).
+  std::optional<FileFingerprint> studyFile;
 };
 
 // The request the study's saved report settings (StudyState::report) stand for, writing to `path`;
@@ -49,6 +53,7 @@ QFuture<QString> exportReport(const StudyState& study, const ReportExportRequest
 // starts exportReport and tells the user the outcome when it finishes. Does nothing but explain
 // when the study has no result yet.
 void showReportExportDialog(QWidget* parent, const StudyState& study,
-                            const std::function<void(const ReportSettings&)>& remember);
+                            const std::function<void(const ReportSettings&)>& remember,
+                            const std::optional<FileFingerprint>& studyFile = {});
 
 }  // namespace calivera::ui
