@@ -510,6 +510,12 @@ void addAbout(const AuditReportInput& input, const AuditDocument& doc, const Dis
       "Reproducibility: the same input files (identified by the SHA-256 fingerprints in every "
       "footer) and the same settings give the same report. Software: Calivera " +
       input.softwareVersion + "."));
+  // Qt 6.4's PDF writer (QPdfWriter) offers PDF 1.4, PDF/A-1b and 1.6 output and no way to write
+  // a structure tree, so the report cannot be tagged; say so rather than let a reader assume it.
+  blocks.push_back(reportParagraph(
+      "Accessibility: this PDF is not tagged (the PDF writer used offers no document structure "
+      "tags). Its text is real text that can be selected, searched and read aloud; each chart "
+      "is described by its caption and its numbers are in the tables."));
 }
 
 // "Table #. " captions become "Table 1. ", "Table 2. ", ... in reading order.

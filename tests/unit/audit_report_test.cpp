@@ -214,4 +214,10 @@ TEST(AuditReport, FirstPageSummarisesAndLeavesLinesToSign) {
   EXPECT_TRUE(contains(filled, "apparent performance (the cohort is the development data)"));
 }
 
+// The report says it is not tagged for accessibility (Qt's PDF writer cannot tag), not silent.
+TEST(AuditReport, SaysItIsNotTagged) {
+  EXPECT_TRUE(contains(allText(buildAuditDocument(minimalInput())),
+                       "Accessibility: this PDF is not tagged"));
+}
+
 }  // namespace calivera
