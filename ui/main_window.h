@@ -61,6 +61,9 @@ class MainWindow : public QMainWindow {
 
   // Exports every chart as NAME.png and NAME.svg into `folder`; empty string on success.
   QString exportAllCharts(const QString& folder);
+  // The lines under every exported chart: the caution, the cohort's and the model's file names
+  // and SHA-256, the export time (SOURCE_DATE_EPOCH when set), version, patients and events.
+  QStringList exportFooter() const;
 
   QString messageText() const;
   std::vector<ChartPanel*> chartPanels() const;

@@ -26,6 +26,7 @@
 #include <set>
 
 #include "core/model/model_io.h"
+#include "core/report/audit_report.h"
 #include "core/study/study_file.h"
 #include "core/study/study_uncertainty.h"
 #include "core/util/errors.h"
@@ -40,6 +41,7 @@
 #include "ui/models/record_table_model.h"
 #include "ui/models/result_tables.h"
 #include "ui/models/table_export.h"
+#include "ui/views/caution_text.h"
 #include "ui/views/chart_panel.h"
 #include "ui/views/comparison_view.h"
 #include "ui/views/confusion_panel.h"
@@ -248,13 +250,45 @@ void MainWindow::updateStatus() {
           : tr("%1[*] — Calivera workstation").arg(QFileInfo(controller_->studyPath()).fileName()));
 }
 
+QStringList MainWindow::exportFooter() const {
+  // Plain text drawn by the painter (never markup); file names without folders, as in reports.
+  const auto name = [](const std::string& text) {
+    return toQ(visibleName(std::filesystem::path(text).filename().string(), 80));
+  };
+  QStringList lines{cautionText()};
+  if (study().data) {
+    lines << tr("Cohort %1  SHA-256 %2").arg(name(study().data->path), toQ(study().data->sha256));
+  }
+  if (study().model) {
+    QString model = tr("Model %1").arg(toQ(visibleName(study().model->name, 80)));
+    if (study().modelSource == ModelSource::File && study().modelFile) {
+      model += tr(", file %1  SHA-256 %2")
+                   .arg(name(study().modelFile->path), toQ(study().modelFile->sha256));
+    } else if (study().modelSource == ModelSource::Fitted) {
+      model += tr(", fitted on this cohort in the workstation");
+    }
+    lines << model;
+  }
+  QString exported =
+      tr("Exported %1  ·  Calivera %2")
+          .arg(toQ(formatUtcTimestamp(reportTimestamp())), QStringLiteral(CALIVERA_VERSION));
+  if (study().result) {
+    exported += tr("  ·  %1 patients analysed, %2 events")
+                    .arg(study().result->cohort.n)
+                    .arg(study().result->cohort.events);
+  }
+  lines << exported;
+  return lines;
+}
+
 QString MainWindow::exportAllCharts(const QString& folder) {
   if (!QDir().mkpath(folder)) return tr("cannot create the folder %1").arg(folder);
+  const QStringList footer = exportFooter();
   for (ChartPanel* p : chartPanels()) {
     if (p->linkedChart() == nullptr) continue;
     const QString stem = QDir(folder).filePath(p->linkedChart()->exportName());
-    if (QString e = p->exportPng(stem + ".png"); !e.isEmpty()) return e;
-    if (QString e = p->exportSvg(stem + ".svg"); !e.isEmpty()) return e;
+    if (QString e = p->exportPng(stem + ".png", footer); !e.isEmpty()) return e;
+    if (QString e = p->exportSvg(stem + ".svg", footer); !e.isEmpty()) return e;
   }
   return {};
 }
@@ -394,8 +428,9 @@ void MainWindow::onExportChart(ChartPanel* panel) {
   if (path.isEmpty()) return;
   QString stem = path;
   if (stem.endsWith(".png", Qt::CaseInsensitive)) stem.chop(4);
-  QString error = panel->exportPng(stem + ".png");
-  if (error.isEmpty()) error = panel->exportSvg(stem + ".svg");
+  const QStringList footer = exportFooter();
+  QString error = panel->exportPng(stem + ".png", footer);
+  if (error.isEmpty()) error = panel->exportSvg(stem + ".svg", footer);
   if (error.isEmpty()) {
     showMessage(tr("Chart saved as %1.png and %1.svg").arg(stem), false);
   } else {

@@ -1,5 +1,6 @@
 #include "app/cli/commands.h"
 
+#include <algorithm>
 #include <filesystem>
 #include <iostream>
 #include <string>
@@ -71,9 +72,14 @@ void printUsage() {
                "usage: calivera                      open the workstation\n"
                "       calivera COMMAND [options]    run headless\n\n"
                "commands:\n";
+  std::size_t width = 0;  // the longest command name ("predictor-space") sets the column
   for (const Command& command : allCommands()) {
-    std::cout << "  " << command.name << std::string(12 - std::string(command.name).size(), ' ')
-              << command.summary << '\n';
+    width = std::max(width, std::string(command.name).size());
+  }
+  for (const Command& command : allCommands()) {
+    const std::string name = command.name;
+    std::cout << "  " << name << std::string(width + 2 - name.size(), ' ') << command.summary
+              << '\n';
   }
   std::cout << "\nRun 'calivera COMMAND --help' for a command's options.\n" << kCautionText << '\n';
 }

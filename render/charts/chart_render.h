@@ -5,6 +5,7 @@
 
 #include <QRectF>
 #include <QString>
+#include <QStringList>
 
 class QChart;
 class QPainter;
@@ -15,9 +16,14 @@ namespace calivera::charts {
 // Works for a chart that is in no scene (the usual report case) or already in one.
 void renderChart(QChart& chart, QPainter& painter, const QRectF& target);
 
-// File exports at the given size in pixels; return an empty string on success, otherwise the
-// reason. PNG is rendered at twice the pixel density for sharp lines.
-QString exportChartPng(QChart& chart, const QString& path, QSize size);
-QString exportChartSvg(QChart& chart, const QString& path, QSize size, const QString& title);
+// File exports of the chart at the given size in pixels, its legend in a column on the right
+// (legend_painter.h: line styles and whole labels), with `footer` lines (the caution, the
+// inputs' fingerprints, the date) word-wrapped in a band below it, so a chart copied into another
+// document keeps what it shows and what it is not; return an empty string on success, otherwise
+// the reason. PNG is rendered at twice the pixel density for sharp lines.
+QString exportChartPng(QChart& chart, const QString& path, QSize size,
+                       const QStringList& footer = {});
+QString exportChartSvg(QChart& chart, const QString& path, QSize size, const QString& title,
+                       const QStringList& footer = {});
 
 }  // namespace calivera::charts

@@ -60,6 +60,16 @@ void drawSample(QPainter& painter, const LegendEntry& e, const QRectF& box) {
           painter.drawPath(path);
           break;
         }
+        case QScatterSeries::MarkerShapeRotatedRectangle: {  // a diamond (calibration groups)
+          QPainterPath path;
+          path.moveTo(c.x(), c.y() - r);
+          path.lineTo(c.x() + r, c.y());
+          path.lineTo(c.x(), c.y() + r);
+          path.lineTo(c.x() - r, c.y());
+          path.closeSubpath();
+          painter.drawPath(path);
+          break;
+        }
         default:
           painter.drawEllipse(dot);
       }

@@ -53,6 +53,7 @@
 #include "ui/dialogs/reproduce_dialog.h"
 #include "ui/dialogs/uncertainty_dialog.h"
 #include "ui/models/table_export.h"
+#include "ui/views/caution_text.h"
 #include "ui/views/chart_panel.h"
 #include "ui/views/predictor_view.h"
 #include "ui/views/subgroup_view.h"
@@ -540,8 +541,15 @@ class MainWindowTest : public QObject {
       QVERIFY(png.width() >= 900);
       QFile svg(out + "/" + name + ".svg");
       QVERIFY(svg.open(QIODevice::ReadOnly));
-      QVERIFY(svg.readAll().contains("<svg"));
+      const QString text = QString::fromUtf8(svg.readAll());
+      QVERIFY(text.contains("<svg"));
+      // Every exported chart carries the caution and the inputs' fingerprints below it.
+      QVERIFY2(text.contains("do not replace clinical judgment"), name);
+      QVERIFY(text.contains(QString::fromStdString(w.controller().study().data->sha256)));
+      QVERIFY(png.height() > 2 * w.exportFooter().size());
     }
+    QCOMPARE(w.exportFooter().front(), cautionText());
+    QVERIFY(w.exportFooter().back().contains("Calivera"));
     auto* table = child<QTableView>(w, "thresholdTable");
     const QString csv = path("thresholds.csv");
     QCOMPARE(writeTableCsv(*table->model(), csv), QString());
@@ -1048,6 +1056,14 @@ class MainWindowTest : public QObject {
     };
     auto* tabs = child<QTabWidget>(w, "mainTabs");
     save(&w, "main_window");
+    // The exported calibration chart as a user gets it (PNG with its footer).
+    if (!dir.isEmpty()) {
+      const QString exported = path("exported_charts");
+      QCOMPARE(w.exportAllCharts(exported), QString());
+      QFile::remove(QString::fromLocal8Bit(dir) + "/exported_calibration.png");
+      QVERIFY(QFile::copy(exported + "/calibration.png",
+                          QString::fromLocal8Bit(dir) + "/exported_calibration.png"));
+    }
     for (const char* v : {"rocView", "calibrationView", "decisionCurveView", "distributionView"}) {
       save(child<QWidget>(w, v), v);
     }

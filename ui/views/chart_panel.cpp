@@ -66,19 +66,6 @@ void ChartPanel::placeLegend() {
   }
 }
 
-template <class Export>
-QString ChartPanel::withExportLegend(Export exportChart) {
-  if (linked_ == nullptr) return tr("there is no chart to export yet");
-  QLegend* legend = linked_->legend();
-  const Qt::Alignment alignment = legend->alignment();
-  legend->setAlignment(Qt::AlignRight);
-  legend->setVisible(true);
-  const QString error = exportChart();
-  legend->setVisible(false);
-  legend->setAlignment(alignment);
-  return error;
-}
-
 QPointF ChartPanel::valueAt(QPoint widgetPos) const {
   if (linked_ == nullptr || linked_->series().isEmpty()) return {};
   return linked_->mapToValue(mapToScene(widgetPos), linked_->series().last());
@@ -139,13 +126,14 @@ QSize ChartPanel::exportSize() const {
   return size().expandedTo(QSize(900, 600));
 }
 
-QString ChartPanel::exportPng(const QString& path) {
-  return withExportLegend([&] { return charts::exportChartPng(*linked_, path, exportSize()); });
+QString ChartPanel::exportPng(const QString& path, const QStringList& footer) {
+  if (linked_ == nullptr) return tr("there is no chart to export yet");
+  return charts::exportChartPng(*linked_, path, exportSize(), footer);
 }
 
-QString ChartPanel::exportSvg(const QString& path) {
-  return withExportLegend(
-      [&] { return charts::exportChartSvg(*linked_, path, exportSize(), linked_->title()); });
+QString ChartPanel::exportSvg(const QString& path, const QStringList& footer) {
+  if (linked_ == nullptr) return tr("there is no chart to export yet");
+  return charts::exportChartSvg(*linked_, path, exportSize(), linked_->title(), footer);
 }
 
 }  // namespace calivera::ui

@@ -23,8 +23,9 @@ class ChartPanel : public QChartView {
   charts::LinkedChart* linkedChart() const { return linked_; }
 
   // Exports at the view's current size (at least 900 x 600); empty string on success.
-  QString exportPng(const QString& path);
-  QString exportSvg(const QString& path);
+  // `footer`: lines printed below the chart (the caution, fingerprints, date).
+  QString exportPng(const QString& path, const QStringList& footer = {});
+  QString exportSvg(const QString& path, const QStringList& footer = {});
 
   // Chart coordinates of a widget position (for tests and the click handler).
   QPointF valueAt(QPoint widgetPos) const;
@@ -45,8 +46,6 @@ class ChartPanel : public QChartView {
  private:
   QSize exportSize() const;
   void placeLegend();
-  template <class Export>
-  QString withExportLegend(Export exportChart);
   charts::LinkedChart* linked_ = nullptr;
   LegendStrip* legend_ = nullptr;
 };
