@@ -2,6 +2,7 @@
 // right-to-left override is written out instead of reversing what follows, and a 400-character
 // name is cut (full name in the tooltip) instead of widening the window.
 // Data: MASS::birthwt (Debian r-cran-mass).
+#include <QComboBox>
 #include <QFile>
 #include <QLabel>
 #include <QTableView>
@@ -13,6 +14,8 @@
 #include "core/model/model_io.h"
 #include "ui/async/background_job.h"
 #include "ui/main_window.h"
+#include "ui/views/chart_panel.h"
+#include "ui/views/predictor_view.h"
 
 using namespace calivera;
 using namespace calivera::ui;
@@ -105,6 +108,49 @@ class HostileNamesUiTest : public QObject {
       }
     }
     QVERIFY(cut);
+    QVERIFY(w.minimumSizeHint().width() < 1366);
+  }
+  // A predictor named with a right-to-left override and 300 more characters: the Predictor space
+  // view's choices and held-values table show it written out and cut (whole in the tooltip), and
+  // choosing it still draws its curve (the view computes with the whole name).
+  void predictorNamesAreCutButStillWork() {
+    QTemporaryDir dir;
+    QVERIFY(dir.isValid());
+    QFile in(CALIVERA_SOURCE_DIR "/tests/reference/data/birthwt.csv");
+    QVERIFY(in.open(QIODevice::ReadOnly));
+    QByteArray text = in.readAll();
+    const std::string longName = "lwt\u202E" + std::string(300, 'y');
+    text.replace(",lwt,", QByteArray(",") + QByteArray::fromStdString(longName) + ",");
+    const QString data = dir.filePath("hostile.csv");
+    QFile out(data);
+    QVERIFY(out.open(QIODevice::WriteOnly));
+    out.write(text);
+    out.close();
+    CohortFitSpec spec;
+    spec.outcome = OutcomeSpec{"low", std::nullopt};
+    spec.predictors = {"age", longName};
+    const QString model = dir.filePath("m.json");
+    writeModelFile(model.toStdString(),
+                   fitCohortModel(readCsvFile(data.toStdString(), CsvOptions{}).table, spec).model);
+    MainWindow w;
+    w.resize(1366, 768);
+    w.show();
+    ImportSettings import;
+    import.outcomeColumn = "low";
+    QVERIFY(w.controller().openInputs(data, model, import));
+    QTRY_VERIFY_WITH_TIMEOUT(!w.controller().job()->isRunning(), 60000);
+    auto* first = w.findChild<QComboBox*>("predictorFirst");
+    QVERIFY(first != nullptr);
+    const int at = first->findData(QString::fromStdString(longName));
+    QVERIFY(at >= 0);
+    QVERIFY(!first->itemText(at).contains(QChar(0x202E)));
+    QVERIFY(first->itemText(at).contains("[U+202E]"));
+    QVERIFY(first->itemText(at).size() < 60);
+    QVERIFY(first->itemData(at, Qt::ToolTipRole).toString().contains(QString(300, 'y')));
+    auto* view = w.findChild<PredictorView*>("predictorView");
+    view->choose(QString::fromStdString(longName), QString());
+    QCOMPARE(first->currentIndex(), at);
+    QVERIFY(view->chartPanels().front()->linkedChart() != nullptr);
     QVERIFY(w.minimumSizeHint().width() < 1366);
   }
 };

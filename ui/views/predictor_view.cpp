@@ -9,6 +9,7 @@
 #include <QTableWidget>
 #include <QVBoxLayout>
 
+#include "core/util/shown_text.h"
 #include "render/charts/predictor_charts.h"
 #include "ui/views/chart_panel.h"
 
@@ -64,8 +65,9 @@ PredictorView::PredictorView(QWidget* parent) : QWidget(parent) {
   connect(first_, &QComboBox::currentIndexChanged, this, changed);
   connect(second_, &QComboBox::currentIndexChanged, this, changed);
   connect(heldTable_, &QTableWidget::cellChanged, this, [this](int row, int column) {
-    if (updating_ || column != 1) return;
-    held_[heldTable_->item(row, 0)->text().toStdString()] =
+    if (updating_ || column != 1 || row < 0 || row >= static_cast<int>(predictors_.size())) return;
+    // The row's predictor by position: the name cell shows a cut name.
+    held_[predictors_[static_cast<std::size_t>(row)].variable] =
         heldTable_->item(row, 1)->text().trimmed().toStdString();
     rebuildChart();
   });
@@ -96,11 +98,17 @@ void PredictorView::setData(const Model* model, std::shared_ptr<const CohortData
   second_->addItem(tr("(none: risk curve)"));
   for (const PredictorInfo& p : predictors_) {
     if (!p.numeric) continue;
-    first_->addItem(q(p.variable));
-    second_->addItem(q(p.variable));
+    // Names from the model file: shown with controls written out and cut, kept whole as the
+    // item's data (what the view computes with) and in its tooltip.
+    const QString shown = q(visibleName(p.variable, 40));
+    const QString whole = q(visibleName(p.variable, 4096));
+    for (QComboBox* combo : {first_, second_}) {
+      combo->addItem(shown, q(p.variable));
+      combo->setItemData(combo->count() - 1, whole, Qt::ToolTipRole);
+    }
   }
-  if (!chosen.empty()) first_->setCurrentIndex(std::max(0, first_->findText(q(chosen[0]))));
-  second_->setCurrentIndex(chosen.size() > 1 ? std::max(0, second_->findText(q(chosen[1]))) : 0);
+  if (!chosen.empty()) first_->setCurrentIndex(std::max(0, first_->findData(q(chosen[0]))));
+  second_->setCurrentIndex(chosen.size() > 1 ? std::max(0, second_->findData(q(chosen[1]))) : 0);
   updating_ = false;
   rebuildHeldTable();
   rebuildChart(false);  // the study's own choices: nothing for the study to record
@@ -108,8 +116,8 @@ void PredictorView::setData(const Model* model, std::shared_ptr<const CohortData
 
 void PredictorView::choose(const QString& first, const QString& second) {
   updating_ = true;
-  first_->setCurrentIndex(std::max(0, first_->findText(first)));
-  second_->setCurrentIndex(second.isEmpty() ? 0 : std::max(0, second_->findText(second)));
+  first_->setCurrentIndex(std::max(0, first_->findData(first)));
+  second_->setCurrentIndex(second.isEmpty() ? 0 : std::max(0, second_->findData(second)));
   updating_ = false;
   rebuildChart();
 }
@@ -119,7 +127,7 @@ void PredictorView::rebuildHeldTable() {
   heldTable_->setRowCount(static_cast<int>(predictors_.size()));
   for (int row = 0; row < static_cast<int>(predictors_.size()); ++row) {
     const PredictorInfo& p = predictors_[static_cast<std::size_t>(row)];
-    auto* name = new QTableWidgetItem(q(p.variable));
+    auto* name = new QTableWidgetItem(q(visibleName(p.variable, 40)));
     name->setFlags(name->flags() & ~Qt::ItemIsEditable);
     QString tip = p.numeric ? tr("Cohort range %1 to %2, median %3")
                                   .arg(p.lo, 0, 'g', 6)
@@ -130,7 +138,7 @@ void PredictorView::rebuildHeldTable() {
                                 for (const auto& l : p.levels) s += (s.empty() ? "" : ", ") + l;
                                 return s;
                               }()));
-    name->setToolTip(tip);
+    name->setToolTip(q(visibleName(p.variable, 4096)) + QStringLiteral("\n") + tip);
     const auto it = held_.find(p.variable);
     auto* value = new QTableWidgetItem(q(it == held_.end() ? p.defaultValue : it->second));
     value->setToolTip(tip);
@@ -157,8 +165,9 @@ void PredictorView::rebuildChart(bool userChoice) {
                                      : tr("Load a model and run the validation first."));
     return;
   }
-  const std::string x = first_->currentText().toStdString();
-  const std::string y = second_->currentIndex() > 0 ? second_->currentText().toStdString() : "";
+  const std::string x = first_->currentData().toString().toStdString();
+  const std::string y =
+      second_->currentIndex() > 0 ? second_->currentData().toString().toStdString() : "";
   std::vector<std::string> chosen{x};
   if (!y.empty()) chosen.push_back(y);
   try {
