@@ -12,6 +12,7 @@
 #include "core/data/csv_reader.h"
 #include "core/fit/cohort_fit.h"
 #include "core/model/model_io.h"
+#include "tests/ui/birthwt_variant.h"
 #include "ui/async/background_job.h"
 #include "ui/main_window.h"
 #include "ui/views/chart_panel.h"
@@ -22,6 +23,29 @@ using namespace calivera::ui;
 
 class HostileNamesUiTest : public QObject {
   Q_OBJECT
+
+ private:
+  // A model fitted on `data` (outcome `low`) with `predictors`, written into `dir`.
+  static QString writeModel(const QTemporaryDir& dir, const QString& data,
+                            const std::vector<std::string>& predictors) {
+    CohortFitSpec spec;
+    spec.outcome = OutcomeSpec{"low", std::nullopt};
+    spec.predictors = predictors;
+    const QString model = dir.filePath("m.json");
+    writeModelFile(model.toStdString(),
+                   fitCohortModel(readCsvFile(data.toStdString(), CsvOptions{}).table, spec).model);
+    return model;
+  }
+
+  // The window at the smallest common laptop size, with the cohort and model validated.
+  static void openInWindow(MainWindow& w, const QString& data, const QString& model) {
+    w.resize(1366, 768);
+    w.show();
+    ImportSettings import;
+    import.outcomeColumn = "low";
+    QVERIFY(w.controller().openInputs(data, model, import));
+    QTRY_VERIFY_WITH_TIMEOUT(!w.controller().job()->isRunning(), 60000);
+  }
 
  private slots:
   void namesShowPlainVisibleAndShort() {
@@ -59,30 +83,14 @@ class HostileNamesUiTest : public QObject {
   void subgroupNamesAreEscapedAndCut() {
     QTemporaryDir dir;
     QVERIFY(dir.isValid());
-    QFile in(CALIVERA_SOURCE_DIR "/tests/reference/data/birthwt.csv");
-    QVERIFY(in.open(QIODevice::ReadOnly));
-    QByteArray text = in.readAll();
     const QByteArray longLevel = "L" + QByteArray(300, 'v');
-    text.replace("race,", "<i>group</i>,");  // the header's column name
-    text.replace(",black,", "," + longLevel + ",");
-    const QString data = dir.filePath("hostile.csv");
-    QFile out(data);
-    QVERIFY(out.open(QIODevice::WriteOnly));
-    out.write(text);
-    out.close();
-    CohortFitSpec spec;
-    spec.outcome = OutcomeSpec{"low", std::nullopt};
-    spec.predictors = {"age", "lwt"};
-    const QString model = dir.filePath("m.json");
-    writeModelFile(model.toStdString(),
-                   fitCohortModel(readCsvFile(data.toStdString(), CsvOptions{}).table, spec).model);
+    const QString data =
+        calivera::testing::writeBirthwtVariant(dir.filePath("hostile.csv"), [&](QByteArray& text) {
+          text.replace("race,", "<i>group</i>,");  // the header's column name
+          text.replace(",black,", "," + longLevel + ",");
+        });
     MainWindow w;
-    w.resize(1366, 768);
-    w.show();
-    ImportSettings import;
-    import.outcomeColumn = "low";
-    QVERIFY(w.controller().openInputs(data, model, import));
-    QTRY_VERIFY_WITH_TIMEOUT(!w.controller().job()->isRunning(), 60000);
+    openInWindow(w, data, writeModel(dir, data, {"age", "lwt"}));
     UncertaintySettings settings;
     settings.subgroupColumns = {"<i>group</i>"};
     QVERIFY(w.controller().runUncertainty(settings));
@@ -116,29 +124,13 @@ class HostileNamesUiTest : public QObject {
   void predictorNamesAreCutButStillWork() {
     QTemporaryDir dir;
     QVERIFY(dir.isValid());
-    QFile in(CALIVERA_SOURCE_DIR "/tests/reference/data/birthwt.csv");
-    QVERIFY(in.open(QIODevice::ReadOnly));
-    QByteArray text = in.readAll();
     const std::string longName = "lwt\u202E" + std::string(300, 'y');
-    text.replace(",lwt,", QByteArray(",") + QByteArray::fromStdString(longName) + ",");
-    const QString data = dir.filePath("hostile.csv");
-    QFile out(data);
-    QVERIFY(out.open(QIODevice::WriteOnly));
-    out.write(text);
-    out.close();
-    CohortFitSpec spec;
-    spec.outcome = OutcomeSpec{"low", std::nullopt};
-    spec.predictors = {"age", longName};
-    const QString model = dir.filePath("m.json");
-    writeModelFile(model.toStdString(),
-                   fitCohortModel(readCsvFile(data.toStdString(), CsvOptions{}).table, spec).model);
+    const QString data =
+        calivera::testing::writeBirthwtVariant(dir.filePath("hostile.csv"), [&](QByteArray& text) {
+          text.replace(",lwt,", QByteArray(",") + QByteArray::fromStdString(longName) + ",");
+        });
     MainWindow w;
-    w.resize(1366, 768);
-    w.show();
-    ImportSettings import;
-    import.outcomeColumn = "low";
-    QVERIFY(w.controller().openInputs(data, model, import));
-    QTRY_VERIFY_WITH_TIMEOUT(!w.controller().job()->isRunning(), 60000);
+    openInWindow(w, data, writeModel(dir, data, {"age", longName}));
     auto* first = w.findChild<QComboBox*>("predictorFirst");
     QVERIFY(first != nullptr);
     const int at = first->findData(QString::fromStdString(longName));

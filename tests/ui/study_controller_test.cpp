@@ -14,6 +14,7 @@
 #include "core/fit/cohort_fit.h"
 #include "core/model/model_io.h"
 #include "core/study/study_file.h"
+#include "tests/ui/birthwt_variant.h"
 #include "tests/unit/study_fixture.h"
 #include "ui/async/background_job.h"
 #include "ui/dialogs/mapping_dialog.h"
@@ -153,15 +154,9 @@ class StudyControllerTest : public QObject {
     const QString model = dir_.filePath("race.json");
     calivera::testing::writeBirthwtModel(kBirthwt, {"age", "lwt", "race", "smoke"},
                                          model.toStdString());
-    QFile in(QString::fromStdString(kBirthwt));
-    QVERIFY(in.open(QIODevice::ReadOnly));
-    QByteArray text = in.readAll();
-    text.replace(",black,", ",Black,");
-    const QString respelled = dir_.filePath("respelled.csv");
-    QFile out(respelled);
-    QVERIFY(out.open(QIODevice::WriteOnly));
-    out.write(text);
-    out.close();
+    const QString respelled = calivera::testing::writeBirthwtVariant(
+        dir_.filePath("respelled.csv"),
+        [](QByteArray& text) { text.replace(",black,", ",Black,"); });
 
     StudyController original;
     ImportSettings import;
