@@ -3,6 +3,7 @@
 #include <QApplication>
 #include <QCheckBox>
 #include <QClipboard>
+#include <QDateTime>
 #include <QDir>
 #include <QDragEnterEvent>
 #include <QDropEvent>
@@ -269,9 +270,14 @@ QStringList MainWindow::exportFooter() const {
     }
     lines << model;
   }
-  QString exported =
-      tr("Exported %1  ·  Calivera %2")
-          .arg(toQ(formatUtcTimestamp(reportTimestamp())), QStringLiteral(CALIVERA_VERSION));
+  long long when = 0;
+  try {
+    when = reportTimestamp();  // SOURCE_DATE_EPOCH when set, for reproducible exports
+  } catch (const InputError&) {
+    when = QDateTime::currentSecsSinceEpoch();  // a malformed variable must not stop an export
+  }
+  QString exported = tr("Exported %1  ·  Calivera %2")
+                         .arg(toQ(formatUtcTimestamp(when)), QStringLiteral(CALIVERA_VERSION));
   if (study().result) {
     exported += tr("  ·  %1 patients analysed, %2 events")
                     .arg(study().result->cohort.n)

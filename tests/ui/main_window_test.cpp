@@ -550,6 +550,12 @@ class MainWindowTest : public QObject {
     }
     QCOMPARE(w.exportFooter().front(), cautionText());
     QVERIFY(w.exportFooter().back().contains("Calivera"));
+    // A malformed SOURCE_DATE_EPOCH does not stop an export (the report refuses it; a chart
+    // export falls back to the current time).
+    qputenv("SOURCE_DATE_EPOCH", "not a number");
+    QVERIFY(w.exportFooter().back().contains("UTC"));
+    QCOMPARE(w.exportAllCharts(path("exports_again")), QString());
+    qunsetenv("SOURCE_DATE_EPOCH");
     auto* table = child<QTableView>(w, "thresholdTable");
     const QString csv = path("thresholds.csv");
     QCOMPARE(writeTableCsv(*table->model(), csv), QString());
