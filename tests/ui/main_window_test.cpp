@@ -23,6 +23,7 @@
 #include <QSpinBox>
 #include <QTabWidget>
 #include <QTableView>
+#include <QTableWidget>
 #include <QTemporaryDir>
 #include <QTextBrowser>
 #include <QTimer>
@@ -591,7 +592,18 @@ class MainWindowTest : public QObject {
     QVERIFY2(std::abs(curve->cutPoints().front() - ageCut) < 0.05,
              qPrintable(QString("%1 vs %2").arg(curve->cutPoints().front()).arg(ageCut)));
 
+    // The held-values table lists the held predictors only, never an axis variable.
+    const auto heldRowShown = [&](const QString& name) {
+      auto* held = view->findChild<QTableWidget*>("predictorHeld");
+      for (int row = 0; row < held->rowCount(); ++row) {
+        if (held->item(row, 0)->text() == name) return !held->isRowHidden(row);
+      }
+      return false;
+    };
+    QVERIFY(!heldRowShown("age"));
+    QVERIFY(heldRowShown("marker"));
     view->choose("age", "marker");
+    QVERIFY(!heldRowShown("age") && !heldRowShown("marker"));
     auto* boundary = dynamic_cast<charts::BoundaryChart*>(view->panel()->linkedChart());
     QVERIFY(boundary != nullptr);
     QVERIFY(!boundary->boundary().empty());

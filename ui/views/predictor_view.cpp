@@ -170,6 +170,11 @@ void PredictorView::rebuildChart(bool userChoice) {
       second_->currentIndex() > 0 ? second_->currentData().toString().toStdString() : "";
   std::vector<std::string> chosen{x};
   if (!y.empty()) chosen.push_back(y);
+  // Only the predictors that are held are listed as held: the axis variables vary.
+  for (int row = 0; row < heldTable_->rowCount(); ++row) {
+    const std::string& variable = predictors_[static_cast<std::size_t>(row)].variable;
+    heldTable_->setRowHidden(row, variable == x || variable == y);
+  }
   try {
     charts::LinkedChart* chart = nullptr;
     if (y.empty() || y == x) {
