@@ -1,11 +1,13 @@
 #!/usr/bin/env bash
 # Renders what users see into docs/: the workstation's main window and each view, the model tool
-# dialogs (offscreen, 1280x800, from the Qt tests' screenshot slots) and the sample PDF audit
+# dialogs (offscreen, 1920x1080 unless CALIVERA_SCREENSHOT_SIZE says otherwise, from the Qt tests'
+# screenshot slots) and the sample PDF audit
 # report's pages. Run after scripts/build.sh; look at the PNGs before committing them.
 set -euo pipefail
 cd "$(dirname "$0")/.."
 export QT_QPA_PLATFORM=offscreen
-export CALIVERA_SCREENSHOT_DIR="$PWD/docs/screenshots"
+export CALIVERA_SCREENSHOT_DIR="${CALIVERA_SCREENSHOT_DIR:-$PWD/docs/screenshots}"
+export CALIVERA_SCREENSHOT_SIZE="${CALIVERA_SCREENSHOT_SIZE:-1920x1080}"
 mkdir -p "$CALIVERA_SCREENSHOT_DIR" docs/report
 build/bin/main_window_test screenshots >/dev/null
 build/bin/model_tools_test screenshots >/dev/null

@@ -26,6 +26,7 @@
 #include <QTableView>
 #include <QTextBrowser>
 #include <QToolBar>
+#include <QUndoStack>
 #include <QVBoxLayout>
 #include <algorithm>
 
@@ -108,10 +109,10 @@ MainWindow::MainWindow(QWidget* parent) : QMainWindow(parent) {
   subgroupView_ = new SubgroupView;
   connect(subgroupView_, &SubgroupView::thresholdPicked, controller_,
           &StudyController::setThreshold);
-  connect(subgroupView_->chartPanel(), &ChartPanel::exportRequested, this,
-          &MainWindow::onExportChart);
+  connectChartMenu(subgroupView_->chartPanel());
   connect(subgroupView_->chartPanel(), &ChartPanel::nudgeRequested, this,
           &MainWindow::nudgeThreshold);
+  connectChartMenu(predictorView_->panel());
   tabs_->addTab(subgroupView_, tr("S&ubgroups"));
   layout->addWidget(tabs_, 1);
 
@@ -266,8 +267,11 @@ void MainWindow::buildMenus() {
   actionExportTable_ =
       add(file, QStringLiteral("actionExportTable"), tr("Export current &table as CSV…"),
           QKeySequence(Qt::CTRL | Qt::SHIFT | Qt::Key_E), &MainWindow::onExportTable);
-  actionExportReport_ = add(file, QStringLiteral("actionExportReport"), tr("Export &report…"),
-                            QKeySequence(Qt::CTRL | Qt::Key_P), &MainWindow::onExportReport);
+  actionExportReport_ =
+      add(file, QStringLiteral("actionExportReport"), tr("Export &report…"),
+          QKeySequence(Qt::CTRL | Qt::SHIFT | Qt::Key_P), &MainWindow::onExportReport);
+  actionPrintReport_ = add(file, QStringLiteral("actionPrintReport"), tr("&Print report…"),
+                           QKeySequence::Print, &MainWindow::onPrintReport);
   file->addSeparator();
   QAction* quit = file->addAction(tr("&Quit"));
   quit->setObjectName(QStringLiteral("actionQuit"));
@@ -320,6 +324,14 @@ void MainWindow::buildMenus() {
 
   QMenu* edit = menuBar()->addMenu(tr("&Edit"));
   edit->setObjectName(QStringLiteral("menuEdit"));
+  actionUndo_ =
+      add(edit, QStringLiteral("actionUndo"), tr("&Undo"), QKeySequence::Undo, &MainWindow::onUndo);
+  actionRedo_ =
+      add(edit, QStringLiteral("actionRedo"), tr("&Redo"), QKeySequence::Redo, &MainWindow::onRedo);
+  QUndoStack* history = controller_->undoStack();
+  connect(history, &QUndoStack::indexChanged, this, &MainWindow::updateActions);
+  connect(history, &QUndoStack::cleanChanged, this, &MainWindow::updateActions);
+  edit->addSeparator();
   QAction* copy = add(edit, QStringLiteral("actionCopyTable"), tr("&Copy selected table rows"),
                       QKeySequence::Copy, &MainWindow::onCopyTable);
   copy->setShortcutContext(Qt::WidgetWithChildrenShortcut);
@@ -404,7 +416,7 @@ QWidget* MainWindow::buildLinkedViewsTab() {
   gridLayout->addWidget(distribution_, 1, 1);
   for (ChartPanel* panel : {roc_, calibration_, decision_, distribution_}) {
     connect(panel, &ChartPanel::thresholdPicked, controller_, &StudyController::setThreshold);
-    connect(panel, &ChartPanel::exportRequested, this, &MainWindow::onExportChart);
+    connectChartMenu(panel);
     connect(panel, &ChartPanel::nudgeRequested, this, &MainWindow::nudgeThreshold);
   }
   confusion_ = new ConfusionPanel;
@@ -535,6 +547,13 @@ void MainWindow::updateActions() {
   actionExportCharts_->setEnabled(study.result != nullptr);
   actionExportTable_->setEnabled(study.result != nullptr);
   actionExportReport_->setEnabled(reportExportAvailable() && study.result != nullptr);
+  actionPrintReport_->setEnabled(reportExportAvailable() && study.result != nullptr);
+  // The history says what a step would change: "Undo threshold 0.200".
+  const QUndoStack* history = controller_->undoStack();
+  actionUndo_->setEnabled(!busy && history->canUndo());
+  actionUndo_->setText(history->canUndo() ? tr("&Undo %1").arg(history->undoText()) : tr("&Undo"));
+  actionRedo_->setEnabled(!busy && history->canRedo());
+  actionRedo_->setText(history->canRedo() ? tr("&Redo %1").arg(history->redoText()) : tr("&Redo"));
 }
 
 }  // namespace calivera::ui

@@ -130,6 +130,12 @@ class MainWindow : public QMainWindow {
   void onSaveStudy(bool askPath);
   void onExportCharts();
   void onExportChart(ChartPanel* panel);
+  void onCopyChart(ChartPanel* panel);
+  void onPrintReport();
+  void onUndo();
+  void onRedo();
+  // The chart's context menu: copy and export, both with exportFooter().
+  void connectChartMenu(ChartPanel* panel);
   void onExportTable();
   void onCopyTable();
   void onExportReport();
@@ -180,6 +186,9 @@ class MainWindow : public QMainWindow {
   QAction* actionInternal_ = nullptr;
   QAction* actionUpdate_ = nullptr;
   QAction* actionExportCharts_ = nullptr;
+  QAction* actionPrintReport_ = nullptr;
+  QAction* actionUndo_ = nullptr;
+  QAction* actionRedo_ = nullptr;
   QAction* actionExportTable_ = nullptr;
   QAction* actionExportReport_ = nullptr;
   UnsavedChangesPrompt askUnsaved_;

@@ -37,6 +37,7 @@
 #include "ui/dialogs/fit_dialog.h"
 #include "ui/dialogs/import_dialog.h"
 #include "ui/dialogs/mapping_dialog.h"
+#include "ui/dialogs/report_print.h"
 #include "ui/dialogs/uncertainty_dialog.h"
 #include "ui/main_window.h"
 #include "ui/models/record_table_model.h"
@@ -49,6 +50,7 @@
 #include "ui/views/predictor_view.h"
 #include "ui/views/subgroup_view.h"
 #include "ui/views/summary_html.h"
+#include "ui/views/table_context_menu.h"
 #include "ui/views/threshold_bar.h"
 
 #if __has_include("ui/dialogs/report_export_dialog.h")
@@ -444,6 +446,18 @@ void MainWindow::onExportChart(ChartPanel* panel) {
   }
 }
 
+void MainWindow::onCopyChart(ChartPanel* panel) {
+  if (panel->copyImage(exportFooter())) {
+    showMessage(tr("Chart copied as an image, with the caution and the inputs' fingerprints."),
+                false);
+  }
+}
+
+void MainWindow::connectChartMenu(ChartPanel* panel) {
+  connect(panel, &ChartPanel::exportRequested, this, &MainWindow::onExportChart);
+  connect(panel, &ChartPanel::copyRequested, this, &MainWindow::onCopyChart);
+}
+
 namespace {
 
 // The table the user is looking at: the visible table in the Tables or Model tab, or the
@@ -466,20 +480,7 @@ QTableView* currentTable(QTabWidget* tabs, QTableView* fallback) {
 }  // namespace
 
 void MainWindow::onExportTable() {
-  QTableView* view = currentTable(tabs_, thresholdTable_);
-  // A core table is offered under the name the command line's --csv-dir gives it.
-  const ResultTable* core = coreTableOf(*view->model());
-  const QString name =
-      core != nullptr ? QString::fromStdString(core->fileName) : view->objectName() + ".csv";
-  const QString path =
-      QFileDialog::getSaveFileName(this, tr("Export table as CSV"), name, tr("CSV (*.csv)"));
-  if (path.isEmpty()) return;
-  const QString error = writeTableCsv(*view->model(), path);
-  if (error.isEmpty()) {
-    showMessage(tr("Table saved to %1").arg(path), false);
-  } else {
-    showMessage(tr("Export failed: %1").arg(error), true);
-  }
+  exportTableInteractively(currentTable(tabs_, thresholdTable_));
 }
 
 void MainWindow::onCopyTable() {
@@ -499,6 +500,18 @@ void MainWindow::onExportReport() {
 #else
   showMessage(tr("The PDF report export is not available in this build."), true);
 #endif
+}
+
+void MainWindow::onUndo() {
+  controller_->undo();
+}
+
+void MainWindow::onRedo() {
+  controller_->redo();
+}
+
+void MainWindow::onPrintReport() {
+  showPrintReportDialog(this, study(), controller_->savedStudyFile());
 }
 
 void MainWindow::addRecentStudy(const QString& path) {

@@ -28,6 +28,8 @@ StudyController::StudyController(QObject* parent) : QObject(parent) {
   setObjectName(QStringLiteral("studyController"));
   job_ = new BackgroundJob(this);
   job_->setObjectName(QStringLiteral("backgroundJob"));
+  undoStack_ = new QUndoStack(this);
+  undoStack_->setObjectName(QStringLiteral("settingsUndoStack"));
 }
 
 StudyController::~StudyController() = default;
@@ -56,15 +58,18 @@ void StudyController::markSaved() {
 }
 
 bool StudyController::startPipeline(PipelineRequest request, const QString& description,
-                                    const QString& studyPathOnSuccess, const QString& leadNote) {
+                                    const QString& studyPathOnSuccess, const QString& leadNote,
+                                    RunHistory history) {
   if (refuseWhileBusy()) return false;
   std::function<PipelineOutput(const ProgressCallback&)> work =
       [request = std::move(request)](const ProgressCallback& progress) {
         return runPipeline(request, progress);
       };
-  std::function<void(PipelineOutput&)> done = [this, studyPathOnSuccess,
-                                               leadNote](PipelineOutput& out) {
+  std::function<void(PipelineOutput&)> done = [this, studyPathOnSuccess, leadNote,
+                                               history](PipelineOutput& out) {
+    if (history.clear) undoStack_->clear();
     applyPipeline(out, studyPathOnSuccess, leadNote);
+    if (history.before) recordSettings(*history.before, tr("Variable mapping"));
   };
   return job_->start<PipelineOutput>(description, work, done);
 }
@@ -150,6 +155,7 @@ bool StudyController::newStudy() {
   threshold_.clear();
   threshold_.setThreshold(study_.analysis.threshold);
   savedSnapshot_.clear();
+  undoStack_->clear();
   updateModified();
   emit studyPathChanged(studyPath_);
   emit resultsChanged();
@@ -243,7 +249,8 @@ bool StudyController::setColumnMapping(
   request.study.columnMapping = mapping;
   request.study.levelMapping = levels;
   request.table = table_;
-  return startPipeline(std::move(request), tr("Validating"), {});
+  return startPipeline(std::move(request), tr("Validating"), {}, {},
+                       RunHistory{false, settingsOf(study_)});
 }
 
 bool StudyController::runValidation() {
@@ -254,7 +261,7 @@ bool StudyController::runValidation() {
   PipelineRequest request;
   request.study = study_;
   request.table = table_;
-  return startPipeline(std::move(request), tr("Validating"), {});
+  return startPipeline(std::move(request), tr("Validating"), {}, {}, RunHistory{false, {}});
 }
 
 bool StudyController::runUncertainty(const UncertaintySettings& settings) {
@@ -280,10 +287,13 @@ bool StudyController::runUncertainty(const UncertaintySettings& settings) {
 }
 
 void StudyController::setThreshold(double threshold) {
+  const StudySettings before = settingsOf(study_);
   threshold_.setThreshold(threshold);
   study_.analysis.threshold = threshold_.threshold();
   updateModified();
   emit thresholdChanged(threshold_.threshold());
+  recordSettings(before, tr("threshold %1").arg(study_.analysis.threshold, 0, 'f', 3),
+                 SettingsCommand::Threshold);
 }
 
 bool StudyController::nudgeThreshold(int steps) {
@@ -293,20 +303,26 @@ bool StudyController::nudgeThreshold(int steps) {
 }
 
 void StudyController::setReasonableRange(double lo, double hi) {
+  const StudySettings before = settingsOf(study_);
   study_.analysis.reasonableLo = lo;
   study_.analysis.reasonableHi = hi;
   updateModified();
   emit resultsChanged();
+  recordSettings(before, tr("reasonable range"));
 }
 
 void StudyController::setGroups(int groups) {
+  const StudySettings before = settingsOf(study_);
   study_.analysis.groups = groups;
   updateModified();
+  recordSettings(before, tr("risk groups %1").arg(groups));
 }
 
 void StudyController::setApparent(bool apparent) {
+  const StudySettings before = settingsOf(study_);
   study_.analysis.apparent = apparent;
   updateModified();
+  recordSettings(before, tr("development-data statement"));
 }
 
 void StudyController::setReportSettings(const ReportSettings& report) {
@@ -316,9 +332,58 @@ void StudyController::setReportSettings(const ReportSettings& report) {
 
 void StudyController::setPredictorViewChoices(const std::vector<std::string>& chosen,
                                               const std::map<std::string, std::string>& held) {
+  const StudySettings before = settingsOf(study_);
   study_.predictorView = chosen;
   study_.heldValues = held;
   updateModified();
+  recordSettings(before, tr("predictor-space choices"));
+}
+
+void StudyController::recordSettings(const StudySettings& before, const QString& text,
+                                     SettingsCommand::Kind kind) {
+  if (restoring_) return;
+  StudySettings after = settingsOf(study_);
+  if (after == before) return;
+  undoStack_->push(new SettingsCommand(this, before, std::move(after), text, kind));
+}
+
+bool StudyController::undo() {
+  if (refuseWhileBusy() || !undoStack_->canUndo()) return false;
+  undoStack_->undo();
+  return true;
+}
+
+bool StudyController::redo() {
+  if (refuseWhileBusy() || !undoStack_->canRedo()) return false;
+  undoStack_->redo();
+  return true;
+}
+
+void StudyController::restoreSettings(const StudySettings& settings) {
+  const StudySettings now = settingsOf(study_);
+  if (settings.columnMapping != now.columnMapping || settings.levelMapping != now.levelMapping) {
+    // A mapping decides which columns are analysed: restore it through a run, keeping the
+    // history (this is the history moving).
+    PipelineRequest request;
+    request.study = study_;
+    applySettings(settings, request.study);
+    request.table = table_;
+    startPipeline(std::move(request), tr("Validating"), {}, {}, RunHistory{false, {}});
+    return;
+  }
+  StudySettings thresholdOnly = now;
+  thresholdOnly.threshold = settings.threshold;
+  restoring_ = true;
+  applySettings(settings, study_);
+  threshold_.setThreshold(study_.analysis.threshold);
+  study_.analysis.threshold = threshold_.threshold();
+  updateModified();
+  if (thresholdOnly == settings) {
+    emit thresholdChanged(threshold_.threshold());
+  } else {
+    emit resultsChanged();
+  }
+  restoring_ = false;
 }
 
 }  // namespace calivera::ui

@@ -17,6 +17,7 @@
 
 #include <QObject>
 #include <QString>
+#include <QUndoStack>
 #include <map>
 #include <memory>
 #include <string>
@@ -26,10 +27,18 @@
 #include "core/study/study.h"
 #include "core/study/study_pipeline.h"
 #include "core/study/threshold_state.h"
+#include "ui/settings_history.h"
 
 namespace calivera::ui {
 
 class BackgroundJob;
+
+// What a successful run does to the settings' undo history: a run on new inputs starts a new
+// history; a mapping change is one undoable step from `before`.
+struct RunHistory {
+  bool clear = true;
+  std::optional<StudySettings> before;
+};
 
 class StudyController : public QObject {
   Q_OBJECT
@@ -85,6 +94,15 @@ class StudyController : public QObject {
   void setPredictorViewChoices(const std::vector<std::string>& chosen,
                                const std::map<std::string, std::string>& held);
 
+  // Edit → Undo / Redo of the settings (settings_history.h). Refused with a message while a job
+  // runs (an undone mapping starts a run). The stack is cleared when the inputs change.
+  QUndoStack* undoStack() const { return undoStack_; }
+  bool undo();
+  bool redo();
+  // Puts `settings` in place (SettingsCommand calls this): at once for the threshold and the
+  // settings used at the next run, through a run for a changed mapping.
+  void restoreSettings(const StudySettings& settings);
+
   const StudyState& study() const { return study_; }
   const ThresholdState& thresholdState() const { return threshold_; }
   std::shared_ptr<const CohortData> cohort() const { return cohort_; }
@@ -103,7 +121,11 @@ class StudyController : public QObject {
  private:
   // `leadNote` is said before the run's own notes when it succeeds.
   bool startPipeline(PipelineRequest request, const QString& description,
-                     const QString& studyPathOnSuccess, const QString& leadNote = {});
+                     const QString& studyPathOnSuccess, const QString& leadNote = {},
+                     RunHistory history = RunHistory{});
+  // Pushes the change from `before` to the current settings (nothing when equal or restoring).
+  void recordSettings(const StudySettings& before, const QString& text,
+                      SettingsCommand::Kind kind = SettingsCommand::Other);
   void applyPipeline(PipelineOutput& output, const QString& studyPathOnSuccess,
                      const QString& leadNote);
   bool refuseWhileBusy();
@@ -121,6 +143,8 @@ class StudyController : public QObject {
   BackgroundJob* job_ = nullptr;
   std::string savedSnapshot_;
   bool modified_ = false;
+  QUndoStack* undoStack_ = nullptr;
+  bool restoring_ = false;
 };
 
 }  // namespace calivera::ui

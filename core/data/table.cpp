@@ -1,5 +1,6 @@
 #include "core/data/table.h"
 
+#include "core/data/column_hints.h"
 #include "core/util/errors.h"
 #include "core/util/shown_text.h"
 
@@ -19,8 +20,8 @@ const Column& Table::require(std::string_view name) const {
     available += available.empty() ? "" : ", ";
     available += column.name;
   }
-  throw InputError(sourceName + ": no column named '" + std::string(name) +
-                   "' (columns: " + available + ")");
+  throw InputError(sourceName + ": no column named '" + std::string(name) + "' (columns: " +
+                   available + ")." + closestColumnHint(*this, name) + delimiterHint(*this));
 }
 
 const Column& Table::requireNumeric(std::string_view name) const {
@@ -30,7 +31,8 @@ const Column& Table::requireNumeric(std::string_view name) const {
     const std::string text = column.firstNonNumeric ? column.firstNonNumeric->text : "";
     // Field text is echoed cut and with controls escaped (a 100 MB field, a NUL byte).
     throw InputError(sourceName + ":" + std::to_string(line) + ": column '" +
-                     shownText(column.name) + "': '" + shownText(text, 60) + "' is not a number");
+                     shownText(column.name) + "': '" + shownText(text, 60) + "' is not a number." +
+                     numberFieldHint(text));
   }
   return column;
 }

@@ -55,6 +55,7 @@ PreparedCohort prepareCohort(const Table& table, const OutcomeSpec& outcome, con
   }
   std::vector<std::string> columns{outcome.column};
   if (model) {
+    requireModelColumns(*model, table);  // names the term and how to map it
     for (const std::string& c : requiredColumns(*model)) {
       if (c != outcome.column) columns.push_back(c);
     }

@@ -5,6 +5,7 @@
 #include <cmath>
 #include <sstream>
 
+#include "core/data/column_hints.h"
 #include "core/model/category_levels.h"
 #include "core/util/errors.h"
 
@@ -52,6 +53,36 @@ double splineBasis(double x, const std::vector<double>& t, int j, bool scaled) {
   return value / (range * range);
 }
 
+std::string missingColumnMessage(const Model& model, const Table& table, const std::string& label,
+                                 const std::string& variable) {
+  const std::string name = mappedColumn(model, variable);
+  std::string available;
+  for (const Column& column : table.columns) {
+    available += (available.empty() ? "" : ", ") + column.name;
+  }
+  const std::string mapped = name == variable ? "" : " (mapped from '" + variable + "')";
+  const std::string modelText =
+      model.sourcePath.empty() ? "model '" + model.name + "'" : "model file " + model.sourcePath;
+  // Why it is missing decides the remedy: a near name (case, a typo) or another delimiter is
+  // named; otherwise the user pairs the variable with the cohort's own column.
+  return table.sourceName + ": " + modelText + ", term '" + label + "' needs column '" + name +
+         "'" + mapped + ", which the cohort lacks (columns: " + available + ")." +
+         closestColumnHint(table, name) + delimiterHint(table) +
+         " If the cohort holds this variable under another name, pair them: --map " + variable +
+         "=COLUMN on the command line, Model → Map variables in the workstation.";
+}
+
+void requireTermColumns(const Model& model, const Term& term, const Table& table) {
+  if (term.kind == TransformKind::Product) {
+    for (const Term& factor : term.factors) requireTermColumns(model, factor, table);
+    return;
+  }
+  if (table.find(mappedColumn(model, term.variable)) == nullptr) {
+    const std::string label = term.name.empty() ? term.variable : term.name;
+    throw InputError(missingColumnMessage(model, table, label, term.variable));
+  }
+}
+
 // One term bound to its cohort column, evaluated row by row.
 class BoundTerm {
  public:
@@ -63,19 +94,7 @@ class BoundTerm {
     }
     const std::string name = mappedColumn(model, term.variable);
     column_ = table.find(name);
-    if (!column_) {
-      std::string available;
-      for (const Column& column : table.columns) {
-        available += (available.empty() ? "" : ", ") + column.name;
-      }
-      const std::string mapped =
-          name == term.variable ? "" : " (mapped from '" + term.variable + "')";
-      const std::string modelText = model.sourcePath.empty() ? "model '" + model.name + "'"
-                                                             : "model file " + model.sourcePath;
-      throw InputError(table.sourceName + ": " + modelText + ", term '" + label() +
-                       "' needs column '" + name + "'" + mapped +
-                       ", which the cohort lacks (columns: " + available + ")");
-    }
+    if (!column_) throw InputError(missingColumnMessage(model, table, label(), term.variable));
     if (term.kind == TransformKind::Indicator) {
       bindIndicator();
     } else if (column_->kind == ColumnKind::Text) {
@@ -158,6 +177,10 @@ class BoundTerm {
 };
 
 }  // namespace
+
+void requireModelColumns(const Model& model, const Table& table) {
+  for (const Term& term : model.terms) requireTermColumns(model, term, table);
+}
 
 std::vector<std::string> requiredColumns(const Model& model) {
   std::vector<std::string> columns;

@@ -19,6 +19,12 @@ std::string mappedColumn(const Model& model, const std::string& variable);
 // Model variables (term variables and product factors), in first-use order, before mapping.
 std::vector<std::string> modelVariables(const Model& model);
 
+// Throws InputError when a term needs a column the cohort lacks: the message names the file, the
+// model, the term, the column (and the variable it is mapped from), the cohort's columns, a near
+// name or another delimiter when either is likely (core/data/column_hints.h), and how to pair the
+// variable with a cohort column (--map, Model → Map variables).
+void requireModelColumns(const Model& model, const Table& table);
+
 // Throws InputError when a term names a column the cohort lacks, a cohort level is unknown to the
 // model (core/model/category_levels.h), a numeric transformation meets a text column (naming file,
 // line and text), or a log/power term meets a value <= 0 (naming the line). One row per selected

@@ -98,7 +98,7 @@ void paintFooter(QPainter& painter, const QStringList& footer, QSize chartSize, 
 
 }  // namespace
 
-QString exportChartPng(QChart& chart, const QString& path, QSize size, const QStringList& footer) {
+QImage chartImage(QChart& chart, QSize size, const QStringList& footer) {
   constexpr int kScale = 2;
   const int band = footerHeight(footer, size.width());
   QImage image(QSize(size.width(), size.height() + band) * kScale,
@@ -111,6 +111,11 @@ QString exportChartPng(QChart& chart, const QString& path, QSize size, const QSt
     paintChartWithLegend(chart, painter, size);
     paintFooter(painter, footer, size, band);
   }
+  return image;
+}
+
+QString exportChartPng(QChart& chart, const QString& path, QSize size, const QStringList& footer) {
+  const QImage image = chartImage(chart, size, footer);
   QSaveFile file(path);
   if (!file.open(QIODevice::WriteOnly)) return file.errorString();
   if (!image.save(&file, "PNG")) return QStringLiteral("PNG encoding failed");

@@ -3,6 +3,7 @@
 // must not be shown in a QChartView at the same time (render the view's own chart with
 // exportViewChart* instead, which grabs what the user sees).
 
+#include <QImage>
 #include <QRectF>
 #include <QString>
 #include <QStringList>
@@ -21,6 +22,8 @@ void renderChart(QChart& chart, QPainter& painter, const QRectF& target);
 // inputs' fingerprints, the date) word-wrapped in a band below it, so a chart copied into another
 // document keeps what it shows and what it is not; return an empty string on success, otherwise
 // the reason. PNG is rendered at twice the pixel density for sharp lines.
+// The PNG export's image (also what Copy chart puts on the clipboard).
+QImage chartImage(QChart& chart, QSize size, const QStringList& footer = {});
 QString exportChartPng(QChart& chart, const QString& path, QSize size,
                        const QStringList& footer = {});
 QString exportChartSvg(QChart& chart, const QString& path, QSize size, const QString& title,

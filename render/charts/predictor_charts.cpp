@@ -1,7 +1,10 @@
 #include "render/charts/predictor_charts.h"
 
+#include <QGraphicsItem>
 #include <QImage>
 #include <QPainter>
+#include <QPainterPath>
+#include <QtCharts/QAreaSeries>
 #include <QtCharts/QLegendMarker>
 #include <QtCharts/QLineSeries>
 #include <QtCharts/QScatterSeries>
@@ -40,6 +43,78 @@ QLineSeries* thresholdLine(const QString& name) {
 
 }  // namespace
 
+QBrush flaggedBrush() {
+  QColor c = roleColor(SeriesRole::Threshold);
+  c.setAlpha(110);
+  return QBrush(c, Qt::BDiagPattern);
+}
+
+// Cells of the boundary chart's risk grid at or above the threshold, painted under the grid lines
+// and the patients: a light tint of the threshold's colour plus its hatch. A graphics item of the
+// chart (not a series) because QtCharts has no two-dimensional area series; it maps grid cells
+// to the plot with the chart's own mapping, so it follows resizing and exports.
+class FlaggedRegionItem : public QGraphicsItem {
+ public:
+  FlaggedRegionItem(QChart* chart, const BoundaryData* data, QAbstractSeries* anchor)
+      : QGraphicsItem(chart), chart_(chart), data_(data), anchor_(anchor) {
+    // Above the plot background (QtCharts draws it at z 0), below the grid lines and series.
+    setZValue(0.5);
+    QObject::connect(chart, &QChart::plotAreaChanged, chart,
+                     [this](const QRectF&) { prepareGeometryChange(); });
+  }
+  void setThreshold(double threshold) {
+    threshold_ = threshold;
+    update();
+  }
+  QRectF boundingRect() const override { return chart_->plotArea(); }
+  void paint(QPainter* painter, const QStyleOptionGraphicsItem*, QWidget*) override {
+    const std::size_t nx = data_->xs.size(), ny = data_->ys.size();
+    if (nx == 0 || ny == 0 || data_->risk.size() != nx * ny) return;
+    const std::vector<double> xEdges = edges(data_->xs);
+    const std::vector<double> yEdges = edges(data_->ys);
+    QPainterPath region;
+    region.setFillRule(Qt::WindingFill);
+    for (std::size_t j = 0; j < ny; ++j) {
+      std::size_t i = 0;
+      while (i < nx) {
+        if (!(data_->risk[j * nx + i] >= threshold_)) {
+          ++i;
+          continue;
+        }
+        std::size_t end = i;
+        while (end < nx && data_->risk[j * nx + end] >= threshold_) ++end;
+        const QPointF a = chart_->mapToPosition(QPointF(xEdges[i], yEdges[j]), anchor_);
+        const QPointF b = chart_->mapToPosition(QPointF(xEdges[end], yEdges[j + 1]), anchor_);
+        region.addRect(QRectF(a, b).normalized());
+        i = end;
+      }
+    }
+    painter->save();
+    painter->setClipRect(chart_->plotArea());
+    painter->setPen(Qt::NoPen);
+    QColor tint = roleColor(SeriesRole::Threshold);
+    tint.setAlpha(28);
+    painter->fillPath(region, tint);
+    painter->fillPath(region, flaggedBrush());
+    painter->restore();
+  }
+
+ private:
+  // Cell edges around grid coordinates: midpoints, and half a step beyond the ends.
+  static std::vector<double> edges(const std::vector<double>& g) {
+    std::vector<double> e(g.size() + 1);
+    if (g.size() == 1) return {g[0] - 0.5, g[0] + 0.5};
+    for (std::size_t k = 1; k < g.size(); ++k) e[k] = 0.5 * (g[k - 1] + g[k]);
+    e.front() = g.front() - (e[1] - g.front());
+    e.back() = g.back() + (g.back() - e[g.size() - 1]);
+    return e;
+  }
+  QChart* chart_;
+  const BoundaryData* data_;
+  QAbstractSeries* anchor_;
+  double threshold_ = 2.0;  // nothing flagged until the first threshold arrives
+};
+
 RiskCurveChart::RiskCurveChart(RiskCurveData data) : data_(std::move(data)) {
   applyChartStyle(this, QStringLiteral("Predicted risk against %1").arg(q(data_.variable)));
   double top = 0.05;
@@ -54,6 +129,12 @@ RiskCurveChart::RiskCurveChart(RiskCurveData data) : data_(std::move(data)) {
   addAxis(y, Qt::AlignLeft);
   auto attach = [&](QAbstractSeries* s) { addOnAxes(this, s, x, y); };
 
+  // The flagged side first, so the curve and the lines are drawn over it.
+  flagged_ = new QAreaSeries(new QLineSeries(this));
+  flagged_->setName(QStringLiteral("Flagged (risk at or above the threshold)"));
+  flagged_->setBrush(flaggedBrush());
+  flagged_->setPen(Qt::NoPen);
+  attach(flagged_);
   auto* rug = new QScatterSeries;
   rug->setName(QStringLiteral("Cohort values"));
   QImage tick(3, 14, QImage::Format_ARGB32);
@@ -92,6 +173,21 @@ void RiskCurveChart::setThreshold(const ThresholdSnapshot& snapshot) {
   if (data_.x.empty()) return;
   level_->replace({QPointF(data_.x.front(), t), QPointF(data_.x.back(), t)});
   cuts_ = crossings(data_, t);
+  // A step along the curve: the plot's height where risk >= t, nothing elsewhere, with vertical
+  // edges at the crossings (interpolated between grid points as crossings() does).
+  QList<QPointF> step;
+  for (std::size_t i = 0; i < data_.x.size(); ++i) {
+    const bool on = data_.risk[i] >= t;
+    if (i > 0 && on != (data_.risk[i - 1] >= t)) {
+      const double r0 = data_.risk[i - 1], r1 = data_.risk[i];
+      const double f = r1 != r0 ? (t - r0) / (r1 - r0) : 0.0;
+      const double xc = data_.x[i - 1] + f * (data_.x[i] - data_.x[i - 1]);
+      step.append(QPointF(xc, on ? 0.0 : yMax_));
+      step.append(QPointF(xc, on ? yMax_ : 0.0));
+    }
+    step.append(QPointF(data_.x[i], on ? yMax_ : 0.0));
+  }
+  flagged_->upperSeries()->replace(step);
   for (int k = 0; k < kMaxCuts; ++k) {
     if (k < static_cast<int>(cuts_.size())) {
       cutLines_[k]->replace({QPointF(cuts_[k], 0), QPointF(cuts_[k], yMax_)});
@@ -156,8 +252,15 @@ BoundaryChart::BoundaryChart(BoundaryData data) : data_(std::move(data)) {
   for (const BoundaryPatient& p : data_.patients) (p.event ? a : b).append(QPointF(p.x, p.y));
   without->replace(b);
   with->replace(a);
+  // The legend's swatch for the flagged side (an empty area with the item's brush).
+  auto* swatch = new QAreaSeries(new QLineSeries(this));
+  swatch->setName(QStringLiteral("Flagged side (risk at or above the threshold)"));
+  swatch->setBrush(flaggedBrush());
+  swatch->setPen(Qt::NoPen);
+  attach(swatch);
   attach(without);
   attach(with);
+  flagged_ = new FlaggedRegionItem(this, &data_, without);
 
   for (int k = 0; k < kMaxPieces; ++k) {
     auto* piece = new QLineSeries;
@@ -172,6 +275,7 @@ BoundaryChart::BoundaryChart(BoundaryData data) : data_(std::move(data)) {
 }
 
 void BoundaryChart::setThreshold(const ThresholdSnapshot& snapshot) {
+  flagged_->setThreshold(snapshot.threshold);
   boundary_ = contourAt(data_, snapshot.threshold);
   for (int k = 0; k < kMaxPieces; ++k) {
     if (k < static_cast<int>(boundary_.size())) {

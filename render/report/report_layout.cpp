@@ -3,8 +3,8 @@
 #include <QFont>
 #include <QFontMetricsF>
 #include <QPageLayout>
+#include <QPagedPaintDevice>
 #include <QPainter>
-#include <QPdfWriter>
 #include <algorithm>
 
 #include "render/report/report_charts.h"
@@ -46,13 +46,14 @@ QString q(const std::string& text) {
 
 class PageComposer {
  public:
-  PageComposer(const AuditDocument& doc, QPdfWriter& writer, QPainter* painter, int totalPages,
-               const ChartPainter& charts)
+  PageComposer(const AuditDocument& doc, QPagedPaintDevice& writer, QPainter* painter,
+               int totalPages, const ChartPainter& charts)
       : doc_(doc), writer_(writer), painter_(painter), totalPages_(totalPages), charts_(charts) {
     const QPageLayout layout = writer.pageLayout();
-    const double dpi = writer.resolution();
+    // QPdfWriter's and QPrinter's logical resolution is the one they were given.
+    const int dpi = writer.logicalDpiY();
     unit_ = dpi / 72.0;
-    const QRectF paint = layout.paintRectPixels(writer.resolution());
+    const QRectF paint = layout.paintRectPixels(dpi);
     page_ = QRectF(0, 0, paint.width(), paint.height());
     body_ = page_.adjusted(0, pt(22), 0, -footerHeight());
     y_ = body_.top();
@@ -362,7 +363,7 @@ class PageComposer {
   }
 
   const AuditDocument& doc_;
-  QPdfWriter& writer_;
+  QPagedPaintDevice& writer_;
   QPainter* painter_;
   int totalPages_;
   const ChartPainter& charts_;
@@ -374,7 +375,8 @@ class PageComposer {
 
 }  // namespace
 
-int paintAuditDocument(const AuditDocument& doc, QPdfWriter& writer, const ChartPainter& charts) {
+int paintAuditDocument(const AuditDocument& doc, QPagedPaintDevice& writer,
+                       const ChartPainter& charts) {
   // Pass 1 measures (no painter) to know "of n"; pass 2 paints the same layout.
   const int pages = PageComposer(doc, writer, nullptr, 0, charts).run();
   QPainter painter(&writer);

@@ -14,15 +14,17 @@
 #include "core/report/audit_report.h"
 
 class QPainter;
-class QPdfWriter;
+class QPagedPaintDevice;
 
 namespace calivera::report {
 
 // Paints chart `kind` into `target` (device units of the painter).
 using ChartPainter = std::function<void(QPainter& painter, const QRectF& target, ChartKind kind)>;
 
-// Paints every page of `doc` on `writer` (which must not have a painter yet). Returns the number
+// Paints every page of `doc` on `writer` (a QPdfWriter, or a QPrinter for File → Print; it must
+// not have a painter yet). Returns the number
 // of pages. `charts` may be empty: chart areas then stay blank with their captions.
-int paintAuditDocument(const AuditDocument& doc, QPdfWriter& writer, const ChartPainter& charts);
+int paintAuditDocument(const AuditDocument& doc, QPagedPaintDevice& writer,
+                       const ChartPainter& charts);
 
 }  // namespace calivera::report

@@ -44,10 +44,8 @@ class UnsavedChangesTest : public QObject {
  private slots:
   void initTestCase() {
     QVERIFY(dir_.isValid());
-    const std::string model = dir_.filePath("m.json").toStdString();
-    calivera::testing::writeBirthwtModel(kBirthwt, {"age", "lwt", "smoke"}, model);
-    study_ = dir_.filePath("s.cvstudy");
-    writeStudyFile(study_.toStdString(), calivera::testing::birthwtFileStudy(kBirthwt, model));
+    study_ = QString::fromStdString(
+        calivera::testing::writeBirthwtStudy(kBirthwt, dir_.path().toStdString()));
   }
 
   // Opened: clean. A setting the file records: modified, once. Back to the saved value: clean

@@ -236,14 +236,14 @@ TEST(CsvReader, TextColumnHasSortedLevelsCodesAndFirstNonNumericField) {
 TEST(CsvReader, RequireNumericNamesFileLineColumnAndText) {
   const Table table = parse("age,bmi\n50,22.1\n51,abc\n52,25\n").table;
   EXPECT_EQ(inputErrorOf([&] { table.requireNumeric("bmi"); }),
-            "cohort.csv:3: column 'bmi': 'abc' is not a number");
+            "cohort.csv:3: column 'bmi': 'abc' is not a number.");
   EXPECT_NO_THROW(table.requireNumeric("age"));
 }
 
 TEST(CsvReader, RequireNumericUsesTheLineWhereAFieldStartsAfterQuotedNewlines) {
   const Table table = parse("note,v\n\"a\nb\",1\nx,oops\n").table;
   EXPECT_EQ(inputErrorOf([&] { table.requireNumeric("v"); }),
-            "cohort.csv:4: column 'v': 'oops' is not a number");
+            "cohort.csv:4: column 'v': 'oops' is not a number.");
 }
 
 TEST(CsvReader, RaggedRowsNameTheLine) {
@@ -311,7 +311,10 @@ TEST(CsvReader, ReadsAFileAndUsesItsPathInMessages) {
   EXPECT_EQ(result.table.sourceName, path.string());
   EXPECT_EQ(result.table.rowCount, 2U);
   EXPECT_EQ(inputErrorOf([&] { result.table.requireNumeric("x"); }),
-            path.string() + ":2: column 'x': '2,5' is not a number");
+            path.string() +
+                ":2: column 'x': '2,5' is not a number. It looks like a decimal comma: Calivera "
+                "reads only '.' as the decimal mark, so write the file's numbers with '.' (for "
+                "example '2.5').");
 }
 
 // A few megabytes of generated rows with missing values and one text column: the parallel
@@ -366,7 +369,7 @@ TEST(CsvReader, TextFoundLateInTheFileIsReportedWithItsLine) {
   const CsvReadResult result = parse(text, four);
   EXPECT_EQ(result.threadsUsed, 4U);
   EXPECT_EQ(inputErrorOf([&] { result.table.requireNumeric("age"); }),
-            "cohort.csv:50002: column 'age': 'unknown' is not a number");
+            "cohort.csv:50002: column 'age': 'unknown' is not a number.");
   const Column& age = result.table.require("age");
   EXPECT_EQ(age.codes.size(), 60000U);
   EXPECT_TRUE(std::is_sorted(age.levels.begin(), age.levels.end()));

@@ -10,6 +10,7 @@
 #include "core/fit/cohort_fit.h"
 #include "core/model/model_io.h"
 #include "core/study/study.h"
+#include "core/study/study_file.h"
 #include "core/util/sha256.h"
 
 namespace calivera::testing {
@@ -31,6 +32,17 @@ inline void writeBirthwtModel(const std::string& data, const std::vector<std::st
   spec.outcome = OutcomeSpec{"low", std::nullopt};
   spec.predictors = predictors;
   writeModelFile(path, fitCohortModel(readCsvFile(data, CsvOptions{}).table, spec).model);
+}
+
+// The birthwt study the workstation tests open: model low ~ age + lwt + smoke written to
+// `folder`/m.json, the study to `folder`/s.cvstudy (the study file's path is returned). Needs
+// study_file.h.
+inline std::string writeBirthwtStudy(const std::string& data, const std::string& folder) {
+  const std::string model = folder + "/m.json";
+  writeBirthwtModel(data, {"age", "lwt", "smoke"}, model);
+  const std::string study = folder + "/s.cvstudy";
+  writeStudyFile(study, birthwtFileStudy(data, model));
+  return study;
 }
 
 }  // namespace calivera::testing

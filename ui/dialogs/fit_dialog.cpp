@@ -16,6 +16,7 @@
 #include "ui/async/background_job.h"
 #include "ui/models/record_table_model.h"
 #include "ui/models/result_tables.h"
+#include "ui/views/table_context_menu.h"
 
 namespace calivera::ui {
 
@@ -84,6 +85,7 @@ FitDialog::FitDialog(std::shared_ptr<const Table> table, ImportSettings import,
   view->setModel(coefficients_);
   view->verticalHeader()->setVisible(false);
   view->horizontalHeader()->setSectionResizeMode(QHeaderView::ResizeToContents);
+  attachTableContextMenu(view);
   right->addWidget(view, 1);
   auto* buttons = new QDialogButtonBox(QDialogButtonBox::Ok | QDialogButtonBox::Cancel);
   buttons->setObjectName(QStringLiteral("fitButtons"));

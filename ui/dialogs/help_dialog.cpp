@@ -120,7 +120,8 @@ QString helpKeyboardHtml(const QWidget& window) {
   for (const Entry& e : entries) html += row(e.keys.toHtmlEscaped(), e.text.toHtmlEscaped());
   html += QObject::tr(
       "</table><p>In a chart: Left and Right arrows move the threshold one step of its grid. "
-      "In a table: Ctrl+C copies the selected rows.</p>");
+      "In a table: Ctrl+C copies the selected rows. Right-click a table or a chart to copy it or "
+      "export it.</p>");
   return page(html);
 }
 

@@ -1,5 +1,7 @@
 #include "ui/views/chart_panel.h"
 
+#include <QApplication>
+#include <QClipboard>
 #include <QContextMenuEvent>
 #include <QKeyEvent>
 #include <QMenu>
@@ -95,8 +97,13 @@ void ChartPanel::contextMenuEvent(QContextMenuEvent* event) {
   if (linked_ == nullptr) return;
   QMenu menu(this);
   menu.setObjectName(objectName() + QStringLiteral("Menu"));
+  QAction* copyAction = menu.addAction(tr("Copy chart as image"));
+  copyAction->setObjectName(QStringLiteral("chartMenuCopy"));
   QAction* exportAction = menu.addAction(tr("Export this chart as PNG and SVG…"));
-  if (menu.exec(event->globalPos()) == exportAction) emit exportRequested(this);
+  exportAction->setObjectName(QStringLiteral("chartMenuExport"));
+  QAction* chosen = menu.exec(event->globalPos());
+  if (chosen == exportAction) emit exportRequested(this);
+  if (chosen == copyAction) emit copyRequested(this);
 }
 
 void ChartPanel::keyPressEvent(QKeyEvent* event) {
@@ -129,6 +136,12 @@ QSize ChartPanel::exportSize() const {
 QString ChartPanel::exportPng(const QString& path, const QStringList& footer) {
   if (linked_ == nullptr) return tr("there is no chart to export yet");
   return charts::exportChartPng(*linked_, path, exportSize(), footer);
+}
+
+bool ChartPanel::copyImage(const QStringList& footer) {
+  if (linked_ == nullptr) return false;
+  QApplication::clipboard()->setImage(charts::chartImage(*linked_, exportSize(), footer));
+  return true;
 }
 
 QString ChartPanel::exportSvg(const QString& path, const QStringList& footer) {

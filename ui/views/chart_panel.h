@@ -1,8 +1,9 @@
 #pragma once
 // Shows one LinkedChart: tooltips with exact values under the mouse, a click sets the threshold
-// (where the chart supports it), arrow keys nudge it, and a context menu exports the chart as PNG
-// or SVG. The legend is a wrapping strip under the plot (legend_strip.h); exported files carry
-// the chart's own legend beside the plot instead, where a wide export has room for it.
+// (where the chart supports it), arrow keys nudge it, and a context menu copies the chart as an
+// image or exports it as PNG and SVG (both with the window's footer: caution, fingerprints, date).
+// The legend is a wrapping strip under the plot (legend_strip.h); exported files carry the chart's
+// own legend beside the plot instead, where a wide export has room for it.
 
 #include <QtCharts/QChartView>
 
@@ -26,6 +27,8 @@ class ChartPanel : public QChartView {
   // `footer`: lines printed below the chart (the caution, fingerprints, date).
   QString exportPng(const QString& path, const QStringList& footer = {});
   QString exportSvg(const QString& path, const QStringList& footer = {});
+  // The exported image with `footer` on the clipboard; false when there is no chart.
+  bool copyImage(const QStringList& footer = {});
 
   // Chart coordinates of a widget position (for tests and the click handler).
   QPointF valueAt(QPoint widgetPos) const;
@@ -34,7 +37,8 @@ class ChartPanel : public QChartView {
  signals:
   void thresholdPicked(double threshold);
   void exportRequested(ChartPanel* panel);
-  void nudgeRequested(int steps);  // arrow keys: +1 / -1 (Page Up/Down: +-10)
+  void copyRequested(ChartPanel* panel);  // the context menu's Copy chart
+  void nudgeRequested(int steps);         // arrow keys: +1 / -1 (Page Up/Down: +-10)
 
  protected:
   void mouseMoveEvent(QMouseEvent* event) override;

@@ -7,6 +7,7 @@
 #include <algorithm>
 
 #include "ui/models/record_table_model.h"
+#include "ui/views/table_context_menu.h"
 
 namespace calivera::ui {
 
@@ -30,6 +31,7 @@ QTableView* makeResultTableView(const QString& objectName, RecordTableModel* mod
   view->verticalHeader()->setVisible(false);
   view->horizontalHeader()->setSectionResizeMode(QHeaderView::ResizeToContents);
   view->setEditTriggers(QAbstractItemView::NoEditTriggers);
+  attachTableContextMenu(view);
   if (proxyOut != nullptr) *proxyOut = proxy;
   return view;
 }
