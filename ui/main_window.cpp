@@ -328,6 +328,11 @@ void MainWindow::buildMenus() {
       add(edit, QStringLiteral("actionUndo"), tr("&Undo"), QKeySequence::Undo, &MainWindow::onUndo);
   actionRedo_ =
       add(edit, QStringLiteral("actionRedo"), tr("&Redo"), QKeySequence::Redo, &MainWindow::onRedo);
+  // Both common keys for Redo, whatever the platform's standard one is.
+  actionRedo_->setShortcuts(
+      {QKeySequence(Qt::CTRL | Qt::SHIFT | Qt::Key_Z), QKeySequence(Qt::CTRL | Qt::Key_Y)});
+  actionUndo_->setProperty("helpText", tr("Undo the last change of a setting"));
+  actionRedo_->setProperty("helpText", tr("Redo the change undone last"));
   QUndoStack* history = controller_->undoStack();
   connect(history, &QUndoStack::indexChanged, this, &MainWindow::updateActions);
   connect(history, &QUndoStack::cleanChanged, this, &MainWindow::updateActions);

@@ -32,7 +32,11 @@ StudyController::StudyController(QObject* parent) : QObject(parent) {
   undoStack_->setObjectName(QStringLiteral("settingsUndoStack"));
 }
 
-StudyController::~StudyController() = default;
+StudyController::~StudyController() {
+  // The stack is deleted with this object and says its index changed as it clears; its
+  // listeners (the window, which owns this controller) are already being destroyed.
+  undoStack_->blockSignals(true);
+}
 
 bool StudyController::refuseWhileBusy() {
   if (!job_->isRunning()) return false;

@@ -190,6 +190,9 @@ int runFitCommand(const std::vector<std::string>& words) {
   CsvOptions csv;
   if (auto delimiter = args.value("--delimiter")) csv.delimiter = parseDelimiter(*delimiter);
   for (const std::string& token : args.values("--missing")) csv.missingTokens.push_back(token);
+  // Only the outcome and the predictors are parsed and kept (issue 13).
+  csv.onlyColumns = fitSpec.predictors;
+  csv.onlyColumns.push_back(fitSpec.outcome.column);
 
   const CsvReadResult read = readCsvFile(dataPath, csv);
   CohortFit result = fitCohortModel(read.table, fitSpec);

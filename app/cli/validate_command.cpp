@@ -260,7 +260,13 @@ int executeValidation(const ValidationRequest& request, const UncertaintyRequest
       reproduceLine.empty()
           ? commandLine("validate", validateCommandWords(request, uncertaintyWanted))
           : reproduceLine;
-  const ValidationRun run = runValidation(request);
+  // Only the columns the analysis reads are parsed and kept (issue 13: time and memory scale with
+  // them, not with the file's width); every record's field count is still checked.
+  ValidationRequest projected = request;
+  projected.csv.onlyColumns = analysisColumns(request, uncertaintyWanted.compareModelPaths,
+                                              uncertaintyWanted.subgroupColumns);
+  ValidationRun run = runValidation(projected);
+  run.request.csv.onlyColumns.clear();  // the run as the user asked for it
   if (afterRun) afterRun(run);
   // uncertainty: sample size (always), bootstrap intervals, comparison, subgroups.
   const UncertaintyResults uncertainty = runUncertainty(run, uncertaintyWanted);

@@ -82,24 +82,25 @@ std::string delimiterName(char c) {
 }  // namespace
 
 std::string closestColumnName(const Table& table, std::string_view wanted) {
-  for (const Column& column : table.columns) {
-    if (equalIgnoringCase(column.name, wanted)) return column.name;
+  const std::vector<std::string> names = table.fileColumnNames();
+  for (const std::string& name : names) {
+    if (equalIgnoringCase(name, wanted)) return name;
   }
   const std::size_t limit = wanted.size() <= 6 ? 1 : 2;
   std::size_t best = limit + 1;
-  const Column* found = nullptr;
+  const std::string* found = nullptr;
   bool unique = false;
-  for (const Column& column : table.columns) {
-    const std::size_t d = editDistance(column.name, wanted, limit);
+  for (const std::string& name : names) {
+    const std::size_t d = editDistance(name, wanted, limit);
     if (d < best) {
       best = d;
-      found = &column;
+      found = &name;
       unique = true;
     } else if (d == best) {
       unique = false;
     }
   }
-  return found != nullptr && unique && best <= limit ? found->name : std::string();
+  return found != nullptr && unique && best <= limit ? *found : std::string();
 }
 
 std::string closestColumnHint(const Table& table, std::string_view wanted) {
@@ -108,8 +109,9 @@ std::string closestColumnHint(const Table& table, std::string_view wanted) {
 }
 
 std::string delimiterHint(const Table& table) {
-  if (table.columns.size() != 1) return {};
-  const std::string& header = table.columns.front().name;
+  const std::vector<std::string> names = table.fileColumnNames();
+  if (names.size() != 1) return {};
+  const std::string& header = names.front();
   for (const char c : {';', ',', '\t', '|'}) {
     if (header.find(c) == std::string::npos) continue;
     return " The whole header was read as one column; its name holds " + delimiterName(c) +

@@ -147,11 +147,14 @@ class FieldReader {
 // General path: one thread, full RFC 4180 quoting, records may span lines.
 void parseSequential(std::string_view text, std::size_t dataBegin, std::size_t firstLine,
                      const FieldReader& reader, const std::string& source, Table& table,
-                     std::vector<ColumnTally>& tallies, const MappedFile* file) {
+                     std::vector<ColumnTally>& tallies, const std::vector<char>& used,
+                     const MappedFile* file) {
   const std::size_t width = table.columns.size();
   const std::size_t lineBreaks = static_cast<std::size_t>(
       std::count(text.begin() + static_cast<std::ptrdiff_t>(dataBegin), text.end(), '\n'));
-  for (Column& column : table.columns) column.numbers.reserve(lineBreaks + 1);
+  for (std::size_t c = 0; c < width; ++c) {
+    if (used[c]) table.columns[c].numbers.reserve(lineBreaks + 1);
+  }
   csv::RecordScanner scanner(text, reader.delimiter(), source, dataBegin, firstLine);
   ReleaseBehind release(file, text.data() + dataBegin);
   std::size_t row = 0;
@@ -164,6 +167,7 @@ void parseSequential(std::string_view text, std::size_t dataBegin, std::size_t f
       throw InputError(raggedMessage(source, scanner.recordLine(), fields.size(), width, blank));
     }
     for (std::size_t c = 0; c < width; ++c) {
+      if (!used[c]) continue;
       double& slot = table.columns[c].numbers.emplace_back(kMissing);
       reader.store(fields[c], slot, tallies[c], scanner.fieldLine(c));
     }
@@ -198,9 +202,31 @@ void parseChunk(std::string_view text, const FieldReader& reader, const std::str
   const std::size_t width = table.columns.size();
   const char delimiter = reader.delimiter();
   const bool tokenCheck = reader.numericTokenPossible();
-  std::vector<double*> slots(width);
-  for (std::size_t c = 0; c < width; ++c)
-    slots[c] = table.columns[c].numbers.data() + chunk.firstRow;
+  std::vector<double*> slots(width);  // null: a column that is not stored (only its end is found)
+  for (std::size_t c = 0; c < width; ++c) {
+    std::vector<double>& numbers = table.columns[c].numbers;
+    slots[c] = numbers.empty() ? nullptr : numbers.data() + chunk.firstRow;
+  }
+  // Most fields are plain numbers: one parse both reads the value and finds the field end.
+  const auto storeField = [&](const char* field, const char* contentEnd, const char*& fieldEnd,
+                              double& slot, ColumnTally& tally, std::size_t line) {
+    double value = 0.0;
+    const char* stop = csv::parsePlainDecimal(field, contentEnd, value);
+    bool parsed = stop != nullptr;
+    if (!parsed) {
+      const auto fromChars = std::from_chars(field, contentEnd, value);
+      stop = fromChars.ptr;
+      parsed = fromChars.ec == std::errc() && std::isfinite(value);
+    }
+    if (!tokenCheck && parsed && (stop == contentEnd || *stop == delimiter)) {
+      slot = value;
+      fieldEnd = stop;
+    } else {
+      fieldEnd = csv::fieldEndAt(field, contentEnd, delimiter);
+      reader.store(std::string_view(field, static_cast<std::size_t>(fieldEnd - field)), slot, tally,
+                   line);
+    }
+  };
   const char* p = text.data() + chunk.begin;
   const char* const end = text.data() + chunk.end;
   std::size_t row = 0;
@@ -211,22 +237,10 @@ void parseChunk(std::string_view text, const FieldReader& reader, const std::str
     const char* field = p;
     for (std::size_t c = 0; c < width; ++c) {
       const char* fieldEnd = nullptr;
-      double value = 0.0;
-      // Most fields are plain numbers: one parse both reads the value and finds the field end.
-      const char* stop = csv::parsePlainDecimal(field, contentEnd, value);
-      bool parsed = stop != nullptr;
-      if (!parsed) {
-        const auto fromChars = std::from_chars(field, contentEnd, value);
-        stop = fromChars.ptr;
-        parsed = fromChars.ec == std::errc() && std::isfinite(value);
-      }
-      if (!tokenCheck && parsed && (stop == contentEnd || *stop == delimiter)) {
-        slots[c][row] = value;
-        fieldEnd = stop;
-      } else {
+      if (slots[c] == nullptr) {
         fieldEnd = csv::fieldEndAt(field, contentEnd, delimiter);
-        reader.store(std::string_view(field, static_cast<std::size_t>(fieldEnd - field)),
-                     slots[c][row], chunk.tallies[c], line);
+      } else {
+        storeField(field, contentEnd, fieldEnd, slots[c][row], chunk.tallies[c], line);
       }
       if (fieldEnd == contentEnd) {
         if (c + 1 != width) {
@@ -323,8 +337,8 @@ bool planChunks(std::string_view text, std::size_t dataBegin, std::size_t count,
 // False when the text turns out to need the sequential (quoting) path.
 bool parseParallel(std::string_view text, std::size_t dataBegin, unsigned threads,
                    const FieldReader& reader, const std::string& source, Table& table,
-                   std::vector<ColumnTally>& tallies, const MappedFile* file,
-                   unsigned& threadsUsed) {
+                   std::vector<ColumnTally>& tallies, const std::vector<char>& used,
+                   const MappedFile* file, unsigned& threadsUsed) {
   const std::size_t useful =
       std::max<std::size_t>(1, (text.size() - dataBegin) / kMinBytesPerThread);
   const std::size_t count = std::min<std::size_t>(threads, useful);
@@ -332,9 +346,13 @@ bool parseParallel(std::string_view text, std::size_t dataBegin, unsigned thread
   if (!planChunks(text, dataBegin, count, table.columns.size(), file, chunks)) return false;
   const std::size_t rows = chunks.back().firstRow + chunks.back().rows;
   // Columns are allocated on all threads so the first-touch page faults are shared out too.
+  std::vector<std::size_t> stored;
+  for (std::size_t c = 0; c < table.columns.size(); ++c) {
+    if (used[c]) stored.push_back(c);
+  }
   runOnThreads(count, [&](std::size_t i) {
-    for (std::size_t c = i; c < table.columns.size(); c += count) {
-      std::vector<double>& numbers = table.columns[c].numbers;
+    for (std::size_t k = i; k < stored.size(); k += count) {
+      std::vector<double>& numbers = table.columns[stored[k]].numbers;
       numbers.reserve(rows);
       adviseHugePages(numbers);
       numbers.assign(rows, kMissing);
@@ -436,6 +454,13 @@ CsvReadResult parseText(std::string_view text, const std::string& sourceName,
   table.columns.resize(names.size());
   for (std::size_t c = 0; c < names.size(); ++c) table.columns[c].name = names[c];
   std::vector<ColumnTally> tallies(names.size());
+  std::vector<char> used(names.size(), 1);
+  if (!options.onlyColumns.empty()) {
+    for (std::size_t c = 0; c < names.size(); ++c) {
+      used[c] = std::find(options.onlyColumns.begin(), options.onlyColumns.end(), names[c]) !=
+                options.onlyColumns.end();
+    }
+  }
 
   const unsigned threads =
       options.threads != 0 ? options.threads : std::max(1U, std::thread::hardware_concurrency());
@@ -443,9 +468,9 @@ CsvReadResult parseText(std::string_view text, const std::string& sourceName,
   const bool quotedHeader = text.substr(0, dataBegin).find('"') != std::string_view::npos;
   const bool quoteFree =
       !quotedHeader && parseParallel(text, dataBegin, threads, reader, sourceName, table, tallies,
-                                     file, result.threadsUsed);
+                                     used, file, result.threadsUsed);
   if (!quoteFree) {
-    parseSequential(text, dataBegin, header.line(), reader, sourceName, table, tallies, file);
+    parseSequential(text, dataBegin, header.line(), reader, sourceName, table, tallies, used, file);
     result.threadsUsed = 1;
   }
 
@@ -459,7 +484,15 @@ CsvReadResult parseText(std::string_view text, const std::string& sourceName,
   }
   csv::fillTextColumns(text, dataBegin, header.line(), result.delimiter, missing, quoteFree, file,
                        table);
-  requireUtf8Text(table);
+  requireUtf8Text(table);  // every header name, stored or not
+  if (std::find(used.begin(), used.end(), 0) != used.end()) {
+    table.headerNames = names;
+    std::vector<Column> kept;
+    for (std::size_t c = 0; c < names.size(); ++c) {
+      if (used[c]) kept.push_back(std::move(table.columns[c]));
+    }
+    table.columns = std::move(kept);
+  }
   return result;
 }
 

@@ -44,6 +44,11 @@ struct CsvOptions {
   char delimiter = 0;  // 0: detect among ',', ';' and '\t' from the header line
   std::vector<std::string> missingTokens{"", "NA"};
   unsigned threads = 0;  // 0: all hardware threads
+  // Empty: every column is parsed and stored. Otherwise only the header's columns named here are
+  // (the command line passes the columns its analysis reads); every record's field count is still
+  // checked, the other fields are skipped unparsed, and Table::headerNames keeps the whole header
+  // for messages. Names the header lacks are ignored here: the analysis reports them.
+  std::vector<std::string> onlyColumns;
 };
 
 struct CsvReadResult {

@@ -13,12 +13,27 @@ const Column* Table::find(std::string_view name) const {
   return nullptr;
 }
 
+std::vector<std::string> Table::fileColumnNames() const {
+  if (!headerNames.empty()) return headerNames;
+  std::vector<std::string> names;
+  names.reserve(columns.size());
+  for (const Column& column : columns) names.push_back(column.name);
+  return names;
+}
+
 const Column& Table::require(std::string_view name) const {
   if (const Column* column = find(name)) return *column;
   std::string available;
-  for (const Column& column : columns) {
+  for (const std::string& header : fileColumnNames()) {
+    // A column of the file the reader was told to skip: the analysis asked for a column its own
+    // column list left out, a programming error rather than bad input.
+    if (header == name) {
+      throw AnalysisError(sourceName + ": column '" + header +
+                          "' is in the file but was not read (the analysis's column list left it "
+                          "out; please report this)");
+    }
     available += available.empty() ? "" : ", ";
-    available += column.name;
+    available += header;
   }
   throw InputError(sourceName + ": no column named '" + std::string(name) + "' (columns: " +
                    available + ")." + closestColumnHint(*this, name) + delimiterHint(*this));

@@ -42,6 +42,13 @@ struct Table {
   // which case row r (0-based) is on line r + 2.
   std::vector<std::uint32_t> recordLines;
 
+  // Every column name of the file's header, in order, when the reader stored only some columns
+  // (CsvOptions::onlyColumns); empty when `columns` holds them all.
+  std::vector<std::string> headerNames;
+
+  // The file's column names: headerNames, or the names of `columns`.
+  std::vector<std::string> fileColumnNames() const;
+
   std::size_t lineOfRow(std::size_t row) const {
     return recordLines.empty() ? row + 2 : recordLines[row];
   }

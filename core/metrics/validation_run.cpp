@@ -1,5 +1,6 @@
 #include "core/metrics/validation_run.h"
 
+#include <algorithm>
 #include <cmath>
 #include <sstream>
 #include <utility>
@@ -180,6 +181,32 @@ ValidationRun runValidation(const ValidationRequest& request, std::shared_ptr<co
   run.request.options.progress = nullptr;  // the caller's callback must not outlive the call
   run.table = std::move(table);
   return run;
+}
+
+std::vector<std::string> analysisColumns(const ValidationRequest& request,
+                                         const std::vector<std::string>& compareModelPaths,
+                                         const std::vector<std::string>& subgroupColumns) {
+  std::vector<std::string> columns{request.outcome.column};
+  const auto add = [&columns](const std::string& c) {
+    if (std::find(columns.begin(), columns.end(), c) == columns.end()) columns.push_back(c);
+  };
+  try {
+    if (request.model || request.modelPath) {
+      Model model = request.model ? *request.model : readModelFile(*request.modelPath);
+      for (const auto& [variable, column] : request.columnMapping) {
+        model.columnMapping[variable] = column;
+      }
+      for (const std::string& c : requiredColumns(model)) add(c);
+    }
+    for (const std::string& path : compareModelPaths) {
+      for (const std::string& c : requiredColumns(readModelFile(path))) add(c);
+    }
+  } catch (const InputError&) {
+    return {};
+  }
+  if (request.riskColumn) add(*request.riskColumn);
+  for (const std::string& c : subgroupColumns) add(c);
+  return columns;
 }
 
 ValidationRun runValidation(const ValidationRequest& request) {

@@ -100,6 +100,14 @@ PerformanceDecision decidePerformance(const Model* model, const std::string& dat
                                       const std::string& analysedSha256,
                                       bool statedDevelopmentData);
 
+// The cohort columns a validation reads: the outcome, the model's (after the request's mapping)
+// or the risk column, the compared models' and the subgroup columns. The command line reads only
+// these (CsvOptions::onlyColumns). Reads the model files; empty (read every column, and let the
+// run report the problem) when one of them cannot be read.
+std::vector<std::string> analysisColumns(const ValidationRequest& request,
+                                         const std::vector<std::string>& compareModelPaths,
+                                         const std::vector<std::string>& subgroupColumns);
+
 // Runs every step. Throws InputError (bad files, columns, values; exit 2 on the command line),
 // AnalysisError (one outcome class, no complete rows; exit 1) or Cancelled.
 ValidationRun runValidation(const ValidationRequest& request);

@@ -57,8 +57,8 @@ std::string missingColumnMessage(const Model& model, const Table& table, const s
                                  const std::string& variable) {
   const std::string name = mappedColumn(model, variable);
   std::string available;
-  for (const Column& column : table.columns) {
-    available += (available.empty() ? "" : ", ") + column.name;
+  for (const std::string& header : table.fileColumnNames()) {
+    available += (available.empty() ? "" : ", ") + header;
   }
   const std::string mapped = name == variable ? "" : " (mapped from '" + variable + "')";
   const std::string modelText =

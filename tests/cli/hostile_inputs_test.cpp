@@ -166,10 +166,26 @@ TEST_F(HostileInputs, AHugeThresholdGridIsRefusedNotAllocated) {
 TEST_F(HostileInputs, InvalidUtf8IsRefusedAtReadingWithItsLocation) {
   const std::string data =
       dir_.write("latin1.csv", "low,age,lwt,site\n0,20,120,A\n1,30,130,Z\xfcrich\n0,25,110,A\n");
-  const CliRun run = runCalivera({"validate", "--data", data, "--outcome", "low", "--risk", "age",
-                                  "--json", dir_.file("out.json")},
+  // Used (as the subgroup column): refused where it is read.
+  const CliRun run = runCalivera({"validate", "--data", data, "--outcome", "low", "--risk", "lwt",
+                                  "--subgroup", "site", "--json", dir_.file("out.json")},
                                  kLimitSeconds);
   expectRefused(run, "latin1.csv:3: column 4 ('site'): the value is not valid UTF-8 (Z\\xfcrich)");
+  // A column the analysis never reads is not parsed (issue 13): its bytes reach no output, so
+  // they stop nothing. Header names are always checked.
+  const std::string risks =
+      dir_.write("latin1_risk.csv", "low,risk,site\n0,0.2,A\n1,0.3,Z\xfcrich\n0,0.25,A\n1,0.6,B\n");
+  const CliRun unused = runCalivera({"validate", "--data", risks, "--outcome", "low", "--risk",
+                                     "risk", "--json", dir_.file("out.json")},
+                                    kLimitSeconds);
+  EXPECT_EQ(unused.status, 0) << unused.err;
+  std::filesystem::remove(dir_.file("out.json"));
+  const std::string badHeader =
+      dir_.write("latin1_header.csv", "low,risk,Z\xfcrich\n0,0.2,1\n1,0.3,2\n0,0.25,1\n");
+  expectRefused(runCalivera({"validate", "--data", badHeader, "--outcome", "low", "--risk", "risk",
+                             "--json", dir_.file("out.json")},
+                            kLimitSeconds),
+                "the column name is not valid UTF-8");
   EXPECT_TRUE(validUtf8("Z\xc3\xbcrich"));
   EXPECT_FALSE(validUtf8("\xed\xa0\x80"));      // a surrogate
   EXPECT_FALSE(validUtf8("\xc0\xaf"));          // overlong

@@ -18,6 +18,7 @@
 #include "tests/ui/pdf_text.h"
 #include "tests/unit/study_fixture.h"
 #include "ui/async/background_job.h"
+#include "ui/dialogs/help_dialog.h"
 #include "ui/dialogs/report_export_dialog.h"
 #include "ui/dialogs/report_print.h"
 #include "ui/main_window.h"
@@ -139,6 +140,13 @@ class DesktopHabitsTest : public QObject {
     w.controller().setThreshold(0.31);
     QVERIFY(undo->isEnabled());
     QVERIFY2(undo->text().contains(QStringLiteral("threshold 0.310")), qPrintable(undo->text()));
+    // Help → Keyboard lists the action under a fixed name, with both Redo keys.
+    const QString keys = helpKeyboardHtml(w);
+    QVERIFY(keys.contains(QStringLiteral("Undo the last change of a setting")));
+    QVERIFY(!keys.contains(QStringLiteral("threshold 0.310")));
+    QVERIFY(keys.contains(QKeySequence(Qt::CTRL | Qt::SHIFT | Qt::Key_Z)
+                              .toString(QKeySequence::NativeText)
+                              .toHtmlEscaped()));
     undo->trigger();
     QCOMPARE(w.controller().study().analysis.threshold, original);
     QVERIFY(redo->isEnabled());

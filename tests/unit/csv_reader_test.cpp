@@ -429,3 +429,68 @@ TEST(CsvReader, ParallelParseReportsTheEarliestErrorLine) {
 
 }  // namespace
 }  // namespace calivera
+
+namespace calivera {
+namespace {
+
+// CsvOptions::onlyColumns (issue 13): the stored columns equal a full read's, in file order; the
+// header is kept whole for messages; every record's field count is still checked, on both the
+// quote-free parallel path and the quoted sequential one; text in a skipped column is no error.
+TEST(CsvReaderColumns, OnlyTheNamedColumnsAreStoredAndEqualAFullRead) {
+  const std::string text = "id,age,note,sex,y\n1,50,a b,m,0\n2,,x,f,1\n3,61.5,\"q\",NA,0\n";
+  const std::string quoteFree = "id,age,note,sex,y\n1,50,a b,m,0\n2,,x,f,1\n3,61.5,q,NA,0\n";
+  for (const std::string& input : {text, quoteFree}) {
+    const Table full = parseCsv(input, "cohort.csv", {}).table;
+    CsvOptions options;
+    options.onlyColumns = {"y", "sex", "age", "absent"};
+    const Table part = parseCsv(input, "cohort.csv", options).table;
+    ASSERT_EQ(part.columns.size(), 3U);
+    EXPECT_EQ(part.headerNames, (std::vector<std::string>{"id", "age", "note", "sex", "y"}));
+    EXPECT_EQ(part.fileColumnNames(), full.fileColumnNames());
+    EXPECT_EQ(part.rowCount, full.rowCount);
+    const std::vector<std::string> order{"age", "sex", "y"};
+    for (std::size_t k = 0; k < order.size(); ++k) {
+      const Column& a = part.columns[k];
+      const Column& b = full.require(order[k]);
+      EXPECT_EQ(a.name, b.name);
+      EXPECT_EQ(a.kind, b.kind);
+      EXPECT_EQ(a.missingCount, b.missingCount);
+      EXPECT_EQ(a.levels, b.levels);
+      EXPECT_EQ(a.codes, b.codes);
+      ASSERT_EQ(a.numbers.size(), b.numbers.size());
+      for (std::size_t r = 0; r < a.numbers.size(); ++r) {
+        EXPECT_TRUE(a.numbers[r] == b.numbers[r] ||
+                    (std::isnan(a.numbers[r]) && std::isnan(b.numbers[r])));
+      }
+    }
+    // A skipped column is named as such in a message for a column the file lacks.
+    EXPECT_NE(
+        inputErrorOf([&] { part.require("height"); }).find("(columns: id, age, note, sex, y)"),
+        std::string::npos);
+  }
+}
+
+TEST(CsvReaderColumns, SkippedFieldsAreStillCountedOnEveryPath) {
+  CsvOptions options;
+  options.onlyColumns = {"a"};
+  EXPECT_EQ(inputErrorOf([&] { parseCsv("a,b,c\n1,2,3\n4,5\n", "cohort.csv", options); }),
+            "cohort.csv:3: 2 fields, but the header has 3 columns");
+  EXPECT_EQ(inputErrorOf([&] { parseCsv("a,b,c\n1,2,3\n4,5,6,7\n", "cohort.csv", options); }),
+            "cohort.csv:3: 4 fields, but the header has 3 columns");
+  EXPECT_EQ(inputErrorOf([&] { parseCsv("\"a\",b,c\n1,2,3\n4,5\n", "cohort.csv", options); }),
+            "cohort.csv:3: 2 fields, but the header has 3 columns");
+  // Text in a column nobody reads is not an error and costs no level table.
+  const Table table = parseCsv("a,b\n1,abc\n2,def\n", "cohort.csv", options).table;
+  ASSERT_EQ(table.columns.size(), 1U);
+  EXPECT_EQ(table.columns[0].kind, ColumnKind::Numeric);
+}
+
+TEST(CsvReaderColumns, AColumnInTheFileButNotReadIsAnInternalError) {
+  CsvOptions options;
+  options.onlyColumns = {"a"};
+  const Table table = parseCsv("a,b\n1,2\n", "cohort.csv", options).table;
+  EXPECT_THROW(table.require("b"), AnalysisError);
+}
+
+}  // namespace
+}  // namespace calivera

@@ -8,6 +8,7 @@
 #include <QTabWidget>
 #include <QTextBrowser>
 #include <QVBoxLayout>
+#include <QVariant>
 #include <QtGlobal>
 #include <algorithm>
 #include <boost/version.hpp>
@@ -110,7 +111,9 @@ QString helpKeyboardHtml(const QWidget& window) {
     if (a->shortcuts().isEmpty() || a->text().isEmpty()) continue;
     QStringList keys;
     for (const QKeySequence& k : a->shortcuts()) keys << k.toString(QKeySequence::NativeText);
-    QString text = a->text();
+    // An action whose text changes with the state (Undo names its step) gives a fixed one.
+    const QVariant fixed = a->property("helpText");
+    QString text = fixed.isValid() ? fixed.toString() : a->text();
     text.remove(QLatin1Char('&')).remove(QStringLiteral("…"));
     entries.push_back({text, keys.join(QStringLiteral(", "))});
   }
