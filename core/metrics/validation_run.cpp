@@ -2,6 +2,7 @@
 
 #include <algorithm>
 #include <cmath>
+#include <future>
 #include <sstream>
 #include <utility>
 
@@ -210,8 +211,17 @@ std::vector<std::string> analysisColumns(const ValidationRequest& request,
 }
 
 ValidationRun runValidation(const ValidationRequest& request) {
-  std::string sha = sha256OfFile(request.dataPath);
+  // The file's fingerprint is computed on its own thread while the file is parsed (issue 13):
+  // both read the same bytes, and hashing is one serial pass. If parsing throws, the future's
+  // destructor waits for the hash (sha256OfFile refuses special files at once, so it never
+  // blocks on a FIFO).
+  std::future<std::string> hash = std::async(std::launch::async, [path = request.dataPath] {
+    std::string digest = sha256OfFile(path);
+    releaseThreadHashState();
+    return digest;
+  });
   CsvReadResult read = readCsvFile(request.dataPath, request.csv);
+  std::string sha = hash.get();
   return runValidation(request, std::make_shared<const Table>(std::move(read.table)),
                        std::move(sha));
 }
