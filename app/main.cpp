@@ -1,14 +1,31 @@
 // calivera: with a command word it runs headless; otherwise it opens the workstation.
 #include <iostream>
 #include <string>
+#include <string_view>
 #include <vector>
 
 #include "app/cli/commands.h"
+#include "app/heap_policy.h"
+#include "core/util/stage_times.h"
 #ifdef CALIVERA_HAVE_UI
 #include "ui/workstation_entry.h"
 #endif
 
+namespace {
+
+bool namesCommand(const char* word) {
+  for (const auto& command : calivera::cli::allCommands()) {
+    if (std::string_view(command.name) == word) return true;
+  }
+  return false;
+}
+
+}  // namespace
+
 int main(int argc, char** argv) {
+  calivera::applyHeapPolicy(argc > 1 && namesCommand(argv[1]) ? calivera::ProcessKind::Command
+                                                              : calivera::ProcessKind::Workstation);
+  calivera::markStage("process start");
   const std::vector<std::string> words(argv + 1, argv + argc);
   if (!words.empty()) {
     if (words[0] == "--help" || words[0] == "-h" || words[0] == "help") {

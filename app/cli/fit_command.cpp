@@ -3,7 +3,9 @@
 #include <cmath>
 #include <cstdio>
 #include <filesystem>
+#include <future>
 #include <iostream>
+#include <utility>
 
 #include "app/cli/arguments.h"
 #include "core/data/csv_reader.h"
@@ -12,6 +14,7 @@
 #include "core/present/number_text.h"
 #include "core/util/errors.h"
 #include "core/util/sha256.h"
+#include "core/util/stage_times.h"
 
 namespace calivera::cli {
 namespace {
@@ -194,10 +197,19 @@ int runFitCommand(const std::vector<std::string>& words) {
   csv.onlyColumns = fitSpec.predictors;
   csv.onlyColumns.push_back(fitSpec.outcome.column);
 
-  const CsvReadResult read = readCsvFile(dataPath, csv);
-  CohortFit result = fitCohortModel(read.table, fitSpec);
+  // The file's fingerprint is computed on its own thread while the file is parsed (issue 13).
+  std::future<std::string> hash = std::async(std::launch::async, [&dataPath] {
+    std::string digest = sha256OfFile(dataPath);
+    releaseThreadHashState();
+    return digest;
+  });
+  CsvReadResult read = readCsvFile(dataPath, csv);
+  const std::string dataSha256 = hash.get();
+  markStage("cohort parsed and hashed");
+  CohortFit result = fitCohortModel(std::move(read.table), fitSpec);
+  markStage("fitted");
   Model& model = result.model;
-  model.development.dataSha256 = sha256OfFile(dataPath);
+  model.development.dataSha256 = dataSha256;
   model.development.description = "fitted by calivera fit on " +
                                   std::filesystem::path(dataPath).filename().string() + " (" +
                                   std::to_string(result.exclusions.rowsAnalysed) + " of " +

@@ -23,6 +23,7 @@
 #include "core/util/atomic_file.h"
 #include "core/util/errors.h"
 #include "core/util/output_transaction.h"
+#include "core/util/stage_times.h"
 #ifdef CALIVERA_HAVE_PDF
 #include "render/report/audit_pdf_writer.h"
 #endif
@@ -265,15 +266,18 @@ int executeValidation(const ValidationRequest& request, const UncertaintyRequest
   ValidationRequest projected = request;
   projected.csv.onlyColumns = analysisColumns(request, uncertaintyWanted.compareModelPaths,
                                               uncertaintyWanted.subgroupColumns);
+  markStage("arguments read");
   ValidationRun run = runValidation(projected);
   run.request.csv.onlyColumns.clear();  // the run as the user asked for it
   if (afterRun) afterRun(run);
   // uncertainty: sample size (always), bootstrap intervals, comparison, subgroups.
   const UncertaintyResults uncertainty = runUncertainty(run, uncertaintyWanted);
+  markStage("uncertainty");
   // Every output is rendered before anything is written; the JSON is written last so a reader
   // that waits for it sees the tables too.
   const std::string jsonText =
       outputs.jsonPath ? validationJsonText(run, uncertainty) : std::string();
+  markStage("json rendered");
 #ifdef CALIVERA_HAVE_PDF
   std::string pdf;
   if (outputs.pdfPath) {
@@ -299,6 +303,7 @@ int executeValidation(const ValidationRequest& request, const UncertaintyRequest
   }
   if (outputs.jsonPath) files.add(*outputs.jsonPath, jsonText);
   files.commit();
+  markStage("outputs written");
   if (!outputs.jsonPath) {
     printSampleSizeSummary(std::cout, uncertainty);  // uncertainty: adequacy before results
     std::ostringstream beforeCaution;

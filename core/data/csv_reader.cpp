@@ -15,12 +15,14 @@
 #include <thread>
 #include <unordered_map>
 
+#include "core/data/byte_count.h"
 #include "core/data/csv_field.h"
 #include "core/data/csv_scanner.h"
 #include "core/data/csv_text_columns.h"
 #include "core/util/errors.h"
 #include "core/util/mapped_file.h"
 #include "core/util/shown_text.h"
+#include "core/util/stage_times.h"
 #include "core/util/utf8.h"
 
 namespace calivera {
@@ -203,9 +205,11 @@ void parseChunk(std::string_view text, const FieldReader& reader, const std::str
   const char delimiter = reader.delimiter();
   const bool tokenCheck = reader.numericTokenPossible();
   std::vector<double*> slots(width);  // null: a column that is not stored (only its end is found)
+  std::size_t afterStored = 0;        // the columns from here on are all not stored
   for (std::size_t c = 0; c < width; ++c) {
     std::vector<double>& numbers = table.columns[c].numbers;
     slots[c] = numbers.empty() ? nullptr : numbers.data() + chunk.firstRow;
+    if (slots[c] != nullptr) afterStored = c + 1;
   }
   // Most fields are plain numbers: one parse both reads the value and finds the field end.
   const auto storeField = [&](const char* field, const char* contentEnd, const char*& fieldEnd,
@@ -236,9 +240,17 @@ void parseChunk(std::string_view text, const FieldReader& reader, const std::str
     const char* const contentEnd = current.contentEnd;
     const char* field = p;
     for (std::size_t c = 0; c < width; ++c) {
+      // The columns after the last stored one only need their fields counted: one count of the
+      // delimiters left on the line. A wrong count falls through to the field-by-field walk,
+      // which names what is wrong.
+      if (c == afterStored && c > 0 &&
+          csv::countByte(field, contentEnd, delimiter) == width - 1 - c) {
+        break;
+      }
       const char* fieldEnd = nullptr;
       if (slots[c] == nullptr) {
-        fieldEnd = csv::fieldEndAt(field, contentEnd, delimiter);
+        fieldEnd = field;
+        while (fieldEnd != contentEnd && *fieldEnd != delimiter) ++fieldEnd;
       } else {
         storeField(field, contentEnd, fieldEnd, slots[c][row], chunk.tallies[c], line);
       }
@@ -317,8 +329,9 @@ bool planChunks(std::string_view text, std::size_t dataBegin, std::size_t count,
     constexpr std::size_t kBlock = std::size_t{1} << 20;
     while (p < end && quoted[i] == 0) {
       const std::size_t length = std::min(kBlock, static_cast<std::size_t>(end - p));
-      chunk.rows += static_cast<std::size_t>(std::count(p, p + length, '\n'));
-      if (std::memchr(p, '"', length) != nullptr) quoted[i] = 1;
+      const csv::LineTally tally = csv::tallyLines(p, p + length);
+      chunk.rows += tally.lineBreaks;
+      if (tally.quote) quoted[i] = 1;
       p += length;
       release.passed(p);
     }
@@ -344,6 +357,7 @@ bool parseParallel(std::string_view text, std::size_t dataBegin, unsigned thread
   const std::size_t count = std::min<std::size_t>(threads, useful);
   std::vector<Chunk> chunks;
   if (!planChunks(text, dataBegin, count, table.columns.size(), file, chunks)) return false;
+  markStage("  csv rows counted");
   const std::size_t rows = chunks.back().firstRow + chunks.back().rows;
   // Columns are allocated on all threads so the first-touch page faults are shared out too.
   std::vector<std::size_t> stored;
@@ -358,6 +372,7 @@ bool parseParallel(std::string_view text, std::size_t dataBegin, unsigned thread
       numbers.assign(rows, kMissing);
     }
   });
+  markStage("  csv columns allocated");
   runOnThreads(count, [&](std::size_t i) {
     ReleaseBehind release(file, text.data() + chunks[i].begin);
     parseChunk(text, reader, source, table, chunks[i], release);

@@ -8,6 +8,7 @@
 #include "core/model/linear_predictor.h"
 #include "core/util/errors.h"
 #include "core/util/number_format.h"
+#include "core/util/stage_times.h"
 
 namespace calivera {
 namespace {
@@ -132,13 +133,14 @@ std::string describeColumns(const Model& model, const std::vector<int>& columns)
   return text;
 }
 
-void rejectConstantTerms(const Table& table, const Model& model, const Eigen::MatrixXd& design) {
-  for (Eigen::Index j = 0; j < design.cols(); ++j) {
-    if (design.rows() > 0 && (design.col(j).array() == design(0, j)).all()) {
+// X is [1 design]: column j >= 1 is the j-th term.
+void rejectConstantTerms(const Table& table, const Model& model, const Eigen::MatrixXd& X) {
+  for (Eigen::Index j = 1; j < X.cols(); ++j) {
+    if (X.rows() > 0 && (X.col(j).array() == X(0, j)).all()) {
       throw AnalysisError(
-          table.sourceName + ": predictor " + describeColumn(model, static_cast<int>(j) + 1) +
-          " is " + formatShortest(design(0, j)) + " in every one of the " +
-          std::to_string(design.rows()) + " analysed rows, so its effect cannot be estimated");
+          table.sourceName + ": predictor " + describeColumn(model, static_cast<int>(j)) + " is " +
+          formatShortest(X(0, j)) + " in every one of the " + std::to_string(X.rows()) +
+          " analysed rows, so its effect cannot be estimated");
     }
   }
 }
@@ -175,7 +177,10 @@ void throwForProblem(const Table& table, const Model& model, const FitResult& fi
 
 }  // namespace
 
-CohortFit fitCohortModel(const Table& table, const CohortFitSpec& spec) {
+namespace {
+
+// `releasable`, when given, is `table` itself, owned by the caller and not needed afterwards.
+CohortFit fitFromTable(const Table& table, Table* releasable, const CohortFitSpec& spec) {
   checkPredictors(table, spec);
   std::vector<std::string> used{spec.outcome.column};
   used.insert(used.end(), spec.predictors.begin(), spec.predictors.end());
@@ -232,16 +237,19 @@ CohortFit fitCohortModel(const Table& table, const CohortFitSpec& spec) {
     result.codings.push_back(std::move(coding));
   }
 
-  const Eigen::MatrixXd design = designMatrix(model, table, rows);
-  rejectConstantTerms(table, model, design);
-  const Eigen::Index n = design.rows();
-  Eigen::MatrixXd X(n, design.cols() + 1);
-  X.col(0).setOnes();
-  X.rightCols(design.cols()) = design;
+  // The fingerprint reads the values, so it comes before they may be released.
+  model.development.analysedSha256 = analysedDataFingerprint(model, table, rows, outcome);
+  markStage("  analysed-data fingerprint");
+  const Eigen::MatrixXd X = releasable != nullptr
+                                ? designMatrixWithInterceptReleasing(model, *releasable, rows)
+                                : designMatrixWithIntercept(model, table, rows);
+  rejectConstantTerms(table, model, X);
+  markStage("  design matrix");
   const Eigen::VectorXd y =
       Eigen::Map<const Eigen::VectorXd>(outcome.data(), static_cast<Eigen::Index>(outcome.size()));
   result.events = static_cast<std::size_t>(y.sum());
   result.fit = fitLogistic(X, y, nullptr, spec.fit);
+  markStage("  maximum likelihood");
   throwForProblem(table, model, result.fit);
   if (spec.profileIntervals && !spec.fit.firth) {
     result.profile = profileLikelihoodIntervals(X, y, result.fit, spec.fit);
@@ -257,13 +265,22 @@ CohortFit fitCohortModel(const Table& table, const CohortFitSpec& spec) {
     model.terms[j].estimate = {result.fit.beta[k], result.fit.se[k]};
   }
   model.development.n = static_cast<long long>(rows.size());
-  model.development.analysedSha256 = analysedDataFingerprint(model, table, rows, outcome);
   model.development.events = static_cast<long long>(result.events);
   model.development.software = std::string("calivera ") + CALIVERA_VERSION;
   model.development.method = spec.fit.firth
                                  ? "Firth penalized likelihood (Newton-Raphson)"
                                  : "maximum likelihood (Newton-Raphson with step-halving)";
   return result;
+}
+
+}  // namespace
+
+CohortFit fitCohortModel(const Table& table, const CohortFitSpec& spec) {
+  return fitFromTable(table, nullptr, spec);
+}
+
+CohortFit fitCohortModel(Table&& table, const CohortFitSpec& spec) {
+  return fitFromTable(table, &table, spec);
 }
 
 }  // namespace calivera

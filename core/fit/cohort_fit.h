@@ -63,4 +63,9 @@ struct CohortFit {
 // non-convergence unless Firth resolved them), naming the terms and variables involved.
 CohortFit fitCohortModel(const Table& table, const CohortFitSpec& spec);
 
+// The same fit from a table nobody needs afterwards (the command line's): its values are released
+// column by column while the design matrix is built, so peak memory holds the cohort's values
+// about once instead of twice (issue 13). Same result as the overload above.
+CohortFit fitCohortModel(Table&& table, const CohortFitSpec& spec);
+
 }  // namespace calivera

@@ -2,9 +2,13 @@
 
 #include <Eigen/Dense>
 #include <cmath>
+#include <future>
+#include <string>
+#include <vector>
 
 #include "core/fit/logistic_fit.h"
 #include "core/metrics/proportion_ci.h"
+#include "core/util/parallel_size.h"
 
 namespace calivera {
 namespace {
@@ -137,13 +141,24 @@ SmallFit recalibrationFit(const std::vector<double>& lp, const std::vector<doubl
 CalibrationFit calibrationRegression(const std::vector<double>& linearPredictor,
                                      const std::vector<double>& outcome) {
   CalibrationFit c;
+  // The two fits are independent: on a large cohort the slope model is fitted on a second
+  // thread (issue 13). Its warnings are kept apart and appended after the first fit's, so the
+  // result is the same as fitting one after the other.
+  std::vector<std::string> slopeWarnings;
+  const auto fitSlope = [&] {
+    return recalibrationFit(linearPredictor, outcome, true, "calibration slope", slopeWarnings);
+  };
+  std::future<SmallFit> slopeJob;
+  if (linearPredictor.size() >= kParallelFromPatients) {
+    slopeJob = std::async(std::launch::async, fitSlope);
+  }
   const SmallFit large =
       recalibrationFit(linearPredictor, outcome, false, "calibration-in-the-large", c.warnings);
   c.intercept = large.beta(0);
   c.interceptSe = std::sqrt(large.covariance(0, 0));
   c.interceptCi = {c.intercept - kZ95 * c.interceptSe, c.intercept + kZ95 * c.interceptSe};
-  const SmallFit slope =
-      recalibrationFit(linearPredictor, outcome, true, "calibration slope", c.warnings);
+  const SmallFit slope = slopeJob.valid() ? slopeJob.get() : fitSlope();
+  c.warnings.insert(c.warnings.end(), slopeWarnings.begin(), slopeWarnings.end());
   c.slopeModelIntercept = slope.beta(0);
   c.slope = slope.beta(1);
   c.slopeSe = std::sqrt(slope.covariance(1, 1));

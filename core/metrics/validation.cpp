@@ -4,6 +4,7 @@
 
 #include <algorithm>
 #include <cmath>
+#include <future>
 #include <limits>
 #include <sstream>
 
@@ -20,6 +21,7 @@
 #include "core/metrics/sorted_cohort.h"
 #include "core/metrics/threshold_table.h"
 #include "core/util/errors.h"
+#include "core/util/parallel_size.h"
 
 namespace calivera {
 namespace {
@@ -159,6 +161,18 @@ ValidationResult validate(const ValidationInput& input, const ValidationOptions&
   reportProgress(options.progress, 0.05);
 
   const SortedCohort sorted = sortCohort(risk, y);
+  // On a large cohort the loess curve is computed on its own thread while discrimination and the
+  // calibration fits run on this one (issue 13); nothing is shared but the const sorted cohort,
+  // so the numbers are the same either way.
+  LoessOptions loessOptions;
+  loessOptions.exactMaxN = options.loessExactMaxN;
+  loessOptions.gridPoints = options.loessGridPoints;
+  std::future<LoessCalibration> loessJob;
+  if (risk.size() >= kParallelFromPatients) {
+    loessJob = std::async(std::launch::async, [&sorted, &loessOptions] {
+      return loessCalibration(sorted, loessOptions);
+    });
+  }
   reportProgress(options.progress, 0.25);
 
   const AucEstimate auc = aucWithDelong(sorted);
@@ -201,10 +215,8 @@ ValidationResult validate(const ValidationInput& input, const ValidationOptions&
   if (std::isnan(spiegel.z)) r.warnings.push_back("Spiegelhalter z undefined: zero variance");
   reportProgress(options.progress, 0.55);
 
-  LoessOptions loessOptions;
-  loessOptions.exactMaxN = options.loessExactMaxN;
-  loessOptions.gridPoints = options.loessGridPoints;
-  const LoessCalibration loess = loessCalibration(sorted, loessOptions);
+  const LoessCalibration loess =
+      loessJob.valid() ? loessJob.get() : loessCalibration(sorted, loessOptions);
   if (loess.available) {
     c.ici = loess.ici;
     c.e50 = loess.e50;

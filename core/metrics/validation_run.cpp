@@ -12,6 +12,7 @@
 #include "core/model/model_io.h"
 #include "core/util/errors.h"
 #include "core/util/sha256.h"
+#include "core/util/stage_times.h"
 
 namespace calivera {
 std::string exclusionWarning(const ExclusionReport& report) {
@@ -163,10 +164,12 @@ ValidationRun runValidation(const ValidationRequest& request, std::shared_ptr<co
   }
   const Model* model = run.model ? &*run.model : nullptr;
   run.cohort = prepareCohort(*table, request.outcome, model, request.riskColumn);
+  markStage("cohort prepared");
   if (model) {
     run.analysedSha256 =
         analysedDataFingerprint(*model, *table, run.cohort.rows, run.cohort.input.outcome);
   }
+  markStage("analysed-data fingerprint");
   const PerformanceDecision decision =
       decidePerformance(model, run.dataSha256, run.analysedSha256, request.developmentData);
   run.performance = decision.apparent ? kPerformanceApparent : kPerformanceNewData;
@@ -176,6 +179,7 @@ ValidationRun runValidation(const ValidationRequest& request, std::shared_ptr<co
   if (options.thresholds.empty()) options.thresholds = thresholdRange(0.01, 0.99, 0.01);
   run.request.options.thresholds = options.thresholds;
   run.result = validate(run.cohort.input, options);
+  markStage("validated");
   run.result.warnings.insert(run.result.warnings.begin(), run.cohort.warnings.begin(),
                              run.cohort.warnings.end());
   run.request.options.apparent = decision.apparent;
@@ -221,7 +225,9 @@ ValidationRun runValidation(const ValidationRequest& request) {
     return digest;
   });
   CsvReadResult read = readCsvFile(request.dataPath, request.csv);
+  markStage("cohort parsed");
   std::string sha = hash.get();
+  markStage("cohort hashed");
   return runValidation(request, std::make_shared<const Table>(std::move(read.table)),
                        std::move(sha));
 }

@@ -2,12 +2,15 @@
 
 #include <algorithm>
 #include <cassert>
+#include <future>
+#include <string>
 
 #include "core/model/category_levels.h"
 #include "core/model/linear_predictor.h"
 #include "core/util/errors.h"
-#include "core/util/number_format.h"
+#include "core/util/parallel_size.h"
 #include "core/util/sha256.h"
+#include "core/util/shortest_decimal.h"
 
 namespace calivera {
 
@@ -28,23 +31,44 @@ std::string analysedDataFingerprint(const Model& model, const Table& table,
     hash.add("\n");
   }
   hash.add("\n");
-  std::string row;
-  for (std::size_t i = 0; i < rows.size(); ++i) {
-    row.assign(outcome[i] > 0.5 ? "1" : "0");
-    for (const auto& [variable, column] : columns) {
-      row += '\x1f';
-      const std::uint32_t r = rows[i];
-      if (column->kind == ColumnKind::Numeric) {
-        row += formatShortest(column->numbers[r]);
-      } else {
-        const std::int32_t code = column->codes[r];
-        const std::string& level =
-            code < 0 ? std::string() : mappedLevel(model, variable, column->levels[code]);
-        row += std::to_string(level.size()) + ":" + level;
+  // The canonical text of rows [begin, end), appended to `text`.
+  const auto canonical = [&](std::size_t begin, std::size_t end) {
+    std::string text;
+    text.reserve((end - begin) * (2 + 12 * columns.size()) + kMaxShortestLength);
+    std::vector<int> decimals(columns.size(), 0);  // per column, see appendShortest
+    for (std::size_t i = begin; i < end; ++i) {
+      text += outcome[i] > 0.5 ? '1' : '0';
+      for (std::size_t c = 0; c < columns.size(); ++c) {
+        const auto& [variable, column] = columns[c];
+        text += '\x1f';
+        const std::uint32_t r = rows[i];
+        if (column->kind == ColumnKind::Numeric) {
+          const std::size_t at = text.size();  // written in place: no per-value copy
+          text.resize(at + kMaxShortestLength);
+          const char* end = writeShortest(text.data() + at, column->numbers[r], decimals[c]);
+          text.resize(static_cast<std::size_t>(end - text.data()));
+        } else {
+          const std::int32_t code = column->codes[r];
+          const std::string& level =
+              code < 0 ? std::string() : mappedLevel(model, variable, column->levels[code]);
+          text += std::to_string(level.size()) + ":" + level;
+        }
       }
+      text += '\x1e';
     }
-    row += '\x1e';
-    hash.add(row);
+    return text;
+  };
+  // Blocks of rows; on a large cohort every other block is written on a second thread while this
+  // one writes and hashes the rest in order (issue 13), so the digest is the same either way.
+  constexpr std::size_t kBlockRows = std::size_t{1} << 15;
+  const bool parallel = rows.size() >= kParallelFromPatients;
+  for (std::size_t begin = 0; begin < rows.size(); begin += 2 * kBlockRows) {
+    const std::size_t middle = std::min(rows.size(), begin + kBlockRows);
+    const std::size_t end = std::min(rows.size(), begin + 2 * kBlockRows);
+    std::future<std::string> second;
+    if (parallel && middle < end) second = std::async(std::launch::async, canonical, middle, end);
+    hash.add(canonical(begin, middle));
+    hash.add(second.valid() ? second.get() : canonical(middle, end));
   }
   return hash.hex();
 }

@@ -32,6 +32,18 @@ void requireModelColumns(const Model& model, const Table& table);
 Eigen::MatrixXd designMatrix(const Model& model, const Table& table,
                              const std::vector<std::uint32_t>& rows);
 
+// [1 designMatrix]: the intercept column first, built in place (the fitters' layout; no copy of
+// an n x p matrix, issue 13). Same checks and messages as designMatrix.
+Eigen::MatrixXd designMatrixWithIntercept(const Model& model, const Table& table,
+                                          const std::vector<std::uint32_t>& rows);
+
+// The same matrix from a table nobody reads afterwards: each column's values are released (and
+// handed back to the system) as soon as the last term reading it is built, so the cohort's values
+// and the matrix are never both resident in full (issue 13). The table keeps its names and levels
+// but no values.
+Eigen::MatrixXd designMatrixWithInterceptReleasing(const Model& model, Table& table,
+                                                   const std::vector<std::uint32_t>& rows);
+
 // intercept + design * coefficients, per selected row.
 std::vector<double> linearPredictor(const Model& model, const Table& table,
                                     const std::vector<std::uint32_t>& rows);

@@ -46,10 +46,7 @@ InternalValidation internalValidation(const Model& model, const UpdateData& data
                            *model.development.dataSha256 +
                            "); run as stated: this cohort is the model's development data");
   }
-  const Eigen::MatrixXd design = designMatrix(model, *data.table, data.rows);
-  Eigen::MatrixXd X(design.rows(), design.cols() + 1);
-  X.col(0).setOnes();
-  X.rightCols(design.cols()) = design;
+  const Eigen::MatrixXd X = designMatrixWithIntercept(model, *data.table, data.rows);
   const Eigen::VectorXd y = Eigen::Map<const Eigen::VectorXd>(
       data.outcome.data(), static_cast<Eigen::Index>(data.outcome.size()));
   out.optimism = bootstrapOptimism(X, y, options);

@@ -137,10 +137,7 @@ UpdatedModel updateModel(const Model& model, const UpdateData& data, UpdateMetho
       break;
     }
     case UpdateMethod::Refit: {
-      const Eigen::MatrixXd design = designMatrix(model, *data.table, data.rows);
-      Eigen::MatrixXd X(n, design.cols() + 1);
-      X.col(0).setOnes();
-      X.rightCols(design.cols()) = design;
+      const Eigen::MatrixXd X = designMatrixWithIntercept(model, *data.table, data.rows);
       fitOptions.firth = options.firth;
       const FitResult fit = fitLogistic(X, y, nullptr, fitOptions);
       noteFitProblems(fit, "refit", result.warnings);

@@ -4,6 +4,8 @@
 #include <limits>
 #include <sstream>
 
+#include "core/metrics/loess_calibration.h"
+#include "core/metrics/sorted_cohort.h"
 #include "core/metrics/validation.h"
 #include "core/model/linear_predictor.h"
 #include "core/uncertainty/weighted_metrics.h"
@@ -40,23 +42,30 @@ std::vector<double> toStd(const Eigen::VectorXd& v) {
   return {v.data(), v.data() + v.size()};
 }
 
-// ICI of risks expit(lp) under weights (expanded into copies for validate()).
+// ICI of risks expit(lp) under weights (expanded into copies): the loess calibration curve
+// exactly as validate() computes it (the same sorted cohort and options), without the rest of a
+// validation (issue 13: AUC with DeLong, ROC, calibration fits, Hosmer-Lemeshow and the decision
+// curve were computed twice per replicate only to be discarded).
 double iciOf(const std::vector<double>& lp, const std::vector<double>& y,
              const std::vector<double>& weights) {
-  ValidationInput input;
-  std::vector<double> expandedLp;
+  std::vector<double> risk;
+  std::vector<double> outcome;
+  risk.reserve(lp.size());
+  outcome.reserve(lp.size());
   for (std::size_t i = 0; i < lp.size(); ++i) {
     const int copies = weights.empty() ? 1 : static_cast<int>(weights[i]);
+    const double p = logisticRisk(lp[i]);
     for (int c = 0; c < copies; ++c) {
-      input.outcome.push_back(y[i]);
-      input.risk.push_back(logisticRisk(lp[i]));
-      expandedLp.push_back(lp[i]);
+      outcome.push_back(y[i]);
+      risk.push_back(p);
     }
   }
-  input.linearPredictor = std::move(expandedLp);
-  ValidationOptions options;
-  options.thresholds = {0.5};
-  return validate(input, options).calibration.ici;
+  const ValidationOptions defaults;
+  LoessOptions loessOptions;
+  loessOptions.exactMaxN = defaults.loessExactMaxN;
+  loessOptions.gridPoints = defaults.loessGridPoints;
+  const LoessCalibration loess = loessCalibration(sortCohort(risk, outcome), loessOptions);
+  return loess.available ? loess.ici : kNaN;
 }
 
 // Measures in kMeasureNames order for the LP on the data under weights.

@@ -72,4 +72,19 @@ void MappedFile::release(std::string_view range) const {
   ::madvise(reinterpret_cast<void*>(first), last - first, MADV_DONTNEED);
 }
 
+void MappedFile::populate(std::string_view range) const {
+#ifdef MADV_POPULATE_READ
+  if (data_ == nullptr || range.empty()) return;
+  const auto page = static_cast<std::uintptr_t>(::sysconf(_SC_PAGESIZE));
+  const auto base = reinterpret_cast<std::uintptr_t>(data_);
+  const auto begin = std::max(reinterpret_cast<std::uintptr_t>(range.data()) / page * page, base);
+  const auto end =
+      std::min(reinterpret_cast<std::uintptr_t>(range.data()) + range.size(), base + size_);
+  if (end <= begin) return;
+  ::madvise(reinterpret_cast<void*>(begin), end - begin, MADV_POPULATE_READ);
+#else
+  (void)range;
+#endif
+}
+
 }  // namespace calivera
