@@ -197,12 +197,7 @@ int runFitCommand(const std::vector<std::string>& words) {
   csv.onlyColumns = fitSpec.predictors;
   csv.onlyColumns.push_back(fitSpec.outcome.column);
 
-  // The file's fingerprint is computed on its own thread while the file is parsed (issue 13).
-  std::future<std::string> hash = std::async(std::launch::async, [&dataPath] {
-    std::string digest = sha256OfFile(dataPath);
-    releaseThreadHashState();
-    return digest;
-  });
+  std::future<std::string> hash = sha256OfFileInBackground(dataPath);
   CsvReadResult read = readCsvFile(dataPath, csv);
   const std::string dataSha256 = hash.get();
   markStage("cohort parsed and hashed");

@@ -215,15 +215,7 @@ std::vector<std::string> analysisColumns(const ValidationRequest& request,
 }
 
 ValidationRun runValidation(const ValidationRequest& request) {
-  // The file's fingerprint is computed on its own thread while the file is parsed (issue 13):
-  // both read the same bytes, and hashing is one serial pass. If parsing throws, the future's
-  // destructor waits for the hash (sha256OfFile refuses special files at once, so it never
-  // blocks on a FIFO).
-  std::future<std::string> hash = std::async(std::launch::async, [path = request.dataPath] {
-    std::string digest = sha256OfFile(path);
-    releaseThreadHashState();
-    return digest;
-  });
+  std::future<std::string> hash = sha256OfFileInBackground(request.dataPath);
   CsvReadResult read = readCsvFile(request.dataPath, request.csv);
   markStage("cohort parsed");
   std::string sha = hash.get();

@@ -3,6 +3,7 @@
 #include <algorithm>
 #include <cmath>
 #include <filesystem>
+#include <future>
 
 #include "core/data/cohort.h"
 #include "core/fit/cohort_fit.h"
@@ -44,11 +45,12 @@ CsvOptions csvOptionsFor(const ImportSettings& settings) {
 
 LoadedTable loadCohortFile(const std::string& path, const ImportSettings& settings) {
   LoadedTable loaded;
+  std::future<std::string> hash = sha256OfFileInBackground(path);  // while the file is parsed
   CsvReadResult read = readCsvFile(path, csvOptionsFor(settings));
   loaded.delimiter = read.delimiter;
   loaded.table = std::make_shared<const Table>(std::move(read.table));
   loaded.record.path = std::filesystem::absolute(path).string();
-  loaded.record.sha256 = sha256OfFile(path);
+  loaded.record.sha256 = hash.get();
   return loaded;
 }
 

@@ -66,6 +66,14 @@ std::string hashLibraryVersion() {
   return OpenSSL_version(OPENSSL_VERSION);
 }
 
+std::future<std::string> sha256OfFileInBackground(const std::string& path) {
+  return std::async(std::launch::async, [path] {
+    std::string digest = sha256OfFile(path);
+    releaseThreadHashState();
+    return digest;
+  });
+}
+
 void releaseThreadHashState() {
   OPENSSL_thread_stop();
 }

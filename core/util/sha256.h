@@ -2,6 +2,7 @@
 // SHA-256 fingerprints of input files (OpenSSL's libcrypto), recorded in model files, reports and
 // study files so a reader can tell exactly which data produced a result.
 
+#include <future>
 #include <string>
 #include <string_view>
 
@@ -10,6 +11,12 @@ namespace calivera {
 // Lowercase hex digest. Throws InputError naming the path when the file cannot be read.
 std::string sha256OfFile(const std::string& path);
 std::string sha256OfBytes(std::string_view bytes);
+
+// sha256OfFile on a thread of its own, so a file is hashed while it is parsed (issue 13: both
+// read the same bytes, and hashing is one serial pass). The thread's OpenSSL state is released
+// when it ends. If the caller throws before get(), the future's destructor waits for the hash
+// (sha256OfFile refuses special files at once, so it never blocks on a FIFO).
+std::future<std::string> sha256OfFileInBackground(const std::string& path);
 
 // The hashing library as it reports itself at run time (e.g. "OpenSSL 3.0.x ..."), for About.
 std::string hashLibraryVersion();

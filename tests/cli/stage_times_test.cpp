@@ -13,7 +13,6 @@ namespace calivera {
 namespace {
 
 using testing::CliRun;
-using testing::readWhole;
 using testing::runCalivera;
 using testing::TempDir;
 
@@ -42,10 +41,11 @@ TEST(StageTimes, OnlyAddStageLinesToStandardError) {
   EXPECT_NE(timed.find("stage cohort parsed"), std::string::npos) << timed;
   EXPECT_NE(timed.find("stage analysed-data fingerprint"), std::string::npos) << timed;
   EXPECT_NE(timed.find("stage fitted"), std::string::npos) << timed;
-  EXPECT_EQ(readWhole(dir.file("model_quiet.json")), readWhole(dir.file("model_timed.json")));
+  EXPECT_EQ(testing::readWhole(dir.file("model_quiet.json")),
+            testing::readWhole(dir.file("model_timed.json")));
   // The reports name their model file, which differs by name only.
-  std::string quietReport = readWhole(dir.file("report_quiet.json"));
-  std::string timedReport = readWhole(dir.file("report_timed.json"));
+  std::string quietReport = testing::readWhole(dir.file("report_quiet.json"));
+  std::string timedReport = testing::readWhole(dir.file("report_timed.json"));
   for (std::string* report : {&quietReport, &timedReport}) {
     for (const char* name : {"model_quiet.json", "model_timed.json"}) {
       for (std::size_t at = report->find(name); at != std::string::npos; at = report->find(name)) {
