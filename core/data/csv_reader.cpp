@@ -249,8 +249,7 @@ void parseChunk(std::string_view text, const FieldReader& reader, const std::str
       }
       const char* fieldEnd = nullptr;
       if (slots[c] == nullptr) {
-        fieldEnd = field;
-        while (fieldEnd != contentEnd && *fieldEnd != delimiter) ++fieldEnd;
+        fieldEnd = csv::fieldEndAt(field, contentEnd, delimiter);
       } else {
         storeField(field, contentEnd, fieldEnd, slots[c][row], chunk.tallies[c], line);
       }

@@ -31,11 +31,11 @@ inline Line lineAt(const char* begin, const char* end) {
   return Line{begin, contentEnd, lineEnd + 1};
 }
 
-// Where the field starting at `field` ends: at the next delimiter or at `contentEnd`.
+// Where the field starting at `field` ends: at the next delimiter or at `contentEnd`. A plain
+// loop: fields are a few bytes long, where a memchr call costs more than it saves (issue 13).
 inline const char* fieldEndAt(const char* field, const char* contentEnd, char delimiter) {
-  const char* end = static_cast<const char*>(
-      std::memchr(field, delimiter, static_cast<std::size_t>(contentEnd - field)));
-  return end == nullptr ? contentEnd : end;
+  while (field != contentEnd && *field != delimiter) ++field;
+  return field;
 }
 
 class RecordScanner {

@@ -31,11 +31,11 @@ std::string analysedDataFingerprint(const Model& model, const Table& table,
     hash.add("\n");
   }
   hash.add("\n");
-  // The canonical text of rows [begin, end), appended to `text`.
+  // The canonical text of rows [begin, end).
   const auto canonical = [&](std::size_t begin, std::size_t end) {
     std::string text;
     text.reserve((end - begin) * (2 + 12 * columns.size()) + kMaxShortestLength);
-    std::vector<int> decimals(columns.size(), 0);  // per column, see appendShortest
+    std::vector<int> decimals(columns.size(), 0);  // per column, see writeShortest
     for (std::size_t i = begin; i < end; ++i) {
       text += outcome[i] > 0.5 ? '1' : '0';
       for (std::size_t c = 0; c < columns.size(); ++c) {
@@ -45,8 +45,8 @@ std::string analysedDataFingerprint(const Model& model, const Table& table,
         if (column->kind == ColumnKind::Numeric) {
           const std::size_t at = text.size();  // written in place: no per-value copy
           text.resize(at + kMaxShortestLength);
-          const char* end = writeShortest(text.data() + at, column->numbers[r], decimals[c]);
-          text.resize(static_cast<std::size_t>(end - text.data()));
+          const char* written = writeShortest(text.data() + at, column->numbers[r], decimals[c]);
+          text.resize(static_cast<std::size_t>(written - text.data()));
         } else {
           const std::int32_t code = column->codes[r];
           const std::string& level =

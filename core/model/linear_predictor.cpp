@@ -119,17 +119,17 @@ class BoundTerm {
   void forEachValue(const std::vector<std::uint32_t>& rows, Sink&& sink) const {
     if (term_.kind == TransformKind::Linear && column_->kind == ColumnKind::Numeric) {
       const double* const x = column_->numbers.data();
-      const double center = term_.center;
-      const double scale = term_.scale;
       for (std::size_t i = 0; i < rows.size(); ++i) {
         const double v = x[rows[i]];
         if (v != v) fail(rows[i], "is missing");
-        sink(i, (v - center) / scale);
+        sink(i, linearValue(v));
       }
       return;
     }
     for (std::size_t i = 0; i < rows.size(); ++i) sink(i, value(rows[i]));
   }
+
+  double linearValue(double x) const { return (x - term_.center) / term_.scale; }
 
   double value(std::size_t row) const {
     if (term_.kind == TransformKind::Product)
@@ -145,7 +145,7 @@ class BoundTerm {
     const double x = column_->numbers[row];
     switch (term_.kind) {
       case TransformKind::Linear:
-        return (x - term_.center) / term_.scale;
+        return linearValue(x);
       case TransformKind::Log:
         if (!(x > 0)) fail(row, "is " + formatNumber(x) + "; the natural log needs a value > 0");
         return std::log(x);
