@@ -264,14 +264,21 @@ int executeValidation(const ValidationRequest& request, const UncertaintyRequest
   // Only the columns the analysis reads are parsed and kept (issue 13: time and memory scale with
   // them, not with the file's width); every record's field count is still checked.
   ValidationRequest projected = request;
-  projected.csv.onlyColumns = analysisColumns(request, uncertaintyWanted.compareModelPaths,
-                                              uncertaintyWanted.subgroupColumns);
+  std::vector<std::string> groupingColumns = uncertaintyWanted.subgroupColumns;
+  if (uncertaintyWanted.clusterColumn) groupingColumns.push_back(*uncertaintyWanted.clusterColumn);
+  projected.csv.onlyColumns =
+      analysisColumns(request, uncertaintyWanted.compareModelPaths, groupingColumns);
   markStage("arguments read");
   ValidationRun run = runValidation(projected);
   run.request.csv.onlyColumns.clear();  // the run as the user asked for it
   if (afterRun) afterRun(run);
   // uncertainty: sample size (always), bootstrap intervals, comparison, subgroups.
-  const UncertaintyResults uncertainty = runUncertainty(run, uncertaintyWanted);
+  UncertaintyRequest uncertaintyRequest = uncertaintyWanted;
+  // Net benefit across sites is pooled at the thresholds the report tabulates.
+  if (uncertaintyRequest.clusterThresholds.empty()) {
+    uncertaintyRequest.clusterThresholds = outputs.tableThresholds;
+  }
+  const UncertaintyResults uncertainty = runUncertainty(run, uncertaintyRequest);
   markStage("uncertainty");
   // Every output is rendered before anything is written; the JSON is written last so a reader
   // that waits for it sees the tables too.

@@ -7,11 +7,13 @@
 
 #include "core/present/number_text.h"
 #include "core/present/wording.h"
+#include "core/report/site_tables.h"
 #include "core/report/validation_json.h"
 #include "core/study/limits.h"
 #include "core/uncertainty/bootstrap_measures.h"
 #include "core/uncertainty/uncertainty_json.h"
 #include "core/util/errors.h"
+#include "core/util/shown_text.h"
 
 namespace calivera::cli {
 namespace {
@@ -33,8 +35,8 @@ void printEstimate(std::ostream& out, const BootstrappedMeasure& m, const Bootst
 }  // namespace
 
 void addUncertaintyOptions(OptionSpec& spec) {
-  spec.valued.insert(
-      {"--bootstrap", "--seed", "--threads", "--compare", "--subgroup", "--size-thresholds"});
+  spec.valued.insert({"--bootstrap", "--seed", "--threads", "--compare", "--subgroup", "--cluster",
+                      "--size-thresholds"});
 }
 
 const char* uncertaintyOptionsHelp() {
@@ -44,6 +46,9 @@ const char* uncertaintyOptionsHelp() {
          "  --compare MODEL.json    compare a further model on the same patients (repeatable;\n"
          "                          a second --model does the same)\n"
          "  --subgroup COLUMN       every measure per level of COLUMN (repeatable)\n"
+         "  --cluster COLUMN        each level of COLUMN is a site: validated alone, then pooled\n"
+         "                          by random-effects meta-analysis (REML, HKSJ interval,\n"
+         "                          prediction interval for a new site)\n"
          "  --size-thresholds T,..  thresholds for the net-benefit sample-size criterion\n";
 }
 
@@ -75,6 +80,12 @@ UncertaintyRequest uncertaintyRequest(const Arguments& args) {
   for (std::size_t m = 1; m < models.size(); ++m) request.compareModelPaths.push_back(models[m]);
   for (const auto& path : args.values("--compare")) request.compareModelPaths.push_back(path);
   request.subgroupColumns = args.values("--subgroup");
+  const std::vector<std::string> clusters = args.values("--cluster");
+  if (clusters.size() > 1) throw InputError("--cluster: give one site column");
+  if (!clusters.empty()) {
+    if (clusters.front().empty()) throw InputError("--cluster: give a column name");
+    request.clusterColumn = clusters.front();
+  }
   if (const auto list = args.value("--size-thresholds")) {
     for (const auto& item : splitList(*list, "--size-thresholds")) {
       const double t = parseNumber(item, "--size-thresholds");
@@ -145,6 +156,15 @@ void printUncertaintySummary(std::ostream& out, const UncertaintyResults& r) {
       out << '\n';
       for (const auto& w : level.warnings) out << "    warning: " << w << '\n';
     }
+  }
+  if (r.sites) {
+    out << "sites by " << shownText(r.sites->column) << ", each validated alone:\n"
+        << tableText(sitesTable(*r.sites), "  ");
+    out << "pooled across sites (random effects, REML; 95% CI by Hartung-Knapp-Sidik-Jonkman; "
+           "prediction interval for a new site on k-2 df):\n"
+        << tableText(pooledSitesTable(*r.sites), "  ");
+    out << "net benefit across sites (all patients' counts, and the random-effects mean):\n"
+        << tableText(pooledNetBenefitTable(*r.sites), "  ");
   }
 }
 

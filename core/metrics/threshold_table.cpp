@@ -1,5 +1,7 @@
 #include "core/metrics/threshold_table.h"
 
+#include <algorithm>
+#include <cmath>
 #include <limits>
 
 #include "core/metrics/proportion_ci.h"
@@ -47,6 +49,22 @@ std::vector<ThresholdRow> thresholdTable(const SortedCohort& sorted,
     table.push_back(thresholdRowFromCounts(t, c.tp, c.fp, c.tn, c.fn));
   }
   return table;
+}
+
+std::vector<double> defaultTableThresholds(const std::vector<ThresholdRow>& all) {
+  std::vector<double> wanted;
+  // A short table of the computed thresholds, never the full 99-row grid.
+  if (all.size() <= 12) {
+    for (const ThresholdRow& row : all) wanted.push_back(row.threshold);
+    return wanted;
+  }
+  for (const double t : {0.05, 0.1, 0.2, 0.3, 0.5}) {
+    const bool present = std::any_of(all.begin(), all.end(), [&](const ThresholdRow& r) {
+      return std::abs(r.threshold - t) < 1e-9;
+    });
+    if (present) wanted.push_back(t);
+  }
+  return wanted;
 }
 
 }  // namespace calivera

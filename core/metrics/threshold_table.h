@@ -19,4 +19,10 @@ ThresholdRow thresholdRowFromCounts(double threshold, std::size_t tp, std::size_
 std::vector<ThresholdRow> thresholdTable(const SortedCohort& sorted,
                                          const std::vector<double>& thresholds);
 
+// The threshold table's rows when none are selected: every computed threshold when there are at
+// most 12, else those of 0.05, 0.1, 0.2, 0.3 and 0.5 that were computed (never a 99-row table).
+// The command line, the workstation's export dialog and the pooled net benefit across sites
+// (core/sites/site_pooling.h) start from this.
+std::vector<double> defaultTableThresholds(const std::vector<ThresholdRow>& all);
+
 }  // namespace calivera

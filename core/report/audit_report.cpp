@@ -73,22 +73,6 @@ std::string orDash(const std::optional<long long>& value) {
 
 }  // namespace
 
-std::vector<double> defaultTableThresholds(const std::vector<ThresholdRow>& all) {
-  std::vector<double> wanted;
-  // A short table of the computed thresholds, never the full 99-row grid.
-  if (all.size() <= 12) {
-    for (const ThresholdRow& row : all) wanted.push_back(row.threshold);
-    return wanted;
-  }
-  for (const double t : {0.05, 0.1, 0.2, 0.3, 0.5}) {
-    const bool present = std::any_of(all.begin(), all.end(), [&](const ThresholdRow& r) {
-      return std::abs(r.threshold - t) < 1e-9;
-    });
-    if (present) wanted.push_back(t);
-  }
-  return wanted;
-}
-
 namespace {
 
 std::string thresholdList(const std::vector<double>& thresholds) {

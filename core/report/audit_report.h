@@ -21,6 +21,7 @@
 #include <vector>
 
 #include "core/data/cohort.h"
+#include "core/metrics/threshold_table.h"  // defaultTableThresholds
 #include "core/metrics/validation.h"
 #include "core/model/model.h"
 #include "core/uncertainty/uncertainty_run.h"
@@ -126,11 +127,6 @@ const std::string& auditCautionText();
 // Throws InputError when a selected table threshold is not among result.thresholds (the caller
 // validates with the thresholds it wants tabulated).
 AuditDocument buildAuditDocument(const AuditReportInput& input);
-
-// The threshold table's rows when none are selected: every computed threshold when there are at
-// most 12, else those of 0.05, 0.1, 0.2, 0.3 and 0.5 that were computed (never a 99-row table).
-// The command line and the workstation's export dialog both start from this.
-std::vector<double> defaultTableThresholds(const std::vector<ThresholdRow>& all);
 
 // "2026-12-01 22:40:00 UTC" for seconds since the epoch.
 std::string formatUtcTimestamp(long long secondsSinceEpoch);

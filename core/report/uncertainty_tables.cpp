@@ -3,6 +3,7 @@
 #include <cmath>
 
 #include "core/report/csv_text.h"
+#include "core/report/site_tables.h"
 #include "core/report/uncertainty_result_tables.h"
 #include "core/report/validation_tables.h"
 #include "core/uncertainty/bootstrap_measures.h"
@@ -71,6 +72,12 @@ std::vector<std::pair<std::string, std::string>> uncertaintyTables(
   if (!results.subgroups.empty()) {
     const ResultTable table = subgroupsTable(results.subgroups);
     tables.emplace_back(table.fileName, tableCsv(table));
+  }
+  if (results.sites) {
+    for (const ResultTable& table : {sitesTable(*results.sites), pooledSitesTable(*results.sites),
+                                     pooledNetBenefitTable(*results.sites)}) {
+      tables.emplace_back(table.fileName, tableCsv(table));
+    }
   }
   return tables;
 }

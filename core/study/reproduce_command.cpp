@@ -96,6 +96,7 @@ std::vector<std::string> validateCommandWords(const ValidationRequest& validatio
   for (const std::string& column : uncertainty.subgroupColumns) {
     w.insert(w.end(), {"--subgroup", column});
   }
+  if (uncertainty.clusterColumn) w.insert(w.end(), {"--cluster", *uncertainty.clusterColumn});
   if (!uncertainty.sampleSize.netBenefitThresholds.empty()) {
     w.insert(w.end(),
              {"--size-thresholds", numberList(uncertainty.sampleSize.netBenefitThresholds)});

@@ -20,7 +20,8 @@ std::string shortestNumber(double value) {
 }  // namespace
 
 std::vector<std::string> subgroupLabels(const Table& table, const std::string& column,
-                                        const std::vector<std::uint32_t>& rows) {
+                                        const std::vector<std::uint32_t>& rows,
+                                        std::size_t maxLevels, const std::string& role) {
   const Column& c = table.require(column);
   std::vector<std::string> labels;
   labels.reserve(rows.size());
@@ -34,12 +35,11 @@ std::vector<std::string> subgroupLabels(const Table& table, const std::string& c
     }
   }
   const std::set<std::string> distinct(labels.begin(), labels.end());
-  if (distinct.size() > kMaxSubgroupLevels) {
+  if (distinct.size() > maxLevels) {
     throw InputError(
         table.sourceName + ": column '" + column + "' has " + std::to_string(distinct.size()) +
-        " distinct values; a subgroup column needs at most " + std::to_string(kMaxSubgroupLevels) +
-        " levels (group a continuous value into bands first; identifiers are never "
-        "subgroups)");
+        " distinct values; a " + role + " column needs at most " + std::to_string(maxLevels) +
+        " levels (group a continuous value into bands first; identifiers are never " + role + "s)");
   }
   return labels;
 }

@@ -41,9 +41,12 @@ struct SubgroupAnalysis {
 
 // The subgroup label of each selected row: text levels as written, numbers in shortest form,
 // missing as kMissingLevel. Throws InputError naming the file and column when absent, or when
-// the column has more than kMaxSubgroupLevels distinct values among the rows.
+// the column has more than `maxLevels` distinct values among the rows (`role` names what the
+// column is for in that message: "subgroup", "site").
 std::vector<std::string> subgroupLabels(const Table& table, const std::string& column,
-                                        const std::vector<std::uint32_t>& rows);
+                                        const std::vector<std::uint32_t>& rows,
+                                        std::size_t maxLevels = kMaxSubgroupLevels,
+                                        const std::string& role = "subgroup");
 
 // labels[i] belongs to patient i of `input`. bootstrapOptions.bootstrap.replicates 0: no intervals.
 SubgroupAnalysis validateSubgroups(const std::string& column,

@@ -3,6 +3,7 @@
 #include <cmath>
 
 #include "core/metrics/json_values.h"
+#include "core/sites/site_json.h"
 #include "core/uncertainty/bootstrap_measures.h"
 
 namespace calivera {
@@ -227,6 +228,7 @@ void addUncertaintyJson(nlohmann::json& out, const UncertaintyResults& results) 
     }
     out["subgroups"] = all;
   }
+  if (results.sites) out["clusters"] = siteAnalysisJson(*results.sites);
 }
 
 }  // namespace calivera

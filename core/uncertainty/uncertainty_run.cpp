@@ -3,6 +3,7 @@
 #include <algorithm>
 #include <cmath>
 
+#include "core/metrics/threshold_table.h"
 #include "core/model/linear_predictor.h"
 #include "core/model/model_io.h"
 #include "core/util/errors.h"
@@ -65,7 +66,8 @@ UncertaintyResults runUncertainty(const UncertaintySubject& subject,
   const bool boot = request.bootstrapReplicates > 0;
   // Shares of the progress bar: the validation bootstrap, the comparison, the subgroups.
   const double parts = (boot ? 1.0 : 0.0) + (comparing ? 1.0 : 0.0) +
-                       static_cast<double>(request.subgroupColumns.size());
+                       static_cast<double>(request.subgroupColumns.size()) +
+                       (request.clusterColumn ? 1.0 : 0.0);
   double done = 0.0;
   const auto nextSegment = [&] {
     const double from = parts > 0 ? done / parts : 0.0;
@@ -162,6 +164,16 @@ UncertaintyResults runUncertainty(const UncertaintySubject& subject,
     bootstrapOptions.bootstrap.progress = nextSegment();
     results.subgroups.push_back(
         validateSubgroups(column, labels, input, subject.options, bootstrapOptions));
+  }
+  if (request.clusterColumn) {
+    const std::vector<std::string> labels =
+        subgroupLabels(subject.table, *request.clusterColumn, subject.rows, kMaxSites, "site");
+    const std::vector<double> thresholds = request.clusterThresholds.empty()
+                                               ? defaultTableThresholds(apparent.thresholds)
+                                               : request.clusterThresholds;
+    ValidationOptions siteOptions = subject.options;
+    siteOptions.progress = nextSegment();
+    results.sites = validateSites(*request.clusterColumn, labels, input, siteOptions, thresholds);
   }
   reportProgress(request.progress, 1.0);
   return results;

@@ -12,6 +12,7 @@
 #include <vector>
 
 #include "core/metrics/validation_run.h"
+#include "core/sites/site_pooling.h"
 #include "core/uncertainty/model_comparison.h"
 #include "core/uncertainty/sample_size.h"
 #include "core/uncertainty/subgroups.h"
@@ -26,6 +27,10 @@ struct UncertaintyRequest {
   unsigned threads = 0;                        // 0: all hardware threads
   std::vector<std::string> compareModelPaths;  // further model files compared with the run's
   std::vector<std::string> subgroupColumns;
+  // Sites: every level of this column validated alone and pooled (core/sites/site_pooling.h).
+  std::optional<std::string> clusterColumn;
+  // Net benefit pooled across sites at these thresholds; empty: defaultTableThresholds.
+  std::vector<double> clusterThresholds;
   SampleSizeTargets sampleSize;
   ProgressCallback progress;  // over the whole request
 };
@@ -46,6 +51,7 @@ struct UncertaintyResults {
   // rows with the run's options: the curves that comparison overlays draw. Empty: no comparison.
   std::vector<ValidationResult> comparedResults;
   std::vector<SubgroupAnalysis> subgroups;
+  std::optional<SiteAnalysis> sites;  // when clusterColumn was given
 };
 
 // What one uncertainty request works on, borrowed from the caller for the duration of the call:

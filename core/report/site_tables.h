@@ -1,0 +1,19 @@
+#pragma once
+// The tables of a validation across sites (core/sites/site_pooling.h), as ResultTables: each
+// site validated alone, each measure pooled, and net benefit pooled at the tabulated thresholds.
+// `--csv-dir` writes them as sites.csv, sites_pooled.csv and sites_net_benefit.csv; the command
+// line's summary prints the first two with tableText.
+
+#include "core/report/result_table.h"
+#include "core/sites/site_pooling.h"
+
+namespace calivera {
+
+ResultTable sitesTable(const SiteAnalysis& analysis);
+ResultTable pooledSitesTable(const SiteAnalysis& analysis);
+ResultTable pooledNetBenefitTable(const SiteAnalysis& analysis);
+
+// "QLD: no events; VIC: ..." for the sites a pool left out; empty when none.
+std::string exclusionText(const std::vector<SiteExclusion>& excluded);
+
+}  // namespace calivera

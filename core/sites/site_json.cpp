@@ -1,0 +1,147 @@
+#include "core/sites/site_json.h"
+
+#include <cmath>
+#include <limits>
+
+#include "core/metrics/json_values.h"
+
+namespace calivera {
+namespace {
+
+constexpr double kNaN = std::numeric_limits<double>::quiet_NaN();
+
+Interval natural(PoolingScale scale, const Interval& ci) {
+  return {toNaturalScale(scale, ci.lo), toNaturalScale(scale, ci.hi)};
+}
+
+nlohmann::json exclusionsJson(const std::vector<SiteExclusion>& excluded) {
+  nlohmann::json out = nlohmann::json::array();
+  for (const SiteExclusion& e : excluded) out.push_back({{"site", e.site}, {"reason", e.reason}});
+  return out;
+}
+
+nlohmann::json poolJson(PoolingScale scale, const RandomEffectsOutcome& outcome) {
+  nlohmann::json out;
+  out["scale"] = poolingScaleName(scale);
+  if (!outcome.pool) {
+    const nlohmann::json none = jsonInterval(Interval{kNaN, kNaN});
+    out["k"] = 0;
+    out["estimate"] = nullptr;
+    out["ci"] = none;
+    out["prediction_interval"] = none;
+    out["tau2"] = nullptr;
+    out["i2"] = nullptr;
+    out["fixed_effect"] = {{"estimate", nullptr}, {"ci", none}};
+    out["problem"] = outcome.problem;
+    return out;
+  }
+  const RandomEffectsPool& p = *outcome.pool;
+  const Interval noInterval{kNaN, kNaN};
+  out["k"] = p.k;
+  out["estimate"] = jsonNumber(toNaturalScale(scale, p.estimate));
+  out["ci"] = jsonInterval(natural(scale, p.ci));
+  out["prediction_interval"] =
+      jsonInterval(p.predictionInterval ? natural(scale, *p.predictionInterval) : noInterval);
+  if (!p.predictionInterval) {
+    out["prediction_interval_problem"] = "a prediction interval needs at least three sites";
+  }
+  out["tau2"] = jsonNumber(p.tau2);
+  out["i2"] = jsonNumber(p.i2);
+  out["fixed_effect"] = {{"estimate", jsonNumber(toNaturalScale(scale, p.fixedEstimate))},
+                         {"ci", jsonInterval(natural(scale, p.fixedCi))}};
+  out["ci_hksj_untruncated"] = jsonInterval(natural(scale, p.ciHksj));
+  out["ci_wald"] = jsonInterval(natural(scale, p.ciWald));
+  out["hksj_scale_q"] = jsonNumber(p.hksjScale);
+  out["cochran_q"] = jsonNumber(p.q);
+  out["cochran_q_p_value"] = jsonNumber(p.qPValue);
+  out["on_pooling_scale"] = {{"estimate", jsonNumber(p.estimate)},
+                             {"se", jsonNumber(p.se)},
+                             {"ci", jsonInterval(p.ci)},
+                             {"fixed_effect_estimate", jsonNumber(p.fixedEstimate)},
+                             {"fixed_effect_se", jsonNumber(p.fixedSe)}};
+  out["tau2_iterations"] = p.iterations;
+  return out;
+}
+
+nlohmann::json siteJson(const SubgroupResult& site) {
+  nlohmann::json s;
+  s["name"] = site.level;
+  s["n"] = site.n;
+  s["events"] = site.events;
+  s["too_small"] = site.tooSmall;
+  if (site.metrics) {
+    const ValidationResult& m = *site.metrics;
+    s["auc"] = jsonNumber(m.discrimination.auc);
+    s["auc_se"] = jsonNumber(m.discrimination.aucSe);
+    s["oe_ratio"] = jsonNumber(m.calibration.oeRatio);
+    const double variance =
+        1.0 / static_cast<double>(site.events) - 1.0 / static_cast<double>(site.n);
+    s["log_oe_se"] = jsonNumber(variance > 0.0 ? std::sqrt(variance) : kNaN);
+    s["calibration_intercept"] = jsonNumber(m.calibration.intercept);
+    s["calibration_intercept_se"] = jsonNumber(m.calibration.interceptSe);
+    s["calibration_slope"] = jsonNumber(m.calibration.slope);
+    s["calibration_slope_se"] = jsonNumber(m.calibration.slopeSe);
+    s["brier"] = jsonNumber(m.overall.brier);
+    s["ici"] = jsonNumber(m.calibration.ici);
+  } else {
+    for (const char* key : {"auc", "auc_se", "oe_ratio", "log_oe_se", "calibration_intercept",
+                            "calibration_intercept_se", "calibration_slope", "calibration_slope_se",
+                            "brier", "ici"}) {
+      s[key] = nullptr;
+    }
+  }
+  nlohmann::json warnings = site.warnings;
+  if (site.metrics) {
+    for (const std::string& w : site.metrics->warnings) warnings.push_back(w);
+  }
+  s["warnings"] = warnings;
+  return s;
+}
+
+}  // namespace
+
+nlohmann::json siteAnalysisJson(const SiteAnalysis& analysis) {
+  nlohmann::json out;
+  out["column"] = analysis.column;
+  out["method"] = {
+      {"tau2", "REML (Fisher scoring), truncated at 0"},
+      {"ci",
+       "Hartung-Knapp-Sidik-Jonkman, t on k-1 df, scale factor max(1, q) (Knapp & "
+       "Hartung 2003) so never narrower than the plain-SE interval"},
+      {"prediction_interval", "t on k-2 df, sqrt(tau2 + SE^2) (Riley, Higgins & Deeks 2011)"},
+      {"i2", "tau2 / (tau2 + typical within-site variance) (Higgins & Thompson 2002)"},
+      {"fixed_effect", "inverse-variance, Wald 95% CI"},
+      {"scales",
+       "c_statistic on logit(AUC), oe_ratio on log(O/E); estimates and intervals are "
+       "back-transformed, tau2 is on the pooling scale"}};
+  nlohmann::json sites = nlohmann::json::array();
+  for (const SubgroupResult& site : analysis.sites) sites.push_back(siteJson(site));
+  out["sites"] = sites;
+  nlohmann::json pooled = nlohmann::json::object();
+  for (const PooledMeasure& m : analysis.measures) {
+    nlohmann::json entry = poolJson(m.scale, m.pooled);
+    entry["label"] = m.label;
+    entry["sites"] = m.sites;
+    entry["excluded"] = exclusionsJson(m.excluded);
+    pooled[m.key] = entry;
+  }
+  out["pooled"] = pooled;
+  nlohmann::json netBenefit = nlohmann::json::array();
+  for (const PooledNetBenefit& nb : analysis.netBenefit) {
+    nlohmann::json entry;
+    entry["threshold"] = nb.threshold;
+    entry["by_counts"] = {{"n", nb.n},
+                          {"true_positives", nb.truePositives},
+                          {"false_positives", nb.falsePositives},
+                          {"estimate", jsonNumber(nb.byCounts)}};
+    nlohmann::json random = poolJson(PoolingScale::Identity, nb.pooled);
+    random["sites"] = nb.sites;
+    random["excluded"] = exclusionsJson(nb.excluded);
+    entry["random_effects"] = random;
+    netBenefit.push_back(entry);
+  }
+  out["net_benefit"] = netBenefit;
+  return out;
+}
+
+}  // namespace calivera
