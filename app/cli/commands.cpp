@@ -7,8 +7,10 @@
 
 #include "app/cli/fit_command.h"
 #include "app/cli/internal_command.h"
+#include "app/cli/pool_command.h"
 #include "app/cli/predictor_space_command.h"
 #include "app/cli/run_command.h"
+#include "app/cli/summarize_command.h"
 #include "app/cli/update_command.h"
 #include "app/cli/validate_command.h"
 #include "core/present/caution.h"
@@ -26,6 +28,9 @@ const std::vector<Command>& allCommands() {
       {"run", "run a study saved by the workstation, with all its settings", runRunCommand},
       {"predictor-space", "predicted risk against one or two predictors, others held fixed",
        runPredictorSpaceCommand},
+      {"summarize", "one site's validation as an aggregate-only summary for pooling",
+       runSummarizeCommand},
+      {"pool", "pool site summaries across sites (random-effects meta-analysis)", runPoolCommand},
   };
   return commands;
 }

@@ -107,6 +107,16 @@ std::vector<double> parseThresholds(const std::string& text) {
 
 }  // namespace
 
+std::size_t suppressBelowFrom(const std::string& value) {
+  const long long below = parseInteger(value, "--suppress-below");
+  if (below < kSuppressBelowLimit.min || below > kSuppressBelowLimit.max) {
+    throw InputError("--suppress-below: must be between " +
+                     std::to_string(kSuppressBelowLimit.min) + " and " +
+                     std::to_string(kSuppressBelowLimit.max));
+  }
+  return static_cast<std::size_t>(below);
+}
+
 void addValidateOptions(OptionSpec& spec) {
   spec.valued.insert({"--data", "--outcome", "--model", "--risk", "--groups", "--thresholds",
                       "--map", "--map-level", "--json", "--csv-dir", "--pdf", "--title",
@@ -160,15 +170,7 @@ ValidateOutputs validateOutputsFrom(const Arguments& arguments) {
     }
     out.reasonable = Interval{lo, hi};
   }
-  if (const auto n = arguments.value("--suppress-below")) {
-    const long long below = parseInteger(*n, "--suppress-below");
-    if (below < kSuppressBelowLimit.min || below > kSuppressBelowLimit.max) {
-      throw InputError("--suppress-below: must be between " +
-                       std::to_string(kSuppressBelowLimit.min) + " and " +
-                       std::to_string(kSuppressBelowLimit.max));
-    }
-    out.suppressBelow = static_cast<std::size_t>(below);
-  }
+  if (const auto n = arguments.value("--suppress-below")) out.suppressBelow = suppressBelowFrom(*n);
   out.paper = arguments.value("--paper").value_or("a4");  // checked where the PDF is made
   return out;
 }

@@ -34,6 +34,8 @@ struct ValidateOutputs {
 };
 
 void addValidateOptions(OptionSpec& spec);
+// --suppress-below N within kSuppressBelowLimit; throws InputError naming the option.
+std::size_t suppressBelowFrom(const std::string& value);
 // Throw InputError naming the option for a bad value.
 ValidationRequest validationRequestFrom(const Arguments& arguments);
 ValidateOutputs validateOutputsFrom(const Arguments& arguments);

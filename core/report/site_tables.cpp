@@ -84,36 +84,17 @@ ResultTable sitesTable(const SiteAnalysis& analysis) {
                number("brier", "Brier", 4),
                text("notes", "Notes", "Why a site has no metrics, and its warnings")};
   t.shownOrder = {0, 1, 2, 3, 4, 6, 8, 10, 12, 13};
-  for (const SubgroupResult& site : analysis.sites) {
-    std::vector<TableValue> row{TableValue::of(site.level), TableValue::ofCount(site.n),
-                                TableValue::ofCount(site.events)};
-    std::string notes;
+  for (const SiteMeasures& site : analysis.sites) {
+    std::string notes = site.missingLevel ? "patients with no site value: shown, never pooled" : "";
+    if (!site.hasMetrics) notes += (notes.empty() ? "" : "; ") + site.noMetricsReason;
     for (const std::string& w : site.warnings) notes += (notes.empty() ? "" : "; ") + w;
-    if (site.metrics) {
-      const ValidationResult& m = *site.metrics;
-      const Calibration& c = m.calibration;
-      const double variance =
-          1.0 / static_cast<double>(site.events) - 1.0 / static_cast<double>(site.n);
-      row.insert(
-          row.end(),
-          {TableValue::of(m.discrimination.auc), TableValue::of(m.discrimination.aucCi),
-           TableValue::of(m.discrimination.aucSe), TableValue::of(c.oeRatio),
-           TableValue::of(variance > 0.0 ? std::sqrt(variance) : kNaN), TableValue::of(c.intercept),
-           TableValue::of(c.interceptSe), TableValue::of(c.slope), TableValue::of(c.slopeSe),
-           TableValue::of(m.overall.brier)});
-      for (const std::string& w : m.warnings) notes += (notes.empty() ? "" : "; ") + w;
-    } else {
-      row.insert(row.end(), {TableValue::of(kNaN), TableValue::of(kNoInterval),
-                             TableValue::of(kNaN), TableValue::of(kNaN), TableValue::of(kNaN),
-                             TableValue::of(kNaN), TableValue::of(kNaN), TableValue::of(kNaN),
-                             TableValue::of(kNaN), TableValue::of(kNaN)});
-    }
-    if (site.level == kMissingLevel) {
-      notes =
-          "patients with no site value: shown, never pooled" + (notes.empty() ? "" : "; " + notes);
-    }
-    row.push_back(TableValue::of(notes));
-    t.rows.push_back(std::move(row));
+    t.rows.push_back(
+        {TableValue::of(site.name), TableValue::ofCount(site.n), TableValue::ofCount(site.events),
+         TableValue::of(site.auc), TableValue::of(site.aucCi), TableValue::of(site.aucSe),
+         TableValue::of(site.oeRatio), TableValue::of(site.hasMetrics ? site.logOeSe() : kNaN),
+         TableValue::of(site.intercept), TableValue::of(site.interceptSe),
+         TableValue::of(site.slope), TableValue::of(site.slopeSe), TableValue::of(site.brier),
+         TableValue::of(notes)});
   }
   return t;
 }
@@ -152,10 +133,11 @@ ResultTable pooledNetBenefitTable(const SiteAnalysis& analysis) {
   t.columns.push_back(text("left_out", "Sites left out", "With the reason for each"));
   t.shownOrder = {0, 4, 5, 6, 7, 8, 10, 15};
   for (const PooledNetBenefit& nb : analysis.netBenefit) {
-    std::vector<TableValue> row{TableValue::of(nb.threshold), TableValue::ofCount(nb.n),
-                                TableValue::ofCount(nb.truePositives),
-                                TableValue::ofCount(nb.falsePositives),
-                                TableValue::of(nb.byCounts)};
+    std::vector<TableValue> row{
+        TableValue::of(nb.threshold), TableValue::ofCount(nb.n),
+        nb.byCounts ? TableValue::ofCount(nb.truePositives) : TableValue::of(kNaN),
+        nb.byCounts ? TableValue::ofCount(nb.falsePositives) : TableValue::of(kNaN),
+        TableValue::of(nb.byCounts.value_or(kNaN))};
     addPoolValues(row, PoolingScale::Identity, nb.pooled);
     row.push_back(TableValue::of(exclusionText(nb.excluded)));
     t.rows.push_back(std::move(row));

@@ -63,42 +63,33 @@ nlohmann::json poolJson(PoolingScale scale, const RandomEffectsOutcome& outcome)
   return out;
 }
 
-nlohmann::json siteJson(const SubgroupResult& site) {
+}  // namespace
+
+nlohmann::json siteMeasuresJson(const SiteMeasures& site) {
   nlohmann::json s;
-  s["name"] = site.level;
+  s["name"] = site.name;
   s["n"] = site.n;
   s["events"] = site.events;
-  s["too_small"] = site.tooSmall;
-  if (site.metrics) {
-    const ValidationResult& m = *site.metrics;
-    s["auc"] = jsonNumber(m.discrimination.auc);
-    s["auc_se"] = jsonNumber(m.discrimination.aucSe);
-    s["oe_ratio"] = jsonNumber(m.calibration.oeRatio);
-    const double variance =
-        1.0 / static_cast<double>(site.events) - 1.0 / static_cast<double>(site.n);
-    s["log_oe_se"] = jsonNumber(variance > 0.0 ? std::sqrt(variance) : kNaN);
-    s["calibration_intercept"] = jsonNumber(m.calibration.intercept);
-    s["calibration_intercept_se"] = jsonNumber(m.calibration.interceptSe);
-    s["calibration_slope"] = jsonNumber(m.calibration.slope);
-    s["calibration_slope_se"] = jsonNumber(m.calibration.slopeSe);
-    s["brier"] = jsonNumber(m.overall.brier);
-    s["ici"] = jsonNumber(m.calibration.ici);
-  } else {
-    for (const char* key : {"auc", "auc_se", "oe_ratio", "log_oe_se", "calibration_intercept",
-                            "calibration_intercept_se", "calibration_slope", "calibration_slope_se",
-                            "brier", "ici"}) {
-      s[key] = nullptr;
-    }
-  }
-  nlohmann::json warnings = site.warnings;
-  if (site.metrics) {
-    for (const std::string& w : site.metrics->warnings) warnings.push_back(w);
-  }
-  s["warnings"] = warnings;
+  s["auc"] = jsonNumber(site.auc);
+  s["auc_se"] = jsonNumber(site.aucSe);
+  s["auc_ci"] = jsonInterval(site.aucCi);
+  s["oe_ratio"] = jsonNumber(site.oeRatio);
+  s["log_oe_se"] = jsonNumber(site.hasMetrics ? site.logOeSe() : kNaN);
+  s["calibration_intercept"] = jsonNumber(site.intercept);
+  s["calibration_intercept_se"] = jsonNumber(site.interceptSe);
+  s["calibration_slope"] = jsonNumber(site.slope);
+  s["calibration_slope_se"] = jsonNumber(site.slopeSe);
+  s["brier"] = jsonNumber(site.brier);
+  if (site.missingLevel) s["missing_site_value"] = true;
+  if (!site.hasMetrics) s["no_metrics_reason"] = site.noMetricsReason;
+  nlohmann::json problems = nlohmann::json::object();
+  for (const auto& [key, reason] : site.problems) problems[key] = reason;
+  s["not_pooled"] = problems;
+  s["warnings"] = site.warnings;
   return s;
 }
 
-}  // namespace
+namespace {}  // namespace
 
 nlohmann::json siteAnalysisJson(const SiteAnalysis& analysis) {
   nlohmann::json out;
@@ -115,7 +106,7 @@ nlohmann::json siteAnalysisJson(const SiteAnalysis& analysis) {
        "c_statistic on logit(AUC), oe_ratio on log(O/E); estimates and intervals are "
        "back-transformed, tau2 is on the pooling scale"}};
   nlohmann::json sites = nlohmann::json::array();
-  for (const SubgroupResult& site : analysis.sites) sites.push_back(siteJson(site));
+  for (const SiteMeasures& site : analysis.sites) sites.push_back(siteMeasuresJson(site));
   out["sites"] = sites;
   nlohmann::json pooled = nlohmann::json::object();
   for (const PooledMeasure& m : analysis.measures) {
@@ -130,10 +121,19 @@ nlohmann::json siteAnalysisJson(const SiteAnalysis& analysis) {
   for (const PooledNetBenefit& nb : analysis.netBenefit) {
     nlohmann::json entry;
     entry["threshold"] = nb.threshold;
-    entry["by_counts"] = {{"n", nb.n},
-                          {"true_positives", nb.truePositives},
-                          {"false_positives", nb.falsePositives},
-                          {"estimate", jsonNumber(nb.byCounts)}};
+    if (nb.byCounts) {
+      entry["by_counts"] = {{"n", nb.n},
+                            {"true_positives", nb.truePositives},
+                            {"false_positives", nb.falsePositives},
+                            {"estimate", jsonNumber(*nb.byCounts)}};
+    } else {
+      // A site withheld its counts here: the sum would reveal them, so it stays withheld.
+      entry["by_counts"] = {{"n", nb.n},
+                            {"true_positives", nullptr},
+                            {"false_positives", nullptr},
+                            {"estimate", nullptr},
+                            {"withheld_by", nb.suppressedAt}};
+    }
     nlohmann::json random = poolJson(PoolingScale::Identity, nb.pooled);
     random["sites"] = nb.sites;
     random["excluded"] = exclusionsJson(nb.excluded);

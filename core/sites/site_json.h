@@ -11,5 +11,7 @@
 namespace calivera {
 
 nlohmann::json siteAnalysisJson(const SiteAnalysis& analysis);
+// One site's entry of `clusters.sites` (also the measures of a site summary file).
+nlohmann::json siteMeasuresJson(const SiteMeasures& site);
 
 }  // namespace calivera

@@ -20,11 +20,13 @@
 // "(missing)": counted and shown, never pooled as a site.
 
 #include <cstddef>
+#include <optional>
 #include <string>
 #include <vector>
 
 #include "core/metrics/validation.h"
 #include "core/sites/random_effects.h"
+#include "core/sites/site_measures.h"
 #include "core/uncertainty/subgroups.h"
 
 namespace calivera {
@@ -42,10 +44,9 @@ struct SiteExclusion {
 };
 
 struct PooledMeasure {
-  std::string key;    // JSON key: c_statistic, oe_ratio, calibration_intercept, calibration_slope
+  std::string key;    // kPooledMeasureKeys
   std::string label;  // for people: "C-statistic (AUC)", ...
   PoolingScale scale = PoolingScale::Identity;
-  double target = 0.0;  // the value of perfect calibration (NaN for the c-statistic)
   // The sites pooled, with their estimates and variances on the pooling scale.
   std::vector<std::string> sites;
   std::vector<double> estimates, variances;
@@ -55,9 +56,11 @@ struct PooledMeasure {
 
 struct PooledNetBenefit {
   double threshold = 0.0;
-  // Sum of counts over every site with patients (the "(missing)" level excluded).
+  // Sum of counts over every site with patients (the "(missing)" level excluded); absent when a
+  // site withheld its counts at this threshold (small-cell suppression stays in force).
   std::size_t n = 0, truePositives = 0, falsePositives = 0;
-  double byCounts = 0.0;
+  std::optional<double> byCounts;
+  std::vector<std::string> suppressedAt;  // the sites that withheld their counts
   // Per site net benefit and its variance, then the random-effects mean (identity scale).
   std::vector<std::string> sites;
   std::vector<double> estimates, variances;
@@ -66,19 +69,21 @@ struct PooledNetBenefit {
 };
 
 struct SiteAnalysis {
-  std::string column;
-  std::vector<SubgroupResult> sites;  // every level validated alone; "(missing)" last
-  std::vector<PooledMeasure> measures;
+  std::string column;                       // the site column, or "site summaries"
+  std::vector<SiteMeasures> sites;          // in site order; "(missing)" last
+  std::vector<SubgroupResult> validations;  // validate --cluster only: each site's whole result
+  std::vector<PooledMeasure> measures;      // in kPooledMeasureKeys order
   std::vector<PooledNetBenefit> netBenefit;
 };
 
-// The pooled measures, in the order they are reported.
-inline constexpr const char* kPooledMeasureKeys[] = {"c_statistic", "oe_ratio",
-                                                     "calibration_intercept", "calibration_slope"};
+// Pools measures and net benefit (at `netBenefitThresholds`, each present in every site's
+// threshold counts) over `sites`. Throws InputError when fewer than two sites (missing values
+// aside) have patients: there is nothing to pool.
+SiteAnalysis poolSites(const std::string& column, std::vector<SiteMeasures> sites,
+                       const std::vector<double>& netBenefitThresholds);
 
-// labels[i] is the site of patient i of `input` (subgroupLabels with kMaxSites). Throws
-// InputError when fewer than two sites (missing values aside) have patients: there is nothing to
-// pool. `netBenefitThresholds` each in (0, 1).
+// labels[i] is the site of patient i of `input` (subgroupLabels with kMaxSites): every site
+// validated alone (as a subgroup), then poolSites. `netBenefitThresholds` each in (0, 1).
 SiteAnalysis validateSites(const std::string& column, const std::vector<std::string>& labels,
                            const ValidationInput& input, const ValidationOptions& options,
                            const std::vector<double>& netBenefitThresholds);

@@ -69,7 +69,8 @@ TEST(SitePooling, PatientsWithoutASiteAreShownButNeverPooled) {
   Aids2 d = readAids2();
   for (std::size_t i = 0; i < 40; ++i) d.state[i] = kMissingLevel;
   const SiteAnalysis a = validateSites("state", d.state, d.input, ValidationOptions{}, {0.2});
-  EXPECT_EQ(a.sites.back().level, kMissingLevel);
+  EXPECT_EQ(a.sites.back().name, kMissingLevel);
+  EXPECT_TRUE(a.sites.back().missingLevel);
   EXPECT_EQ(a.sites.back().n, 40u);
   const PooledMeasure& c = measure(a, "c_statistic");
   EXPECT_EQ(c.pooled.pool->k, 4u);

@@ -1,0 +1,60 @@
+#pragma once
+// What pooling across sites needs from one site, and nothing more: counts, the measures with their
+// standard errors, why a measure cannot be pooled, and the threshold counts of net benefit. Built
+// from a site's own validation (validate --cluster) or read from a site summary file
+// (calivera summarize / pool, core/sites/site_summary.h), so both routes pool the same numbers
+// through the same code (core/sites/site_pooling.h). Aggregates only: no patient's value.
+
+#include <cstddef>
+#include <limits>
+#include <map>
+#include <optional>
+#include <string>
+#include <vector>
+
+#include "core/metrics/sorted_cohort.h"
+#include "core/metrics/validation.h"
+
+namespace calivera {
+
+struct SiteThresholdCounts {
+  double threshold = 0.0;
+  std::size_t truePositives = 0, falsePositives = 0;
+  bool suppressed = false;  // a cell below the site's suppression threshold: counts withheld
+};
+
+struct SiteMeasures {
+  static constexpr double kNaN = std::numeric_limits<double>::quiet_NaN();
+  std::string name;
+  std::size_t n = 0, events = 0;
+  bool missingLevel = false;  // the patients with no site value: shown, never pooled
+  bool hasMetrics = false;    // false: see noMetricsReason (one outcome class, ...)
+  std::string noMetricsReason;
+  double auc = kNaN, aucSe = kNaN;
+  Interval aucCi{kNaN, kNaN};  // DeLong, logit-transformed
+  double oeRatio = kNaN;
+  double intercept = kNaN, interceptSe = kNaN;
+  double slope = kNaN, slopeSe = kNaN;
+  double brier = kNaN;
+  // Measure key (kPooledMeasureKeys) -> why this site cannot give it; absent: it can.
+  std::map<std::string, std::string> problems;
+  std::vector<std::string> warnings;
+  std::vector<SiteThresholdCounts> thresholds;
+
+  // sqrt(1/O - 1/n): the SE of log(O/E) with O binomial and E fixed; NaN when not positive.
+  double logOeSe() const;
+};
+
+// The pooled measures, in the order they are reported.
+inline constexpr const char* kPooledMeasureKeys[] = {"c_statistic", "oe_ratio",
+                                                     "calibration_intercept", "calibration_slope"};
+
+// One site from its own validation (`metrics` absent when it could not be validated, with
+// `noMetricsReason`), counted at `thresholds` on `sorted` (the site's patients). `suppressBelow`
+// > 0 withholds the counts at a threshold when any of TP, FP, FN, TN lies in (0, suppressBelow).
+SiteMeasures siteMeasures(const std::string& name, std::size_t n, std::size_t events,
+                          const ValidationResult* metrics, const std::string& noMetricsReason,
+                          const std::vector<std::string>& warnings, const SortedCohort& sorted,
+                          const std::vector<double>& thresholds, std::size_t suppressBelow = 0);
+
+}  // namespace calivera
