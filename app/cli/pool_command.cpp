@@ -8,21 +8,27 @@
 #include "core/metrics/json_values.h"
 #include "core/present/caution.h"
 #include "core/present/number_text.h"
+#include "core/report/audit_sites.h"
 #include "core/report/csv_text.h"
 #include "core/report/site_tables.h"
 #include "core/sites/site_json.h"
 #include "core/sites/summary_pooling.h"
+#include "core/study/limits.h"
 #include "core/study/reproduce_command.h"
 #include "core/util/errors.h"
 #include "core/util/output_transaction.h"
 #include "core/util/sha256.h"
 #include "core/util/shown_text.h"
+#ifdef CALIVERA_HAVE_PDF
+#include "render/report/audit_pdf_writer.h"
+#endif
 
 namespace calivera::cli {
 namespace {
 
 constexpr const char* kHelp =
     "usage: calivera pool SITE1.cvsummary SITE2.cvsummary ... [--json FILE] [--csv-dir DIR]\n"
+    "                     [--pdf FILE [--title TEXT] [--paper a4|letter]]\n"
     "                     [--report-thresholds T1,T2,...]\n\n"
     "Pools the site summaries written by `calivera summarize`: checks that every site validated\n"
     "the same model (SHA-256) with the same settings and that no summary was changed after it\n"
@@ -33,6 +39,10 @@ constexpr const char* kHelp =
     "options:\n"
     "  --json FILE              results as JSON (key `clusters`, as validate --cluster)\n"
     "  --csv-dir DIR            sites.csv, sites_pooled.csv, sites_net_benefit.csv\n"
+    "  --pdf FILE               a report: the summaries pooled, the tables and a forest plot\n"
+    "                           per measure\n"
+    "  --title TEXT             the report's title\n"
+    "  --paper a4|letter        the report's paper (default a4)\n"
     "  --report-thresholds T,.. net benefit pooled at these thresholds (default: 0.05, 0.1,\n"
     "                           0.2, 0.3, 0.5 where the sites counted them)\n";
 
@@ -79,7 +89,7 @@ nlohmann::json pooledJson(const PooledSummaries& p) {
 
 int runPoolCommand(const std::vector<std::string>& words) {
   OptionSpec spec;
-  spec.valued = {"--json", "--csv-dir", "--report-thresholds"};
+  spec.valued = {"--json", "--csv-dir", "--pdf", "--title", "--paper", "--report-thresholds"};
   spec.flags = {"--help"};
   const Arguments arguments(words, spec);
   if (arguments.has("--help")) {
@@ -101,9 +111,21 @@ int runPoolCommand(const std::vector<std::string>& words) {
   }
   const auto jsonPath = arguments.value("--json");
   const auto csvDir = arguments.value("--csv-dir");
+  const auto pdfPath = arguments.value("--pdf");
+  const std::string title = arguments.value("--title").value_or("");
+  if (title.size() > kMaxReportTitleBytes) {
+    throw InputError("--title: at most " + std::to_string(kMaxReportTitleBytes) + " bytes");
+  }
+#ifdef CALIVERA_HAVE_PDF
+  const report::PaperSize paper =
+      report::parsePaperSize(arguments.value("--paper").value_or("a4"), "--paper");
+#else
+  if (pdfPath) throw InputError("--pdf: this build has no PDF report (built without the UI)");
+#endif
   std::vector<std::pair<std::string, std::string>> outputs, inputs;
   if (jsonPath) outputs.emplace_back("--json", *jsonPath);
   if (csvDir) outputs.emplace_back("--csv-dir", *csvDir);
+  if (pdfPath) outputs.emplace_back("--pdf", *pdfPath);
   for (const std::string& path : paths) inputs.emplace_back("site summary", path);
   refuseOverwritingInputs(outputs, inputs);
 
@@ -118,6 +140,13 @@ int runPoolCommand(const std::vector<std::string>& words) {
   const PooledSummaries pooled = poolSummaries(std::move(files), thresholds);
 
   OutputTransaction transaction;
+#ifdef CALIVERA_HAVE_PDF
+  if (pdfPath) {
+    const AuditDocument doc =
+        buildPooledSitesDocument(pooled, title, formatUtcTimestamp(reportTimestamp()));
+    transaction.add(*pdfPath, report::renderDocumentPdf(doc, paper));
+  }
+#endif
   if (csvDir) {
     for (const ResultTable& table : {sitesTable(pooled.analysis), pooledSitesTable(pooled.analysis),
                                      pooledNetBenefitTable(pooled.analysis)}) {

@@ -4,6 +4,7 @@
 
 #include <string>
 #include <utility>
+#include <vector>
 
 #include "core/report/audit_report.h"
 
@@ -31,7 +32,8 @@ inline ReportBlock reportTable(ReportTable table) {
   return block;
 }
 
-// Captions name their table "Table #. ..."; buildAuditDocument numbers them in reading order.
+// Captions name their table "Table #. ..."; numberTables numbers them in reading order.
 inline constexpr const char* kTablePrefix = "Table #. ";
+void numberTables(std::vector<ReportBlock>& blocks);
 
 }  // namespace calivera

@@ -17,6 +17,7 @@
 #include "core/report/audit_format.h"
 #include "core/report/audit_methods.h"
 #include "core/report/audit_overview.h"
+#include "core/report/audit_sites.h"
 #include "core/report/audit_uncertainty.h"
 #include "core/util/errors.h"
 #include "core/util/shown_text.h"
@@ -503,15 +504,6 @@ void addAbout(const AuditReportInput& input, const AuditDocument& doc, const Dis
 }
 
 // "Table #. " captions become "Table 1. ", "Table 2. ", ... in reading order.
-void numberTables(std::vector<ReportBlock>& blocks) {
-  const std::string prefix = kTablePrefix;
-  int number = 0;
-  for (ReportBlock& block : blocks) {
-    if (block.kind != Kind::Table || block.table.caption.rfind(prefix, 0) != 0) continue;
-    block.table.caption.replace(0, prefix.size(), "Table " + std::to_string(++number) + ". ");
-  }
-}
-
 }  // namespace
 
 AuditDocument buildAuditDocument(const AuditReportInput& input) {
@@ -561,6 +553,9 @@ AuditDocument buildAuditDocument(const AuditReportInput& input) {
     for (const ThresholdRow& row : tableRows) tabulated.push_back(row.threshold);
     addComparisonSection(input, plan, tabulated, blocks);
     addSubgroupSection(*input.uncertainty, plan, blocks);
+    if (input.uncertainty->sites) {
+      addSiteSection(*input.uncertainty->sites, input.settings.suppressBelow, blocks);
+    }
   }
   blocks.push_back(reportHeading("Warnings", 2));
   if (warnings.empty()) blocks.push_back(reportParagraph("None."));
@@ -571,6 +566,16 @@ AuditDocument buildAuditDocument(const AuditReportInput& input) {
   addAbout(input, doc, plan, blocks);
   numberTables(blocks);
   return doc;
+}
+
+void numberTables(std::vector<ReportBlock>& blocks) {
+  const std::string prefix = kTablePrefix;
+  int number = 0;
+  for (ReportBlock& block : blocks) {
+    if (block.kind != ReportBlock::Kind::Table || block.table.caption.rfind(prefix, 0) != 0)
+      continue;
+    block.table.caption.replace(0, prefix.size(), "Table " + std::to_string(++number) + ". ");
+  }
 }
 
 }  // namespace calivera

@@ -24,6 +24,7 @@
 #include "core/metrics/threshold_table.h"  // defaultTableThresholds
 #include "core/metrics/validation.h"
 #include "core/model/model.h"
+#include "core/report/site_forest.h"
 #include "core/uncertainty/uncertainty_run.h"
 
 namespace calivera {
@@ -85,13 +86,15 @@ struct ReportTable {
 enum class ChartKind { Roc, Calibration, DecisionCurve, RiskDistribution };
 
 struct ReportBlock {
-  enum class Kind { Heading, Paragraph, Caution, Table, ChartPair, PageBreak };
+  // Forest: a forest plot of one measure pooled across sites (core/report/site_forest.h).
+  enum class Kind { Heading, Paragraph, Caution, Table, ChartPair, PageBreak, Forest };
   Kind kind = Kind::Paragraph;
   int level = 1;                      // Heading: 1 section, 2 subsection
   std::string text;                   // Heading, Paragraph, Caution
   ReportTable table;                  // Table
   std::vector<ChartKind> charts;      // ChartPair: one or two charts side by side
   std::vector<std::string> captions;  // ChartPair: one per chart
+  std::optional<ForestPlot> forest;   // Forest
 };
 
 struct AuditDocument {

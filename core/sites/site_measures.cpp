@@ -1,6 +1,7 @@
 #include "core/sites/site_measures.h"
 
 #include <algorithm>
+#include <cassert>
 #include <cmath>
 
 namespace calivera {
@@ -51,7 +52,8 @@ double SiteMeasures::logOeSe() const {
 
 SiteMeasures siteMeasures(const std::string& name, std::size_t n, std::size_t events,
                           const ValidationResult* metrics, const std::string& noMetricsReason,
-                          const std::vector<std::string>& warnings, const SortedCohort& sorted,
+                          const std::vector<std::string>& warnings,
+                          const std::vector<ThresholdRow>& counted,
                           const std::vector<double>& thresholds, std::size_t suppressBelow) {
   SiteMeasures s;
   s.name = name;
@@ -77,7 +79,11 @@ SiteMeasures siteMeasures(const std::string& name, std::size_t n, std::size_t ev
     for (const char* key : kPooledMeasureKeys) s.problems[key] = noMetricsReason;
   }
   for (const double t : thresholds) {
-    const ConfusionCounts c = sorted.countsAt(t);
+    const auto row = std::find_if(counted.begin(), counted.end(), [&](const ThresholdRow& r) {
+      return std::abs(r.threshold - t) < 1e-12;
+    });
+    assert(row != counted.end() && "every threshold is in the site's threshold table");
+    const ThresholdRow& c = *row;
     SiteThresholdCounts counts{t, c.tp, c.fp, false};
     if (isSmallCell(c.tp, suppressBelow) || isSmallCell(c.fp, suppressBelow) ||
         isSmallCell(c.fn, suppressBelow) || isSmallCell(c.tn, suppressBelow)) {

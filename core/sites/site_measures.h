@@ -12,7 +12,6 @@
 #include <string>
 #include <vector>
 
-#include "core/metrics/sorted_cohort.h"
 #include "core/metrics/validation.h"
 
 namespace calivera {
@@ -50,11 +49,13 @@ inline constexpr const char* kPooledMeasureKeys[] = {"c_statistic", "oe_ratio",
                                                      "calibration_intercept", "calibration_slope"};
 
 // One site from its own validation (`metrics` absent when it could not be validated, with
-// `noMetricsReason`), counted at `thresholds` on `sorted` (the site's patients). `suppressBelow`
-// > 0 withholds the counts at a threshold when any of TP, FP, FN, TN lies in (0, suppressBelow).
+// `noMetricsReason`), with its threshold counts at `thresholds` taken from `counted` (the site's
+// threshold table; each of `thresholds` must be in it). `suppressBelow` > 0 withholds the counts
+// at a threshold when any of TP, FP, FN, TN lies in (0, suppressBelow).
 SiteMeasures siteMeasures(const std::string& name, std::size_t n, std::size_t events,
                           const ValidationResult* metrics, const std::string& noMetricsReason,
-                          const std::vector<std::string>& warnings, const SortedCohort& sorted,
+                          const std::vector<std::string>& warnings,
+                          const std::vector<ThresholdRow>& counted,
                           const std::vector<double>& thresholds, std::size_t suppressBelow = 0);
 
 }  // namespace calivera

@@ -7,6 +7,7 @@
 
 #include "core/metrics/decision_curve.h"
 #include "core/metrics/sorted_cohort.h"
+#include "core/metrics/threshold_table.h"
 #include "core/util/errors.h"
 
 namespace calivera {
@@ -166,16 +167,20 @@ SiteAnalysis validateSites(const std::string& column, const std::vector<std::str
                            const ValidationInput& input, const ValidationOptions& options,
                            const std::vector<double>& netBenefitThresholds) {
   // Every site validated alone, exactly as a subgroup; no bootstrap.
+  ValidationBootstrapOptions noBootstrap;
+  noBootstrap.bootstrap.replicates = 0;
   std::vector<SubgroupResult> validations =
-      validateSubgroups(column, labels, input, options, ValidationBootstrapOptions{}).levels;
+      validateSubgroups(column, labels, input, options, noBootstrap).levels;
   std::map<std::string, std::vector<std::size_t>> members;
   for (std::size_t i = 0; i < labels.size(); ++i) members[labels[i]].push_back(i);
   std::vector<SiteMeasures> sites;
   for (const SubgroupResult& v : validations) {
     std::vector<double> risk, outcome;
-    for (const std::size_t i : members[v.level]) {
-      risk.push_back(input.risk[i]);
-      outcome.push_back(input.outcome[i]);
+    if (!v.metrics) {
+      for (const std::size_t i : members[v.level]) {
+        risk.push_back(input.risk[i]);
+        outcome.push_back(input.outcome[i]);
+      }
     }
     std::vector<std::string> warnings;
     std::string noMetricsReason = "no metrics at this site";
@@ -185,9 +190,12 @@ SiteAnalysis validateSites(const std::string& column, const std::vector<std::str
       }
       warnings.push_back(w);
     }
-    SiteMeasures s =
-        siteMeasures(v.level, v.n, v.events, v.metrics ? &*v.metrics : nullptr, noMetricsReason,
-                     warnings, sortCohort(risk, outcome), netBenefitThresholds);
+    // A validated site has its threshold table; a site without metrics is counted here.
+    const std::vector<ThresholdRow> counted =
+        v.metrics ? v.metrics->thresholds
+                  : thresholdTable(sortCohort(risk, outcome), netBenefitThresholds);
+    SiteMeasures s = siteMeasures(v.level, v.n, v.events, v.metrics ? &*v.metrics : nullptr,
+                                  noMetricsReason, warnings, counted, netBenefitThresholds);
     s.missingLevel = v.level == kMissingLevel;
     sites.push_back(std::move(s));
   }

@@ -2,7 +2,6 @@
 
 #include <algorithm>
 #include <cmath>
-#include <map>
 #include <nlohmann/json.hpp>
 
 #include "core/metrics/json_values.h"
@@ -34,16 +33,21 @@ long long logitBin(double risk, double width) {
 // ordered by risk as by their bins (the AUC's order), and equal risks share a bin.
 std::vector<LogitHistogramCell> logitHistogram(const ValidationInput& input, double width,
                                                std::size_t suppressBelow) {
-  std::map<long long, LogitHistogramCell> bins;
+  // Bins are bounded (|logit| <= kLogitBound), so counts go into a flat array, not a map.
+  const long long first = logitBin(0.0, width);
+  const long long last = logitBin(1.0, width);
+  std::vector<std::size_t> events(static_cast<std::size_t>(last - first + 1), 0);
+  std::vector<std::size_t> nonEvents(events.size(), 0);
   for (std::size_t i = 0; i < input.risk.size(); ++i) {
-    const long long bin = logitBin(input.risk[i], width);
-    LogitHistogramCell& cell = bins[bin];
-    cell.fromBin = bin;
-    cell.toBin = bin + 1;
-    (input.outcome[i] > 0.5 ? cell.events : cell.nonEvents) += 1;
+    const auto k = static_cast<std::size_t>(logitBin(input.risk[i], width) - first);
+    (input.outcome[i] > 0.5 ? events[k] : nonEvents[k]) += 1;
   }
   std::vector<LogitHistogramCell> cells;
-  for (const auto& [bin, cell] : bins) cells.push_back(cell);
+  for (std::size_t k = 0; k < events.size(); ++k) {
+    if (events[k] == 0 && nonEvents[k] == 0) continue;
+    const long long bin = first + static_cast<long long>(k);
+    cells.push_back({bin, bin + 1, events[k], nonEvents[k]});
+  }
   if (suppressBelow == 0) return cells;
   // Merge neighbours until each cell holds 0 or >= N of each outcome; a small remainder joins the
   // cell before it.
@@ -298,9 +302,8 @@ SiteSummary summarizeRun(const ValidationRun& run, const SummaryOptions& options
   s.binWidth = options.binWidth;
   const ValidationInput& input = run.cohort.input;
   const ValidationResult& result = run.result;
-  const SortedCohort sorted = sortCohort(input.risk, input.outcome);
   s.measures = siteMeasures(options.site, result.cohort.n, result.cohort.events, &result, {}, {},
-                            sorted, s.thresholdGrid, options.suppressBelow);
+                            result.thresholds, s.thresholdGrid, options.suppressBelow);
   s.histogram = logitHistogram(input, options.binWidth, options.suppressBelow);
   for (const CalibrationGroup& g : result.hosmerLemeshow.groups) {
     SummaryGroup group{g.n, g.observed, g.expected};

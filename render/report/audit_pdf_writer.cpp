@@ -154,6 +154,13 @@ std::string renderAuditReportPdf(AuditReportInput input, PaperSize paper) {
   return std::string(pdf.constData(), static_cast<std::size_t>(pdf.size()));
 }
 
+std::string renderDocumentPdf(const AuditDocument& doc, PaperSize paper) {
+  const long long timestamp = reportTimestamp();
+  const ApplicationScope application;
+  const QByteArray pdf = renderAuditPdf(doc, paper, ChartPainter{}, timestamp);
+  return std::string(pdf.constData(), static_cast<std::size_t>(pdf.size()));
+}
+
 void writeAuditReportPdf(AuditReportInput input, const std::string& path, PaperSize paper) {
   writeFileAtomically(path, renderAuditReportPdf(std::move(input), paper));
 }

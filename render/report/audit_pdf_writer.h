@@ -41,6 +41,10 @@ bool setPdfCreationDate(QByteArray& pdf, long long creationTime);
 // AnalysisError.
 std::string renderAuditReportPdf(AuditReportInput input, PaperSize paper);
 
+// The PDF bytes of a document without the single-cohort charts (the report of `calivera pool`),
+// dated by reportTimestamp(). Same threading rules as renderAuditReportPdf.
+std::string renderDocumentPdf(const AuditDocument& doc, PaperSize paper);
+
 // The same, written to `path`: fills in input.createdAt from reportTimestamp() when
 // empty, builds the document, records the charts, renders and writes `path` atomically. Creates
 // an offscreen QApplication when the process has none (and no display). Call on the main thread.

@@ -7,6 +7,7 @@
 #include <QPainter>
 #include <algorithm>
 
+#include "render/charts/forest_plot.h"
 #include "render/report/report_charts.h"
 
 namespace calivera::report {
@@ -82,6 +83,9 @@ class PageComposer {
           break;
         case ReportBlock::Kind::PageBreak:
           breakPage();
+          break;
+        case ReportBlock::Kind::Forest:
+          forest(block);
           break;
       }
     }
@@ -329,6 +333,17 @@ class PageComposer {
       y_ += nh;
     }
     y_ += pt(8);
+  }
+
+  void forest(const ReportBlock& block) {
+    if (!block.forest) return;
+    const double height = pt(charts::forestPlotHeightPoints(*block.forest));
+    ensure(height + pt(8));
+    if (painter_ != nullptr) {
+      charts::paintForestPlot(*painter_, QRectF(body_.left(), y_, body_.width(), height),
+                              *block.forest, unit_);
+    }
+    y_ += height + pt(8);
   }
 
   void chartPair(const ReportBlock& block) {

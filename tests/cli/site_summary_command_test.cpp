@@ -173,6 +173,37 @@ TEST_F(SiteSummaries, WithheldCellsStayWithheldInThePool) {
             binned.at("error_bound").get<double>());
 }
 
+#ifdef CALIVERA_HAVE_PDF
+TEST_F(SiteSummaries, ReportsCarryTheSiteSectionWithAForestPlotPerMeasure) {
+  const std::vector<std::string> summaries = summarizeAll();
+  const testing::CliRun pooled =
+      pool(summaries, {"--pdf", dir_.file("pooled.pdf"), "--json", dir_.file("pooled.json")});
+  ASSERT_EQ(pooled.status, 0) << pooled.err;
+  const testing::CliRun whole =
+      runCalivera({"validate", "--data", referencePath("aids2_sites.csv"), "--outcome", "dead",
+                   "--risk", "risk", "--cluster", "state", "--pdf", dir_.file("whole.pdf"),
+                   "--json", dir_.file("whole.json")});
+  ASSERT_EQ(whole.status, 0) << whole.err;
+  for (const std::string& pdf : {dir_.file("pooled.pdf"), dir_.file("whole.pdf")}) {
+    const std::string text = testing::pdfText(pdf);
+    SCOPED_TRACE(pdf);
+    EXPECT_NE(text.find("Validation across sites"), std::string::npos);
+    EXPECT_NE(text.find("Pooled across sites (random effects)"), std::string::npos);
+    // One forest plot per measure, each with its pooled row and its prediction interval row.
+    std::size_t plots = 0;
+    for (std::size_t at = 0;
+         (at = text.find("Prediction interval, new site", at)) != std::string::npos; ++at) {
+      ++plots;
+    }
+    EXPECT_EQ(plots, 4u);
+    // The pooled c-statistic as the JSON has it, rounded as printed.
+    EXPECT_NE(text.find("0.849 (0.790 to 0.894)"), std::string::npos);
+    EXPECT_NE(text.find("do not replace clinical judgment"), std::string::npos);
+  }
+  EXPECT_NE(testing::pdfText(dir_.file("pooled.pdf")).find("QLD.cvsummary"), std::string::npos);
+}
+#endif
+
 TEST_F(SiteSummaries, BadSummariesAreRefusedClearly) {
   const std::vector<std::string> summaries = summarizeAll();
   // One site only.

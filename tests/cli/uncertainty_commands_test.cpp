@@ -12,6 +12,7 @@
 
 #include "core/model/model_io.h"
 #include "core/present/caution.h"
+#include "tests/unit/cli_run.h"
 
 namespace calivera {
 namespace {
@@ -136,18 +137,7 @@ TEST_F(UncertaintyCommands, ValidateAddsSampleSizeBootstrapComparisonAndSubgroup
 }
 
 #ifdef CALIVERA_HAVE_PDF
-// The PDF's text as poppler's pdftotext (an outside reader) extracts it.
-std::string pdfText(const std::string& path) {
-  FILE* pipe = ::popen(("pdftotext -layout '" + path + "' -").c_str(), "r");
-  std::string text;
-  if (pipe == nullptr) return text;
-  char buffer[4096];
-  for (std::size_t got; (got = std::fread(buffer, 1, sizeof buffer, pipe)) > 0;) {
-    text.append(buffer, got);
-  }
-  ::pclose(pipe);
-  return text;
-}
+using testing::pdfText;
 
 TEST_F(UncertaintyCommands, ValidatePdfAndCsvCarryTheUncertaintySections) {
   ASSERT_EQ(

@@ -59,6 +59,20 @@ inline CliRun runCalivera(const std::vector<std::string>& words, int seconds = 0
   return run;
 }
 
+// A PDF's text as poppler's pdftotext (an outside reader, Debian poppler-utils) extracts it,
+// with -layout so table rows stay on one line.
+inline std::string pdfText(const std::string& path) {
+  FILE* pipe = ::popen(("pdftotext -layout " + shellQuote(path) + " -").c_str(), "r");
+  std::string text;
+  if (pipe == nullptr) return text;
+  char buffer[4096];
+  for (std::size_t got; (got = std::fread(buffer, 1, sizeof buffer, pipe)) > 0;) {
+    text.append(buffer, got);
+  }
+  ::pclose(pipe);
+  return text;
+}
+
 // A fresh empty folder under the temporary directory, removed with the object.
 class TempDir {
  public:
