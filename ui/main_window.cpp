@@ -42,6 +42,7 @@
 #include "ui/views/confusion_panel.h"
 #include "ui/views/predictor_view.h"
 #include "ui/views/result_table_view.h"
+#include "ui/views/sites_view.h"
 #include "ui/views/subgroup_view.h"
 #include "ui/views/threshold_bar.h"
 
@@ -114,6 +115,11 @@ MainWindow::MainWindow(QWidget* parent) : QMainWindow(parent) {
           &MainWindow::nudgeThreshold);
   connectChartMenu(predictorView_->panel());
   tabs_->addTab(subgroupView_, tr("S&ubgroups"));
+  sitesView_ = new SitesView;
+  connect(sitesView_, &SitesView::thresholdPicked, controller_, &StudyController::setThreshold);
+  connectChartMenu(sitesView_->chartPanel());
+  connect(sitesView_->chartPanel(), &ChartPanel::nudgeRequested, this, &MainWindow::nudgeThreshold);
+  tabs_->addTab(sitesView_, tr("S&ites"));
   layout->addWidget(tabs_, 1);
 
   status_ = new QLabel;

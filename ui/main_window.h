@@ -41,6 +41,7 @@ class BackgroundJob;
 class ChartPanel;
 class ComparisonView;
 class ConfusionPanel;
+class SitesView;
 class SubgroupView;
 class PredictorView;
 class RecordTableModel;
@@ -161,6 +162,7 @@ class MainWindow : public QMainWindow {
   PredictorView* predictorView_ = nullptr;
   ComparisonView* comparisonView_ = nullptr;
   SubgroupView* subgroupView_ = nullptr;
+  SitesView* sitesView_ = nullptr;
   RecordTableModel* thresholdModel_ = nullptr;
   RecordTableModel* hlModel_ = nullptr;
   RecordTableModel* coefficientModel_ = nullptr;

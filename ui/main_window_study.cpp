@@ -48,6 +48,7 @@
 #include "ui/views/comparison_view.h"
 #include "ui/views/confusion_panel.h"
 #include "ui/views/predictor_view.h"
+#include "ui/views/sites_view.h"
 #include "ui/views/subgroup_view.h"
 #include "ui/views/summary_html.h"
 #include "ui/views/table_context_menu.h"
@@ -153,6 +154,7 @@ void MainWindow::rebuildViews() {
   comparisonView_->setResults(study().uncertainty, study().analysis.reasonableLo,
                               study().analysis.reasonableHi);
   subgroupView_->setResults(study().uncertainty);
+  sitesView_->setResults(study().uncertainty);
   predictorView_->setData(study().model ? &*study().model : nullptr, controller_->cohort(),
                           study().columnMapping, study().predictorView, study().heldValues);
   applyThreshold();
@@ -199,6 +201,7 @@ void MainWindow::applyThreshold() {
     }
     confusion_->setSnapshot(snapshot, study().result ? &study().result->calibration : nullptr);
     subgroupView_->setThreshold(snapshot);
+    sitesView_->setThreshold(snapshot);
     predictorView_->setThreshold(snapshot);
     highlightThresholdRow();
   }

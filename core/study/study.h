@@ -57,12 +57,15 @@ struct UncertaintySettings {
   unsigned threads = 0;                        // 0: all hardware threads
   std::vector<InputFileRecord> compareModels;  // further model files compared with the study's
   std::vector<std::string> subgroupColumns;    // cohort columns
+  // The cohort column naming each patient's site: validation across sites (empty: none).
+  std::string clusterColumn;
   // Thresholds of the net-benefit sample-size criterion (Riley et al. 2021), each in (0, 1); its
   // achieved CI width needs the bootstrap.
   std::vector<double> sizeThresholds;
 
   bool anyRequested() const {
-    return bootstrapReplicates > 0 || !compareModels.empty() || !subgroupColumns.empty();
+    return bootstrapReplicates > 0 || !compareModels.empty() || !subgroupColumns.empty() ||
+           !clusterColumn.empty();
   }
 };
 

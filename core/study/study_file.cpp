@@ -166,6 +166,7 @@ std::string studyToJson(const StudyState& study, const std::string& studyPath) {
                       {"threads", u.threads},
                       {"compareModels", compare},
                       {"subgroups", u.subgroupColumns},
+                      {"sites", u.clusterColumn},
                       {"sizeThresholds", u.sizeThresholds}};
   j["report"] = {{"title", study.report.title},
                  {"thresholds", study.report.thresholds},
@@ -266,6 +267,7 @@ StudyState parseStudyJson(const std::string& text, const std::string& studyPath)
     }
     out.subgroupColumns =
         in.get<std::vector<std::string>>(u, "subgroups", "uncertainty.subgroups", {});
+    out.clusterColumn = in.get<std::string>(u, "sites", "uncertainty.sites", {});
     out.sizeThresholds =
         in.get<std::vector<double>>(u, "sizeThresholds", "uncertainty.sizeThresholds", {});
     for (double t : out.sizeThresholds) {

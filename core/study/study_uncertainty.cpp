@@ -15,6 +15,7 @@ UncertaintyRequest uncertaintyRequest(const UncertaintySettings& settings,
   for (const InputFileRecord& m : settings.compareModels)
     request.compareModelPaths.push_back(m.path);
   request.subgroupColumns = settings.subgroupColumns;
+  if (!settings.clusterColumn.empty()) request.clusterColumn = settings.clusterColumn;
   request.sampleSize.netBenefitThresholds = settings.sizeThresholds;
   request.progress = progress;
   return request;

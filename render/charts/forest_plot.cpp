@@ -187,7 +187,7 @@ void paintForestPlot(QPainter& painter, const QRectF& target, const ForestPlot& 
     for (const double end : {pi.lo, pi.hi}) {
       painter.drawLine(QPointF(x(end), mid - pt(3)), QPointF(x(end), mid + pt(3)));
     }
-    label("Prediction interval, new site", formatRange(pi.lo, pi.hi, 3), y, false);
+    label("Prediction interval", formatRange(pi.lo, pi.hi, 3), y, false);
     y += pt(kRowPoints);
   }
   const double rowsBottom = y;

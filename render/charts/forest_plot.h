@@ -3,7 +3,7 @@
 // QPainter so the PDF report and the workstation draw the same picture. Layout, left to right:
 // the site's name, the plot (a square per site, its area proportional to the site's random-effects
 // weight, on its 95% CI line; the pooled estimate as a diamond spanning its 95% CI; the
-// prediction interval for a new site as a dashed bar on its own row; a dotted line at the ideal
+// prediction interval for a new site as a dashed bar on its own row ("Prediction interval"); a dotted line at the ideal
 // value), and the estimate with its interval as text. The axis is spaced on the pooling scale
 // (logit for the c-statistic, log for O/E) and labelled in natural units.
 

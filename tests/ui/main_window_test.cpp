@@ -56,7 +56,9 @@
 #include "ui/models/table_export.h"
 #include "ui/views/caution_text.h"
 #include "ui/views/chart_panel.h"
+#include "ui/views/forest_widget.h"
 #include "ui/views/predictor_view.h"
+#include "ui/views/sites_view.h"
 #include "ui/views/subgroup_view.h"
 
 using namespace calivera;
@@ -231,7 +233,17 @@ class MainWindowTest : public QObject {
     s.threads = 2;
     s.compareModels = {InputFileRecord{secondModel().toStdString(), {}}};
     s.subgroupColumns = {"site"};
+    s.clusterColumn = "site";
     return s;
+  }
+
+  // The sample study's validation as the command line's core computes it.
+  static ValidationRun sampleRun() {
+    ValidationRequest request;
+    request.dataPath = kSampleCohort.toStdString();
+    request.outcome = OutcomeSpec{"complication_30d", std::nullopt};
+    request.modelPath = kSampleModel.toStdString();
+    return runValidation(request);
   }
 
   void openSample(MainWindow& w) {
@@ -660,11 +672,7 @@ class MainWindowTest : public QObject {
     runUncertainty(w, settings);
     const UncertaintyResults& u = *w.controller().study().uncertainty;
 
-    ValidationRequest request;
-    request.dataPath = kSampleCohort.toStdString();
-    request.outcome = OutcomeSpec{"complication_30d", std::nullopt};
-    request.modelPath = kSampleModel.toStdString();
-    const ValidationRun run = runValidation(request);
+    const ValidationRun run = sampleRun();
     UncertaintyRequest coreRequest;
     coreRequest.bootstrapReplicates = 50;
     coreRequest.seed = 7;
@@ -1044,6 +1052,47 @@ class MainWindowTest : public QObject {
     QVERIFY(w2.messageText().contains("changed since the study was saved"));
   }
 
+  // The Sites tab shows what core computes for the same site column: the pooled measures, one
+  // forest plot per measure, and the selected site's own calibration with the others overlaid.
+  void sitesTabPoolsTheSitesAsCoreDoes() {
+    MainWindow w;
+    w.show();
+    openSample(w);
+    UncertaintySettings settings;
+    settings.clusterColumn = "site";
+    QVERIFY(w.controller().runUncertainty(settings));
+    waitForJob(w);
+    QVERIFY2(w.controller().study().uncertainty != nullptr, qPrintable(w.messageText()));
+    const UncertaintyResults& u = *w.controller().study().uncertainty;
+    QVERIFY(u.sites.has_value());
+
+    const ValidationRun run = sampleRun();
+    UncertaintyRequest coreRequest;
+    coreRequest.clusterColumn = "site";
+    const UncertaintyResults ref = calivera::runUncertainty(run, coreRequest);
+    QVERIFY(ref.sites.has_value());
+    QCOMPARE(u.sites->measures.size(), ref.sites->measures.size());
+    for (std::size_t m = 0; m < ref.sites->measures.size(); ++m) {
+      const auto& a = u.sites->measures[m].pooled.pool;
+      const auto& b = ref.sites->measures[m].pooled.pool;
+      QCOMPARE(a.has_value(), b.has_value());
+      if (a) {
+        QCOMPARE(a->estimate, b->estimate);
+        QCOMPARE(a->tau2, b->tau2);
+      }
+    }
+    auto* view = child<SitesView>(w, "sitesView");
+    QCOMPARE(view->findChildren<ForestWidget*>().size(), qsizetype(4));
+    auto* table = child<QTableView>(w, "sitesTable");
+    QCOMPARE(table->model()->rowCount(), static_cast<int>(ref.sites->sites.size()));
+    view->showSite(1);
+    QCOMPARE(view->currentSite(), 1);
+    auto* cal = dynamic_cast<charts::CalibrationChart*>(view->chartPanel()->linkedChart());
+    QVERIFY(cal != nullptr);
+    QVERIFY(cal->title().contains(QString::fromStdString(ref.sites->sites[1].name)));
+    QCOMPARE(cal->comparisonCount(), ref.sites->validations.size() - 1);
+  }
+
   void screenshots() {
     const QByteArray dir = qgetenv("CALIVERA_SCREENSHOT_DIR");
     MainWindow w;
@@ -1128,6 +1177,11 @@ class MainWindowTest : public QObject {
     save(&w, "comparison_tab");
     tabs->setCurrentWidget(child<QWidget>(w, "subgroupView"));
     save(&w, "subgroups_tab");
+    tabs->setCurrentWidget(child<QWidget>(w, "sitesView"));
+    save(&w, "sites_tab");
+    child<QTabWidget>(w, "sitesPages")->setCurrentIndex(1);
+    save(&w, "sites_forest_plots");
+    child<QTabWidget>(w, "sitesPages")->setCurrentIndex(0);
     tabs->setCurrentIndex(1);
     auto* summary = child<QTextBrowser>(w, "summaryPanel");
     summary->moveCursor(QTextCursor::End);

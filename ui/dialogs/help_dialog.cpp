@@ -73,6 +73,13 @@ QString helpGuideHtml() {
   html += row(QObject::tr("Subgroups"),
               QObject::tr("The model validated within each level of a column (site, sex, age "
                           "band); small levels are marked."));
+  html +=
+      row(QObject::tr("Sites"),
+          QObject::tr("The model validated in each site of a site column, then each measure "
+                      "pooled across sites by random-effects meta-analysis, with the "
+                      "prediction interval for a new site and a forest plot per measure. "
+                      "Sites that cannot share patient rows use <code>calivera summarize</code> "
+                      "and <code>calivera pool</code>."));
   html += QObject::tr(
       "</table><h3>Studies</h3><p>File → Save study keeps the inputs' fingerprints and every "
       "setting; results are recomputed when the study is opened, and a changed input is "

@@ -1,5 +1,6 @@
 #include "ui/dialogs/uncertainty_dialog.h"
 
+#include <QComboBox>
 #include <QDialogButtonBox>
 #include <QFileDialog>
 #include <QFileInfo>
@@ -144,6 +145,23 @@ UncertaintyDialog::UncertaintyDialog(const UncertaintySettings& current, const T
   subgroupLayout->addWidget(subgroups_);
   layout->addWidget(subgroupBox);
 
+  auto* sitesBox = new QGroupBox(tr("Validation across sites"));
+  sitesBox->setObjectName(QStringLiteral("sitesBox"));
+  auto* sitesLayout = new QFormLayout(sitesBox);
+  sites_ = new QComboBox;
+  sites_->setObjectName(QStringLiteral("siteColumnCombo"));
+  sites_->addItem(tr("(none)"), QString());
+  for (const std::string& name : subgroupCandidates(cohort, outcomeColumn)) {
+    sites_->addItem(QString::fromStdString(name), QString::fromStdString(name));
+  }
+  const int chosen = sites_->findData(QString::fromStdString(current.clusterColumn));
+  sites_->setCurrentIndex(chosen >= 0 ? chosen : 0);
+  sites_->setToolTip(
+      tr("Each level of this column is a site: the model is validated in every site and the "
+         "results pooled by random-effects meta-analysis (Sites tab)."));
+  sitesLayout->addRow(tr("Site &column:"), sites_);
+  layout->addWidget(sitesBox);
+
   auto* box = new QDialogButtonBox(QDialogButtonBox::Ok | QDialogButtonBox::Cancel);
   box->setObjectName(QStringLiteral("uncertaintyButtons"));
   box->button(QDialogButtonBox::Ok)->setText(tr("&Run"));
@@ -175,6 +193,7 @@ UncertaintySettings UncertaintyDialog::settings() const {
   s.threads = static_cast<unsigned>(threads_->value());
   s.compareModels = compare_;
   s.sizeThresholds = parseThresholds(sizeThresholds_->text(), nullptr);
+  s.clusterColumn = sites_->currentData().toString().toStdString();
   for (int i = 0; i < subgroups_->count(); ++i) {
     if (subgroups_->item(i)->checkState() == Qt::Checked) {
       s.subgroupColumns.push_back(subgroups_->item(i)->text().toStdString());

@@ -10,6 +10,7 @@
 #include "core/data/table.h"
 #include "core/study/study.h"
 
+class QComboBox;
 class QLabel;
 class QLineEdit;
 class QListWidget;
@@ -49,6 +50,7 @@ class UncertaintyDialog : public QDialog {
   QLabel* error_ = nullptr;
   QListWidget* models_ = nullptr;
   QListWidget* subgroups_ = nullptr;
+  QComboBox* sites_ = nullptr;
 };
 
 }  // namespace calivera::ui

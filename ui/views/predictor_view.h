@@ -11,8 +11,8 @@
 #include <vector>
 
 #include "core/model/model.h"
-#include "core/study/study_analysis.h"
 #include "core/study/predictor_space.h"
+#include "core/study/study_analysis.h"
 #include "core/study/threshold_state.h"
 
 class QComboBox;

@@ -9,8 +9,8 @@
 #include <memory>
 #include <optional>
 
-#include "core/uncertainty/uncertainty_run.h"
 #include "core/study/threshold_state.h"
+#include "core/uncertainty/uncertainty_run.h"
 
 class QComboBox;
 class QLabel;
