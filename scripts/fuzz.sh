@@ -12,10 +12,10 @@ CC=clang CXX=clang++ cmake -S . -B build-fuzz -G Ninja -DCMAKE_BUILD_TYPE=None \
   -DCMAKE_CXX_FLAGS="-O1 -gline-tables-only" \
   -DCALIVERA_FUZZ=ON -DCALIVERA_BUILD_UI=OFF -DBUILD_TESTING=OFF >/dev/null
 cmake --build build-fuzz -j "$(nproc 2>/dev/null || echo 2)" \
-  --target calivera_fuzz_csv calivera_fuzz_model calivera_fuzz_study
+  --target calivera_fuzz_csv calivera_fuzz_model calivera_fuzz_study calivera_fuzz_summary
 export ASAN_OPTIONS=detect_leaks=1:abort_on_error=1
 export UBSAN_OPTIONS=halt_on_error=1:print_stacktrace=1
-for name in csv model study; do
+for name in csv model study summary; do
   corpus=build-fuzz/corpus-$name
   mkdir -p "$corpus"
   echo "fuzzing the $name reader for ${seconds}s"

@@ -41,30 +41,6 @@ const char* const kNotASite = "no site value: not a site";
 
 }  // namespace
 
-const char* poolingScaleName(PoolingScale scale) {
-  switch (scale) {
-    case PoolingScale::Logit:
-      return "logit";
-    case PoolingScale::Log:
-      return "log";
-    case PoolingScale::Identity:
-      return "identity";
-  }
-  return "identity";
-}
-
-double toNaturalScale(PoolingScale scale, double value) {
-  switch (scale) {
-    case PoolingScale::Logit:
-      return 1.0 / (1.0 + std::exp(-value));
-    case PoolingScale::Log:
-      return std::exp(value);
-    case PoolingScale::Identity:
-      return value;
-  }
-  return value;
-}
-
 double netBenefitVariance(double threshold, std::size_t tp, std::size_t fp, std::size_t n) {
   const double total = static_cast<double>(n);
   const double pTp = static_cast<double>(tp) / total;

@@ -25,6 +25,7 @@
 #include <vector>
 
 #include "core/metrics/validation.h"
+#include "core/sites/pooling_scale.h"
 #include "core/sites/random_effects.h"
 #include "core/sites/site_measures.h"
 #include "core/uncertainty/subgroups.h"
@@ -33,10 +34,6 @@ namespace calivera {
 
 // More sites than this is not a site column (an identifier): refused.
 inline constexpr std::size_t kMaxSites = 1000;
-
-enum class PoolingScale { Logit, Log, Identity };
-const char* poolingScaleName(PoolingScale scale);  // "logit", "log", "identity"
-double toNaturalScale(PoolingScale scale, double value);
 
 struct SiteExclusion {
   std::string site;

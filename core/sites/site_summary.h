@@ -93,6 +93,12 @@ std::string siteSummaryText(const SiteSummary& summary);
 // other.
 SiteSummary readSiteSummary(const std::string& path);
 
+// The same from text already read (`path` names it in messages). Skipped only by the fuzz target,
+// which needs the fields' checks reachable without forging a SHA-256.
+enum class IntegrityCheck { Required, SkippedForFuzzing };
+SiteSummary parseSiteSummary(const std::string& text, const std::string& path,
+                             IntegrityCheck integrity);
+
 // The AUC of every site's patients together from the histograms, with the bound on its error:
 // pairs of an event and a non-event whose cells overlap are counted 1/2, and each such pair can
 // be off by at most 1/2, so |AUC - binned| <= (1/2) * overlapping pairs / (events * non-events).
