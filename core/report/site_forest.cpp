@@ -3,6 +3,7 @@
 #include <cmath>
 
 #include "core/present/number_text.h"
+#include "core/util/shown_text.h"
 
 namespace calivera {
 namespace {
@@ -38,7 +39,7 @@ std::vector<ForestPlot> forestPlots(const SiteAnalysis& analysis) {
     }
     for (std::size_t i = 0; i < m.sites.size(); ++i) {
       ForestRow row;
-      row.label = m.sites[i];
+      row.label = visibleName(m.sites[i], 60);  // names from files: controls written out
       const double se = std::sqrt(m.variances[i]);
       row.estimate = toNaturalScale(m.scale, m.estimates[i]);
       row.ci = natural(m.scale, {m.estimates[i] - kZ * se, m.estimates[i] + kZ * se});
@@ -46,7 +47,9 @@ std::vector<ForestPlot> forestPlots(const SiteAnalysis& analysis) {
       row.valueText = valueText(row.estimate, row.ci);
       plot.sites.push_back(row);
     }
-    for (const SiteExclusion& e : m.excluded) plot.leftOut.push_back(e.site + ": " + e.reason);
+    for (const SiteExclusion& e : m.excluded) {
+      plot.leftOut.push_back(visibleName(e.site, 60) + ": " + visibleName(e.reason, 300));
+    }
     if (pool) {
       ForestRow pooled;
       pooled.label = "Pooled (random effects)";

@@ -9,6 +9,7 @@
 
 #include <cmath>
 
+#include "core/report/site_forest.h"
 #include "core/util/errors.h"
 #include "tests/reference/reference_csv.h"
 
@@ -77,6 +78,21 @@ TEST(SitePooling, PatientsWithoutASiteAreShownButNeverPooled) {
   ASSERT_EQ(c.excluded.size(), 1u);
   EXPECT_EQ(c.excluded[0].site, kMissingLevel);
   EXPECT_EQ(a.netBenefit[0].n, d.state.size() - 40);
+}
+
+TEST(SitePooling, ForestPlotsWriteOutControlCharactersInSiteNames) {
+  Aids2 d = readAids2();
+  const std::string hostile = "QLD\x1b[2J\u202Egpj.exe";
+  for (std::string& s : d.state) {
+    if (s == "QLD") s = hostile;
+  }
+  const SiteAnalysis a = validateSites("state", d.state, d.input, ValidationOptions{}, {0.2});
+  for (const ForestPlot& plot : forestPlots(a)) {
+    for (const ForestRow& row : plot.sites) {
+      EXPECT_EQ(row.label.find('\x1b'), std::string::npos) << row.label;
+      EXPECT_EQ(row.label.find("\u202E"), std::string::npos) << row.label;
+    }
+  }
 }
 
 TEST(SitePooling, OneSiteIsRefused) {
