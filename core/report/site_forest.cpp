@@ -8,10 +8,6 @@
 namespace calivera {
 namespace {
 
-Interval natural(PoolingScale scale, const Interval& ci) {
-  return {toNaturalScale(scale, ci.lo), toNaturalScale(scale, ci.hi)};
-}
-
 std::string valueText(double estimate, const Interval& ci) {
   return formatNumber(estimate, 3) + " (" + formatRange(ci.lo, ci.hi, 3) + ")";
 }
@@ -42,7 +38,7 @@ std::vector<ForestPlot> forestPlots(const SiteAnalysis& analysis) {
       row.label = visibleName(m.sites[i], 60);  // names from files: controls written out
       const double se = std::sqrt(m.variances[i]);
       row.estimate = toNaturalScale(m.scale, m.estimates[i]);
-      row.ci = natural(m.scale, {m.estimates[i] - kZ * se, m.estimates[i] + kZ * se});
+      row.ci = toNaturalScale(m.scale, {m.estimates[i] - kZ * se, m.estimates[i] + kZ * se});
       row.weight = pool ? (1.0 / (m.variances[i] + pool->tau2)) / totalWeight : 0.0;
       row.valueText = valueText(row.estimate, row.ci);
       plot.sites.push_back(row);
@@ -54,11 +50,11 @@ std::vector<ForestPlot> forestPlots(const SiteAnalysis& analysis) {
       ForestRow pooled;
       pooled.label = "Pooled (random effects)";
       pooled.estimate = toNaturalScale(m.scale, pool->estimate);
-      pooled.ci = natural(m.scale, pool->ci);
+      pooled.ci = toNaturalScale(m.scale, pool->ci);
       pooled.valueText = valueText(pooled.estimate, pooled.ci);
       plot.pooled = pooled;
       if (pool->predictionInterval) {
-        plot.predictionInterval = natural(m.scale, *pool->predictionInterval);
+        plot.predictionInterval = toNaturalScale(m.scale, *pool->predictionInterval);
       }
       plot.note =
           "k = " + std::to_string(pool->k) + "; \u03c4\u00b2 = " + formatNumber(pool->tau2, 4) +

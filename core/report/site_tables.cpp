@@ -15,10 +15,6 @@ using table_columns::text;
 constexpr double kNaN = std::numeric_limits<double>::quiet_NaN();
 const Interval kNoInterval{kNaN, kNaN};
 
-Interval natural(PoolingScale scale, const Interval& ci) {
-  return {toNaturalScale(scale, ci.lo), toNaturalScale(scale, ci.hi)};
-}
-
 // The pooled columns shared by the measure and the net-benefit tables, in their order.
 void addPoolValues(std::vector<TableValue>& row, PoolingScale scale,
                    const RandomEffectsOutcome& outcome) {
@@ -31,14 +27,15 @@ void addPoolValues(std::vector<TableValue>& row, PoolingScale scale,
     return;
   }
   const RandomEffectsPool& p = *outcome.pool;
-  row.insert(
-      row.end(),
-      {TableValue::ofCount(p.k), TableValue::of(toNaturalScale(scale, p.estimate)),
-       TableValue::of(natural(scale, p.ci)),
-       TableValue::of(p.predictionInterval ? natural(scale, *p.predictionInterval) : kNoInterval),
-       TableValue::of(p.tau2), TableValue::of(p.i2),
-       TableValue::of(toNaturalScale(scale, p.fixedEstimate)),
-       TableValue::of(natural(scale, p.fixedCi)), TableValue::of(p.q), TableValue::of(p.qPValue)});
+  row.insert(row.end(),
+             {TableValue::ofCount(p.k), TableValue::of(toNaturalScale(scale, p.estimate)),
+              TableValue::of(toNaturalScale(scale, p.ci)),
+              TableValue::of(p.predictionInterval ? toNaturalScale(scale, *p.predictionInterval)
+                                                  : kNoInterval),
+              TableValue::of(p.tau2), TableValue::of(p.i2),
+              TableValue::of(toNaturalScale(scale, p.fixedEstimate)),
+              TableValue::of(toNaturalScale(scale, p.fixedCi)), TableValue::of(p.q),
+              TableValue::of(p.qPValue)});
 }
 
 std::vector<TableColumn> poolColumns() {

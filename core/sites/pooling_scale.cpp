@@ -28,4 +28,8 @@ double toNaturalScale(PoolingScale scale, double value) {
   return value;
 }
 
+Interval toNaturalScale(PoolingScale scale, const Interval& interval) {
+  return {toNaturalScale(scale, interval.lo), toNaturalScale(scale, interval.hi)};
+}
+
 }  // namespace calivera

@@ -10,10 +10,6 @@ namespace {
 
 constexpr double kNaN = std::numeric_limits<double>::quiet_NaN();
 
-Interval natural(PoolingScale scale, const Interval& ci) {
-  return {toNaturalScale(scale, ci.lo), toNaturalScale(scale, ci.hi)};
-}
-
 nlohmann::json exclusionsJson(const std::vector<SiteExclusion>& excluded) {
   nlohmann::json out = nlohmann::json::array();
   for (const SiteExclusion& e : excluded) out.push_back({{"site", e.site}, {"reason", e.reason}});
@@ -39,18 +35,18 @@ nlohmann::json poolJson(PoolingScale scale, const RandomEffectsOutcome& outcome)
   const Interval noInterval{kNaN, kNaN};
   out["k"] = p.k;
   out["estimate"] = jsonNumber(toNaturalScale(scale, p.estimate));
-  out["ci"] = jsonInterval(natural(scale, p.ci));
-  out["prediction_interval"] =
-      jsonInterval(p.predictionInterval ? natural(scale, *p.predictionInterval) : noInterval);
+  out["ci"] = jsonInterval(toNaturalScale(scale, p.ci));
+  out["prediction_interval"] = jsonInterval(
+      p.predictionInterval ? toNaturalScale(scale, *p.predictionInterval) : noInterval);
   if (!p.predictionInterval) {
     out["prediction_interval_problem"] = "a prediction interval needs at least three sites";
   }
   out["tau2"] = jsonNumber(p.tau2);
   out["i2"] = jsonNumber(p.i2);
   out["fixed_effect"] = {{"estimate", jsonNumber(toNaturalScale(scale, p.fixedEstimate))},
-                         {"ci", jsonInterval(natural(scale, p.fixedCi))}};
-  out["ci_hksj_untruncated"] = jsonInterval(natural(scale, p.ciHksj));
-  out["ci_wald"] = jsonInterval(natural(scale, p.ciWald));
+                         {"ci", jsonInterval(toNaturalScale(scale, p.fixedCi))}};
+  out["ci_hksj_untruncated"] = jsonInterval(toNaturalScale(scale, p.ciHksj));
+  out["ci_wald"] = jsonInterval(toNaturalScale(scale, p.ciWald));
   out["hksj_scale_q"] = jsonNumber(p.hksjScale);
   out["cochran_q"] = jsonNumber(p.q);
   out["cochran_q_p_value"] = jsonNumber(p.qPValue);
