@@ -223,15 +223,7 @@ void MainWindow::nudgeThreshold(int steps) {
 }
 
 void MainWindow::buildBanner(QWidget* host) {
-  banner_ = new QLabel(cautionText(), host);
-  banner_->setObjectName(QStringLiteral("cautionBanner"));
-  banner_->setWordWrap(true);
-  banner_->setTextFormat(Qt::PlainText);
-  banner_->setContentsMargins(10, 6, 10, 6);
-  // Not dismissible: no close button, and nothing hides it for the session.
-  banner_->setStyleSheet(QStringLiteral(
-      "QLabel#cautionBanner { background: #fff4cc; color: #000; border-bottom: 2px solid #b08800; "
-      "font-weight: 600; }"));
+  banner_ = makeCautionBanner(host);
 }
 
 void MainWindow::buildMenus() {
@@ -266,6 +258,8 @@ void MainWindow::buildMenus() {
   file->addSeparator();
   actionImport_ = add(file, QStringLiteral("actionImportCohort"), tr("&Import cohort CSV…"),
                       QKeySequence(Qt::CTRL | Qt::Key_I), &MainWindow::onImportCohort);
+  add(file, QStringLiteral("actionOpenSiteSummaries"), tr("Pool site s&ummaries…"), QKeySequence(),
+      &MainWindow::onOpenSiteSummaries);
   file->addSeparator();
   actionExportCharts_ =
       add(file, QStringLiteral("actionExportCharts"), tr("&Export all charts (PNG and SVG)…"),

@@ -42,6 +42,7 @@ class ChartPanel;
 class ComparisonView;
 class ConfusionPanel;
 class SitesView;
+class SiteSummariesWindow;
 class SubgroupView;
 class PredictorView;
 class RecordTableModel;
@@ -86,6 +87,10 @@ class MainWindow : public QMainWindow {
   // opens the import dialog on it. Anything else is refused with a message. False when refused.
   bool openDroppedFile(const QString& path);
 
+  // A window of its own pooling site summaries (ui/sites/site_summaries_window.h): one `.cvsites`
+  // set is opened, otherwise every path is added as a summary. The window closes with this one.
+  SiteSummariesWindow* openSiteSummaries(const QStringList& paths);
+
   // Window size, position, toolbar state and splitter positions from the user's settings (the
   // workstation calls this at start; tests do not, so one test's window never sizes another's).
   void restoreWindowState();
@@ -122,6 +127,7 @@ class MainWindow : public QMainWindow {
   void rebuildRecentMenu();
 
   void onImportCohort();
+  void onOpenSiteSummaries();
   void importCohortFrom(const QString& path);
   void onLoadModel();
   void onFitModel();

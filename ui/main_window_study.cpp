@@ -43,6 +43,7 @@
 #include "ui/models/record_table_model.h"
 #include "ui/models/result_tables.h"
 #include "ui/models/table_export.h"
+#include "ui/sites/site_summaries_window.h"
 #include "ui/views/caution_text.h"
 #include "ui/views/chart_panel.h"
 #include "ui/views/comparison_view.h"
@@ -319,11 +320,14 @@ namespace {
 
 // The dropped-file kinds, by name and, for .json (a study or a model), by the study format id
 // near the start of the file.
-enum class DroppedKind { Study, Model, Cohort, Unknown };
+enum class DroppedKind { Study, Model, Cohort, SiteSummaries, Unknown };
 
 DroppedKind droppedKind(const QString& path) {
   const QString suffix = QFileInfo(path).suffix().toLower();
   if (suffix == QLatin1String("cvstudy")) return DroppedKind::Study;
+  if (suffix == QLatin1String("cvsummary") || suffix == QLatin1String("cvsites")) {
+    return DroppedKind::SiteSummaries;
+  }
   if (suffix == QLatin1String("csv") || suffix == QLatin1String("tsv") ||
       suffix == QLatin1String("txt")) {
     return DroppedKind::Cohort;
@@ -346,30 +350,78 @@ bool MainWindow::openDroppedFile(const QString& path) {
     case DroppedKind::Cohort:
       importCohortFrom(path);
       return true;
+    case DroppedKind::SiteSummaries:
+      openSiteSummaries({path});
+      return true;
     case DroppedKind::Unknown:
       break;
   }
-  showMessage(tr("Not opened: %1. Drop a study (.cvstudy), a model file (.json) or a cohort "
-                 "(.csv, .tsv, .txt).")
+  showMessage(tr("Not opened: %1. Drop a study (.cvstudy), a model file (.json), a cohort "
+                 "(.csv, .tsv, .txt) or site summaries (.cvsummary, .cvsites).")
                   .arg(QFileInfo(path).fileName()),
               true);
   return false;
 }
 
+namespace {
+
+// Several files dropped at once are accepted only as site summaries, pooled together.
+bool allSiteSummaries(const QList<QUrl>& urls) {
+  for (const QUrl& url : urls) {
+    if (!url.isLocalFile() ||
+        QFileInfo(url.toLocalFile()).suffix().toLower() != QLatin1String("cvsummary")) {
+      return false;
+    }
+  }
+  return urls.size() > 1;
+}
+
+}  // namespace
+
 void MainWindow::dragEnterEvent(QDragEnterEvent* event) {
   const QList<QUrl> urls = event->mimeData()->urls();
-  if (urls.size() == 1 && urls.front().isLocalFile() && !controller_->job()->isRunning()) {
+  if ((urls.size() == 1 && urls.front().isLocalFile() && !controller_->job()->isRunning()) ||
+      allSiteSummaries(urls)) {
     event->acceptProposedAction();
   }
 }
 
 void MainWindow::dropEvent(QDropEvent* event) {
   const QList<QUrl> urls = event->mimeData()->urls();
+  if (allSiteSummaries(urls)) {
+    event->acceptProposedAction();
+    QStringList paths;
+    for (const QUrl& url : urls) paths << url.toLocalFile();
+    QTimer::singleShot(0, this, [this, paths]() { openSiteSummaries(paths); });
+    return;
+  }
   if (urls.size() != 1 || !urls.front().isLocalFile()) return;
   event->acceptProposedAction();
   const QString path = urls.front().toLocalFile();
   // After the drop returns: the import dialog and the unsaved-changes question are modal.
   QTimer::singleShot(0, this, [this, path]() { openDroppedFile(path); });
+}
+
+SiteSummariesWindow* MainWindow::openSiteSummaries(const QStringList& paths) {
+  auto* window = new SiteSummariesWindow(this);
+  window->setWindowFlag(Qt::Window);
+  window->setAttribute(Qt::WA_DeleteOnClose);
+  window->resize(size());
+  window->show();
+  if (paths.size() == 1 &&
+      QFileInfo(paths.front()).suffix().toLower() == QLatin1String("cvsites")) {
+    window->openSet(paths.front());
+  } else if (!paths.isEmpty()) {
+    window->addSummaries(paths);
+  }
+  return window;
+}
+
+void MainWindow::onOpenSiteSummaries() {
+  const QStringList paths = QFileDialog::getOpenFileNames(
+      this, tr("Pool site summaries"), QString(),
+      tr("Site summaries or a set of them (*.cvsummary *.cvsites);;All files (*)"));
+  if (!paths.isEmpty()) openSiteSummaries(paths);
 }
 
 void MainWindow::onLoadModel() {

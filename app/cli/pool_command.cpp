@@ -13,6 +13,7 @@
 #include "core/report/site_tables.h"
 #include "core/sites/site_json.h"
 #include "core/sites/summary_pooling.h"
+#include "core/sites/summary_set.h"
 #include "core/study/limits.h"
 #include "core/study/reproduce_command.h"
 #include "core/util/errors.h"
@@ -28,6 +29,7 @@ namespace {
 
 constexpr const char* kHelp =
     "usage: calivera pool SITE1.cvsummary SITE2.cvsummary ... [--json FILE] [--csv-dir DIR]\n"
+    "       calivera pool --set SITES.cvsites [...]\n"
     "                     [--pdf FILE [--title TEXT] [--paper a4|letter]]\n"
     "                     [--report-thresholds T1,T2,...]\n\n"
     "Pools the site summaries written by `calivera summarize`: checks that every site validated\n"
@@ -37,17 +39,18 @@ constexpr const char* kHelp =
     "`calivera validate --cluster` does on the sites' patients. The AUC of all patients together\n"
     "is estimated from the sites' histograms with a stated bound on its error.\n\n"
     "options:\n"
+    "  --set FILE               the summaries of a set saved by the workstation (.cvsites),\n"
+    "                           each checked against the SHA-256 the set recorded; its\n"
+    "                           thresholds and title unless given here\n"
     "  --json FILE              results as JSON (key `clusters`, as validate --cluster)\n"
-    "  --csv-dir DIR            sites.csv, sites_pooled.csv, sites_net_benefit.csv\n"
+    "  --csv-dir DIR            sites.csv, sites_pooled.csv, sites_net_benefit.csv and\n"
+    "                           site_inputs.csv (each summary's file and SHA-256)\n"
     "  --pdf FILE               a report: the summaries pooled, the tables and a forest plot\n"
     "                           per measure\n"
     "  --title TEXT             the report's title\n"
     "  --paper a4|letter        the report's paper (default a4)\n"
     "  --report-thresholds T,.. net benefit pooled at these thresholds (default: 0.05, 0.1,\n"
     "                           0.2, 0.3, 0.5 where the sites counted them)\n";
-
-// The maximum number of summaries one pool reads.
-constexpr std::size_t kMaxSummaries = 10000;
 
 nlohmann::json pooledJson(const PooledSummaries& p) {
   nlohmann::json out;
@@ -89,7 +92,8 @@ nlohmann::json pooledJson(const PooledSummaries& p) {
 
 int runPoolCommand(const std::vector<std::string>& words) {
   OptionSpec spec;
-  spec.valued = {"--json", "--csv-dir", "--pdf", "--title", "--paper", "--report-thresholds"};
+  spec.valued = {"--set",   "--json",  "--csv-dir",          "--pdf",
+                 "--title", "--paper", "--report-thresholds"};
   spec.flags = {"--help"};
   const Arguments arguments(words, spec);
   if (arguments.has("--help")) {
@@ -97,11 +101,16 @@ int runPoolCommand(const std::vector<std::string>& words) {
     return 0;
   }
   const std::vector<std::string>& paths = arguments.positional();
-  if (paths.size() > kMaxSummaries) {
-    throw InputError("pool: at most " + std::to_string(kMaxSummaries) + " summaries at once");
+  std::optional<SummarySet> set;
+  if (const auto setPath = arguments.value("--set")) set = readSummarySet(*setPath);
+  std::vector<SummarySetEntry> entries = set ? set->summaries : std::vector<SummarySetEntry>{};
+  for (const std::string& path : paths) entries.push_back({path, ""});
+  if (entries.size() > kMaxPooledSummaries) {
+    throw InputError("pool: at most " + std::to_string(kMaxPooledSummaries) + " summaries at once");
   }
-  std::vector<double> thresholds;
+  std::vector<double> thresholds = set ? set->netBenefitThresholds : std::vector<double>{};
   if (const auto list = arguments.value("--report-thresholds")) {
+    thresholds.clear();
     for (const std::string& item : splitList(*list, "--report-thresholds")) {
       const double t = parseNumber(item, "--report-thresholds");
       if (!(t > 0.0 && t < 1.0))
@@ -112,7 +121,7 @@ int runPoolCommand(const std::vector<std::string>& words) {
   const auto jsonPath = arguments.value("--json");
   const auto csvDir = arguments.value("--csv-dir");
   const auto pdfPath = arguments.value("--pdf");
-  const std::string title = arguments.value("--title").value_or("");
+  const std::string title = arguments.value("--title").value_or(set ? set->title : "");
   if (title.size() > kMaxReportTitleBytes) {
     throw InputError("--title: at most " + std::to_string(kMaxReportTitleBytes) + " bytes");
   }
@@ -126,18 +135,11 @@ int runPoolCommand(const std::vector<std::string>& words) {
   if (jsonPath) outputs.emplace_back("--json", *jsonPath);
   if (csvDir) outputs.emplace_back("--csv-dir", *csvDir);
   if (pdfPath) outputs.emplace_back("--pdf", *pdfPath);
-  for (const std::string& path : paths) inputs.emplace_back("site summary", path);
+  for (const SummarySetEntry& e : entries) inputs.emplace_back("site summary", e.path);
+  if (const auto setPath = arguments.value("--set")) inputs.emplace_back("--set", *setPath);
   refuseOverwritingInputs(outputs, inputs);
 
-  std::vector<SummaryFile> files;
-  for (const std::string& path : paths) {
-    SummaryFile file;
-    file.path = path;
-    file.summary = readSiteSummary(path);
-    file.sha256 = sha256OfFile(path);
-    files.push_back(std::move(file));
-  }
-  const PooledSummaries pooled = poolSummaries(std::move(files), thresholds);
+  const PooledSummaries pooled = poolSummaries(loadSummaryFiles(entries, {}), thresholds);
 
   OutputTransaction transaction;
 #ifdef CALIVERA_HAVE_PDF
@@ -148,8 +150,9 @@ int runPoolCommand(const std::vector<std::string>& words) {
   }
 #endif
   if (csvDir) {
-    for (const ResultTable& table : {sitesTable(pooled.analysis), pooledSitesTable(pooled.analysis),
-                                     pooledNetBenefitTable(pooled.analysis)}) {
+    for (const ResultTable& table :
+         {sitesTable(pooled.analysis), pooledSitesTable(pooled.analysis),
+          pooledNetBenefitTable(pooled.analysis), summaryInputsTable(pooled)}) {
       transaction.add((std::filesystem::path(*csvDir) / table.fileName).string(), tableCsv(table),
                       /*createFolder=*/true);
     }
@@ -171,7 +174,12 @@ int runPoolCommand(const std::vector<std::string>& words) {
               << formatNumber(pooled.overallAuc.errorBound, 4) << ")\n";
     for (const std::string& w : pooled.warnings)
       std::cout << "warning: " << shownText(w, 400) << '\n';
-    std::cout << "\nReproduce with:\n  " << commandLine("pool", paths) << "\n\n"
+    std::cout << "\nReproduce with:\n  "
+              << commandLine("pool", poolCommandWords(arguments.value("--set"), paths,
+                                                      arguments.value("--report-thresholds")
+                                                          ? thresholds
+                                                          : std::vector<double>{}))
+              << "\n\n"
               << kCautionText << '\n';
   }
   return 0;

@@ -275,11 +275,7 @@ int executeValidation(const ValidationRequest& request, const UncertaintyRequest
   run.request.csv.onlyColumns.clear();  // the run as the user asked for it
   if (afterRun) afterRun(run);
   // uncertainty: sample size (always), bootstrap intervals, comparison, subgroups.
-  UncertaintyRequest uncertaintyRequest = uncertaintyWanted;
-  // Net benefit across sites is pooled at the thresholds the report tabulates.
-  if (uncertaintyRequest.clusterThresholds.empty()) {
-    uncertaintyRequest.clusterThresholds = outputs.tableThresholds;
-  }
+  const UncertaintyRequest& uncertaintyRequest = uncertaintyWanted;
   const UncertaintyResults uncertainty = runUncertainty(run, uncertaintyRequest);
   markStage("uncertainty");
   // Every output is rendered before anything is written; the JSON is written last so a reader
@@ -338,7 +334,13 @@ int validateBody(const std::vector<std::string>& words) {
   }
   const ValidationRequest request = validationRequestFrom(arguments);
   const ValidateOutputs outputs = validateOutputsFrom(arguments);
-  return executeValidation(request, uncertaintyRequest(arguments), outputs);
+  // `validate --cluster` pools net benefit at the thresholds its report tabulates
+  // (--report-thresholds). `calivera run` does not: it pools at the default thresholds, as the
+  // workstation does for the same study, whatever the report's own table rows are.
+  UncertaintyRequest uncertainty = uncertaintyRequest(arguments);
+  if (uncertainty.clusterThresholds.empty())
+    uncertainty.clusterThresholds = outputs.tableThresholds;
+  return executeValidation(request, uncertainty, outputs);
 }
 
 }  // namespace

@@ -24,6 +24,7 @@
 #include "core/metrics/threshold_table.h"  // defaultTableThresholds
 #include "core/metrics/validation.h"
 #include "core/model/model.h"
+#include "core/report/site_curves.h"
 #include "core/report/site_forest.h"
 #include "core/uncertainty/uncertainty_run.h"
 
@@ -87,14 +88,16 @@ enum class ChartKind { Roc, Calibration, DecisionCurve, RiskDistribution };
 
 struct ReportBlock {
   // Forest: a forest plot of one measure pooled across sites (core/report/site_forest.h).
-  enum class Kind { Heading, Paragraph, Caution, Table, ChartPair, PageBreak, Forest };
+  // SiteCurves: every site's calibration curve on one set of axes (core/report/site_curves.h).
+  enum class Kind { Heading, Paragraph, Caution, Table, ChartPair, PageBreak, Forest, SiteCurves };
   Kind kind = Kind::Paragraph;
-  int level = 1;                      // Heading: 1 section, 2 subsection
-  std::string text;                   // Heading, Paragraph, Caution
-  ReportTable table;                  // Table
-  std::vector<ChartKind> charts;      // ChartPair: one or two charts side by side
-  std::vector<std::string> captions;  // ChartPair: one per chart
-  std::optional<ForestPlot> forest;   // Forest
+  int level = 1;                             // Heading: 1 section, 2 subsection
+  std::string text;                          // Heading, Paragraph, Caution
+  ReportTable table;                         // Table
+  std::vector<ChartKind> charts;             // ChartPair: one or two charts side by side
+  std::vector<std::string> captions;         // ChartPair: one per chart
+  std::optional<ForestPlot> forest;          // Forest
+  std::optional<SiteCurvesPlot> siteCurves;  // SiteCurves
 };
 
 struct AuditDocument {

@@ -116,6 +116,10 @@ void addSiteSection(const SiteAnalysis& analysis, std::size_t suppressBelow,
       "intervals are shown on the measure's own scale.";
   blocks.push_back(reportTable(pooled));
   for (ForestPlot& plot : forestPlots(analysis)) blocks.push_back(forestBlock(std::move(plot)));
+  ReportBlock curves;
+  curves.kind = ReportBlock::Kind::SiteCurves;
+  curves.siteCurves = siteCurvesPlot(analysis);
+  blocks.push_back(std::move(curves));
 
   if (!analysis.netBenefit.empty()) {
     ReportTable nb;

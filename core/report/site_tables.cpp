@@ -1,6 +1,7 @@
 #include "core/report/site_tables.h"
 
 #include <cmath>
+#include <filesystem>
 #include <limits>
 
 namespace calivera {
@@ -138,6 +139,29 @@ ResultTable pooledNetBenefitTable(const SiteAnalysis& analysis) {
     addPoolValues(row, PoolingScale::Identity, nb.pooled);
     row.push_back(TableValue::of(exclusionText(nb.excluded)));
     t.rows.push_back(std::move(row));
+  }
+  return t;
+}
+
+ResultTable summaryInputsTable(const PooledSummaries& pooled) {
+  ResultTable t;
+  t.fileName = "site_inputs.csv";
+  t.columns = {text("site", "Site"),
+               text("file", "File"),
+               count("n", "Patients"),
+               count("events", "Events"),
+               text("suppression", "Small cells", "Counts below this were withheld by the site"),
+               text("software_version", "Calivera", "The version that wrote the summary"),
+               text("sha256", "File SHA-256", "Of the file's bytes as read", 64)};
+  for (const SummaryFile& f : pooled.inputs) {
+    const SiteSummary& s = f.summary;
+    t.rows.push_back(
+        {TableValue::of(s.measures.name),
+         TableValue::of(std::filesystem::path(f.path).filename().string()),
+         TableValue::ofCount(s.measures.n), TableValue::ofCount(s.measures.events),
+         TableValue::of(s.suppressBelow > 0 ? "below " + std::to_string(s.suppressBelow)
+                                            : std::string("none")),
+         TableValue::of(s.softwareVersion), TableValue::of(f.sha256)});
   }
   return t;
 }

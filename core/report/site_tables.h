@@ -6,12 +6,16 @@
 
 #include "core/report/result_table.h"
 #include "core/sites/site_pooling.h"
+#include "core/sites/summary_pooling.h"
 
 namespace calivera {
 
 ResultTable sitesTable(const SiteAnalysis& analysis);
 ResultTable pooledSitesTable(const SiteAnalysis& analysis);
 ResultTable pooledNetBenefitTable(const SiteAnalysis& analysis);
+// What a pool of site summaries read: each summary's site, file, counts, suppression, software
+// and the SHA-256 of its bytes (site_inputs.csv).
+ResultTable summaryInputsTable(const PooledSummaries& pooled);
 
 // "QLD: no events; VIC: ..." for the sites a pool left out; empty when none.
 std::string exclusionText(const std::vector<SiteExclusion>& excluded);

@@ -85,7 +85,13 @@ nlohmann::json siteMeasuresJson(const SiteMeasures& site) {
   return s;
 }
 
-namespace {}  // namespace
+nlohmann::json calibrationCurveJson(const std::vector<CalibrationCurvePoint>& points) {
+  nlohmann::json curve = nlohmann::json::array();
+  for (const CalibrationCurvePoint& p : points) {
+    curve.push_back(nlohmann::json::array({p.risk, jsonNumber(p.observed)}));
+  }
+  return curve;
+}
 
 nlohmann::json siteAnalysisJson(const SiteAnalysis& analysis) {
   nlohmann::json out;
@@ -102,7 +108,11 @@ nlohmann::json siteAnalysisJson(const SiteAnalysis& analysis) {
        "c_statistic on logit(AUC), oe_ratio on log(O/E); estimates and intervals are "
        "back-transformed, tau2 is on the pooling scale"}};
   nlohmann::json sites = nlohmann::json::array();
-  for (const SiteMeasures& site : analysis.sites) sites.push_back(siteMeasuresJson(site));
+  for (const SiteMeasures& site : analysis.sites) {
+    nlohmann::json entry = siteMeasuresJson(site);
+    entry["calibration_curve"] = calibrationCurveJson(site.calibrationCurve);
+    sites.push_back(std::move(entry));
+  }
   out["sites"] = sites;
   nlohmann::json pooled = nlohmann::json::object();
   for (const PooledMeasure& m : analysis.measures) {

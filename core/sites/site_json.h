@@ -13,5 +13,8 @@ namespace calivera {
 nlohmann::json siteAnalysisJson(const SiteAnalysis& analysis);
 // One site's entry of `clusters.sites` (also the measures of a site summary file).
 nlohmann::json siteMeasuresJson(const SiteMeasures& site);
+// A site's calibration curve on the grid (SiteMeasures::calibrationCurve): [[risk, observed], ...]
+// (in `clusters.sites[].calibration_curve` and in a site summary file).
+nlohmann::json calibrationCurveJson(const std::vector<CalibrationCurvePoint>& points);
 
 }  // namespace calivera

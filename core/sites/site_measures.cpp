@@ -45,6 +45,26 @@ void notePoolingProblems(SiteMeasures& s, const ValidationResult& m) {
 
 }  // namespace
 
+// The site's loess curve read at risks 0.01, 0.02, ..., 0.99 inside its range, by linear
+// interpolation between the curve's points: a shape, never a patient's risk.
+std::vector<CalibrationCurvePoint> calibrationCurveOnGrid(
+    const std::vector<CalibrationCurvePoint>& curve) {
+  std::vector<CalibrationCurvePoint> out;
+  if (curve.size() < 2) return out;
+  std::size_t j = 0;
+  for (int k = 1; k <= 99; ++k) {
+    const double risk = k / 100.0;
+    if (risk < curve.front().risk || risk > curve.back().risk) continue;
+    while (j + 2 < curve.size() && curve[j + 1].risk < risk) ++j;
+    const CalibrationCurvePoint& a = curve[j];
+    const CalibrationCurvePoint& b = curve[j + 1];
+    const double span = b.risk - a.risk;
+    const double f = span > 0.0 ? (risk - a.risk) / span : 0.0;
+    out.push_back({risk, a.observed + f * (b.observed - a.observed)});
+  }
+  return out;
+}
+
 double SiteMeasures::logOeSe() const {
   const double variance = 1.0 / static_cast<double>(events) - 1.0 / static_cast<double>(n);
   return variance > 0.0 && std::isfinite(variance) ? std::sqrt(variance) : kNaN;
@@ -72,6 +92,7 @@ SiteMeasures siteMeasures(const std::string& name, std::size_t n, std::size_t ev
     s.slope = m.calibration.slope;
     s.slopeSe = m.calibration.slopeSe;
     s.brier = m.overall.brier;
+    s.calibrationCurve = calibrationCurveOnGrid(m.calibration.curve);
     s.warnings.insert(s.warnings.end(), m.warnings.begin(), m.warnings.end());
     notePoolingProblems(s, m);
   } else {

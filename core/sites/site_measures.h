@@ -39,10 +39,18 @@ struct SiteMeasures {
   std::map<std::string, std::string> problems;
   std::vector<std::string> warnings;
   std::vector<SiteThresholdCounts> thresholds;
+  // The site's smoothed calibration curve read at risks 0.01, 0.02, ..., 0.99 inside its range
+  // (calibrationCurveOnGrid): a shape for drawing every site on one axes, never a patient's risk.
+  std::vector<CalibrationCurvePoint> calibrationCurve;
 
   // sqrt(1/O - 1/n): the SE of log(O/E) with O binomial and E fixed; NaN when not positive.
   double logOeSe() const;
 };
+
+// `curve` (sorted by risk) read at risks 0.01, 0.02, ..., 0.99 inside its range, by linear
+// interpolation between its points.
+std::vector<CalibrationCurvePoint> calibrationCurveOnGrid(
+    const std::vector<CalibrationCurvePoint>& curve);
 
 // The pooled measures, in the order they are reported.
 inline constexpr const char* kPooledMeasureKeys[] = {"c_statistic", "oe_ratio",

@@ -81,25 +81,6 @@ std::vector<LogitHistogramCell> logitHistogram(const ValidationInput& input, dou
   return merged;
 }
 
-// The site's loess curve read at risks 0.01, 0.02, ..., 0.99 inside its range, by linear
-// interpolation between the curve's points: a shape, never a patient's risk.
-std::vector<CalibrationCurvePoint> curveOnGrid(const std::vector<CalibrationCurvePoint>& curve) {
-  std::vector<CalibrationCurvePoint> out;
-  if (curve.size() < 2) return out;
-  std::size_t j = 0;
-  for (int k = 1; k <= 99; ++k) {
-    const double risk = k / 100.0;
-    if (risk < curve.front().risk || risk > curve.back().risk) continue;
-    while (j + 2 < curve.size() && curve[j + 1].risk < risk) ++j;
-    const CalibrationCurvePoint& a = curve[j];
-    const CalibrationCurvePoint& b = curve[j + 1];
-    const double span = b.risk - a.risk;
-    const double f = span > 0.0 ? (risk - a.risk) / span : 0.0;
-    out.push_back({risk, a.observed + f * (b.observed - a.observed)});
-  }
-  return out;
-}
-
 nlohmann::json numberOrNull(const std::optional<std::size_t>& v) {
   return v ? nlohmann::json(*v) : nlohmann::json(nullptr);
 }
@@ -162,11 +143,7 @@ nlohmann::json summaryJson(const SiteSummary& s) {
                             {"statistic", jsonNumber(s.hosmerLemeshowStatistic)},
                             {"df", s.hosmerLemeshowDf},
                             {"p_value", jsonNumber(s.hosmerLemeshowP)}};
-  nlohmann::json curve = nlohmann::json::array();
-  for (const CalibrationCurvePoint& p : s.calibrationCurve) {
-    curve.push_back(nlohmann::json::array({p.risk, jsonNumber(p.observed)}));
-  }
-  out["calibration_curve"] = {{"points", curve},
+  out["calibration_curve"] = {{"points", calibrationCurveJson(s.measures.calibrationCurve)},
                               {"layout", "[risk, smoothed observed proportion] at fixed risks"}};
   return out;
 }
@@ -316,7 +293,6 @@ SiteSummary summarizeRun(const ValidationRun& run, const SummaryOptions& options
   s.hosmerLemeshowStatistic = result.hosmerLemeshow.statistic;
   s.hosmerLemeshowDf = result.hosmerLemeshow.df;
   s.hosmerLemeshowP = result.hosmerLemeshow.pValue;
-  s.calibrationCurve = curveOnGrid(result.calibration.curve);
   return s;
 }
 
@@ -455,7 +431,8 @@ SiteSummary parseSiteSummary(const std::string& text, const std::string& path,
     if (!p.is_array() || p.size() != 2 || !p[0].is_number()) {
       r.fail("calibration_curve.points", "holds a point that is not [risk, observed]");
     }
-    s.calibrationCurve.push_back({p[0].get<double>(), p[1].is_null() ? kNaN : p[1].get<double>()});
+    s.measures.calibrationCurve.push_back(
+        {p[0].get<double>(), p[1].is_null() ? kNaN : p[1].get<double>()});
   }
   return s;
 }

@@ -72,14 +72,13 @@ struct SiteSummary {
   int groups = 10;
   std::vector<double> thresholdGrid;
   double binWidth = kDefaultLogitBinWidth;
-  SiteMeasures measures;  // thresholds: every point of thresholdGrid
+  SiteMeasures measures;  // thresholds: every point of thresholdGrid; with its calibration curve
   std::vector<LogitHistogramCell> histogram;
   std::vector<SummaryGroup> hosmerLemeshowGroups;
   double hosmerLemeshowStatistic = 0.0;
   int hosmerLemeshowDf = 0;
   double hosmerLemeshowP = 0.0;
-  std::vector<CalibrationCurvePoint> calibrationCurve;  // at risks 0.01, 0.02, ... in range
-  std::string contentSha256;                            // filled when written or read
+  std::string contentSha256;  // filled when written or read
 };
 
 // The summary of a whole validation run as one site.

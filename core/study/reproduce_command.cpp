@@ -165,6 +165,17 @@ std::string shellQuoted(const std::string& word) {
   return out + "'";
 }
 
+std::vector<std::string> poolCommandWords(const std::optional<std::string>& setPath,
+                                          const std::vector<std::string>& summaryPaths,
+                                          const std::vector<double>& netBenefitThresholds) {
+  std::vector<std::string> w = summaryPaths;
+  if (setPath) w.insert(w.begin(), {"--set", *setPath});
+  if (!netBenefitThresholds.empty()) {
+    w.insert(w.end(), {"--report-thresholds", numberList(netBenefitThresholds)});
+  }
+  return w;
+}
+
 std::string commandLine(const std::string& command, const std::vector<std::string>& words) {
   std::string line = "calivera " + command;
   for (const std::string& word : words) line += " " + shellQuoted(word);

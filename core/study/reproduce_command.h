@@ -49,6 +49,11 @@ std::string reproduceCommandLine(const StudyState& study);
 // predictors, the values held by the user, the study's threshold); none before a predictor is
 // chosen or for a risk column.
 std::optional<std::string> predictorSpaceCommandLine(const StudyState& study);
+// Words after `calivera pool`: `--set SET` when given, then each further summary's path, then the
+// net benefit thresholds when chosen.
+std::vector<std::string> poolCommandWords(const std::optional<std::string>& setPath,
+                                          const std::vector<std::string>& summaryPaths,
+                                          const std::vector<double>& netBenefitThresholds);
 std::string commandLine(const std::string& command, const std::vector<std::string>& words);
 std::string shellQuoted(const std::string& word);
 

@@ -1,13 +1,45 @@
 #include "render/charts/chart_style.h"
 
+#include <QFontMetricsF>
+#include <QPainter>
 #include <QtCharts/QAbstractSeries>
 #include <QtCharts/QChart>
 #include <QtCharts/QLegend>
 #include <QtCharts/QLegendMarker>
 #include <QtCharts/QValueAxis>
+#include <algorithm>
+#include <cmath>
 #include <memory>
 
 namespace calivera::charts {
+
+QFont painterFont(double points, double unit, bool bold) {
+  QFont font(QStringLiteral("Sans Serif"));
+  font.setPixelSize(std::max(1, static_cast<int>(std::lround(points * unit))));
+  font.setBold(bold);
+  return font;
+}
+
+double paintPlotTitle(QPainter& painter, const QFont& font, const QRectF& target, double height,
+                      const std::string& title) {
+  painter.setFont(font);
+  painter.setPen(palette::kBlack);
+  painter.drawText(QRectF(target.left(), target.top(), target.width(), height),
+                   Qt::AlignLeft | Qt::AlignVCenter, QString::fromStdString(title));
+  return target.top() + height;
+}
+
+double paintLeftOutLines(QPainter& painter, const std::vector<std::string>& leftOut, double left,
+                         double top, double width, double lineHeight) {
+  const QFontMetricsF metrics(painter.font());
+  for (const std::string& entry : leftOut) {
+    painter.drawText(
+        QRectF(left, top, width, lineHeight), Qt::AlignLeft | Qt::AlignVCenter,
+        metrics.elidedText(QString::fromStdString("Left out: " + entry), Qt::ElideRight, width));
+    top += lineHeight;
+  }
+  return top;
+}
 
 QColor roleColor(SeriesRole role) {
   switch (role) {

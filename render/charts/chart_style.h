@@ -4,10 +4,15 @@
 // never the only cue: every series also has its own line style or marker shape and a legend label.
 
 #include <QColor>
+#include <QFont>
 #include <QPen>
 #include <QString>
+#include <string>
+#include <vector>
 
 class QChart;
+class QPainter;
+class QRectF;
 class QValueAxis;
 class QAbstractSeries;
 class QAbstractAxis;
@@ -40,6 +45,20 @@ enum class SeriesRole {
 };
 
 QColor roleColor(SeriesRole role);
+
+// The sans-serif font of the painter-drawn plots (forest plots, calibration by site) at `points`
+// points, `unit` device units per point.
+QFont painterFont(double points, double unit, bool bold = false);
+
+// The title line of a painter-drawn plot, black in `font`, across the top of `target`; returns
+// the y below it.
+double paintPlotTitle(QPainter& painter, const QFont& font, const QRectF& target, double height,
+                      const std::string& title);
+
+// One line per entry, "Left out: ...", elided to `width`, from `top` down in the painter's current
+// font and pen (the sites a painter-drawn plot could not show); returns the y below the last.
+double paintLeftOutLines(QPainter& painter, const std::vector<std::string>& leftOut, double left,
+                         double top, double width, double lineHeight);
 QPen rolePen(SeriesRole role);
 
 // Bottom or left value axis with a title and a fixed label format ("%.1f" style).

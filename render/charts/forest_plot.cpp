@@ -62,13 +62,6 @@ int decimalsFor(const std::vector<double>& ticks) {
   return 4;
 }
 
-QFont sized(double points, double unit, bool bold = false) {
-  QFont font(QStringLiteral("Sans Serif"));
-  font.setPixelSize(std::max(1, static_cast<int>(std::lround(points * unit))));
-  font.setBold(bold);
-  return font;
-}
-
 }  // namespace
 
 double forestPlotHeightPoints(const ForestPlot& plot) {
@@ -83,9 +76,9 @@ void paintForestPlot(QPainter& painter, const QRectF& target, const ForestPlot& 
   const auto pt = [unit](double points) { return points * unit; };
   painter.save();
   painter.setRenderHint(QPainter::Antialiasing);
-  const QFont title = sized(8.5, unit, true);
-  const QFont text = sized(7.0, unit);
-  const QFont small = sized(6.5, unit);
+  const QFont title = painterFont(8.5, unit, true);
+  const QFont text = painterFont(7.0, unit);
+  const QFont small = painterFont(6.5, unit);
   const double labelWidth = target.width() * 0.26;
   const double valueWidth = target.width() * 0.26;
   const QRectF plotArea(target.left() + labelWidth + pt(6), target.top(),
@@ -120,12 +113,7 @@ void paintForestPlot(QPainter& painter, const QRectF& target, const ForestPlot& 
     return plotArea.left() + (a - lo) / (hi - lo) * plotArea.width();
   };
 
-  double y = target.top();
-  painter.setFont(title);
-  painter.setPen(kBlack);
-  painter.drawText(QRectF(target.left(), y, target.width(), pt(kTitlePoints)),
-                   Qt::AlignLeft | Qt::AlignVCenter, QString::fromStdString(plot.title));
-  y += pt(kTitlePoints);
+  double y = paintPlotTitle(painter, title, target, pt(kTitlePoints), plot.title);
   painter.setFont(small);
   painter.setPen(kGrey);
   painter.drawText(QRectF(target.left(), y, labelWidth, pt(kRowPoints)),
@@ -219,14 +207,7 @@ void paintForestPlot(QPainter& painter, const QRectF& target, const ForestPlot& 
   painter.drawText(QRectF(target.left(), y, target.width(), pt(kNotePoints)),
                    Qt::AlignLeft | Qt::AlignVCenter, QString::fromStdString(plot.note));
   y += pt(kNotePoints);
-  for (const std::string& left : plot.leftOut) {
-    const QFontMetricsF metrics(small);
-    painter.drawText(QRectF(target.left(), y, target.width(), pt(kNotePoints)),
-                     Qt::AlignLeft | Qt::AlignVCenter,
-                     metrics.elidedText(QString::fromStdString("Left out: " + left), Qt::ElideRight,
-                                        target.width()));
-    y += pt(kNotePoints);
-  }
+  paintLeftOutLines(painter, plot.leftOut, target.left(), y, target.width(), pt(kNotePoints));
   painter.restore();
 }
 

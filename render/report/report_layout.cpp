@@ -8,6 +8,7 @@
 #include <algorithm>
 
 #include "render/charts/forest_plot.h"
+#include "render/charts/site_curves_plot.h"
 #include "render/report/report_charts.h"
 
 namespace calivera::report {
@@ -86,6 +87,9 @@ class PageComposer {
           break;
         case ReportBlock::Kind::Forest:
           forest(block);
+          break;
+        case ReportBlock::Kind::SiteCurves:
+          siteCurves(block);
           break;
       }
     }
@@ -342,6 +346,18 @@ class PageComposer {
     if (painter_ != nullptr) {
       charts::paintForestPlot(*painter_, QRectF(body_.left(), y_, body_.width(), height),
                               *block.forest, unit_);
+    }
+    y_ += height + pt(8);
+  }
+
+  void siteCurves(const ReportBlock& block) {
+    if (!block.siteCurves) return;
+    const double height =
+        pt(charts::siteCurvesPlotHeightPoints(*block.siteCurves, body_.width() / unit_));
+    ensure(height + pt(8));
+    if (painter_ != nullptr) {
+      charts::paintSiteCurvesPlot(*painter_, QRectF(body_.left(), y_, body_.width(), height),
+                                  *block.siteCurves, unit_);
     }
     y_ += height + pt(8);
   }

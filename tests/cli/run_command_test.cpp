@@ -93,6 +93,29 @@ TEST_F(RunCommand, JsonEqualsValidateWithTheStudysOptions) {
   EXPECT_NE(line.find("--bootstrap 25 --seed 11"), std::string::npos) << line;
 }
 
+// Net benefit across sites is pooled where the workstation pools it for the same study, whether or
+// not `run` also writes the report (whose own table rows are the study's report thresholds): the
+// PDF the workstation exports and the one `run --pdf` writes carry the same site numbers.
+TEST_F(RunCommand, SitesArePooledAsInTheWorkstationWithOrWithoutTheReport) {
+  StudyState study = testing::birthwtFileStudy(kBirthwt, model());
+  study.uncertaintySettings.clusterColumn = "race";
+  study.report.thresholds = {0.15, 0.35};
+  const std::string studyPath = dir_.file("sites.cvstudy");
+  writeStudyFile(studyPath, study);
+  const CliRun plain = runCalivera({"run", studyPath, "--json", dir_.file("plain.json")});
+  ASSERT_EQ(plain.status, 0) << plain.err;
+  const CliRun withPdf = runCalivera(
+      {"run", studyPath, "--json", dir_.file("pdf.json"), "--pdf", dir_.file("sites.pdf")});
+  ASSERT_EQ(withPdf.status, 0) << withPdf.err;
+  const auto a = nlohmann::json::parse(readWhole(dir_.file("plain.json")));
+  const auto b = nlohmann::json::parse(readWhole(dir_.file("pdf.json")));
+  ASSERT_TRUE(a.contains("clusters"));
+  EXPECT_EQ(a.at("clusters"), b.at("clusters"));
+  std::vector<double> thresholds;
+  for (const auto& row : a.at("clusters").at("net_benefit")) thresholds.push_back(row["threshold"]);
+  EXPECT_EQ(thresholds, (std::vector<double>{0.05, 0.1, 0.2, 0.3, 0.5}));
+}
+
 TEST_F(RunCommand, SummaryEndsWithTheReproduceLineThenTheCaution) {
   const StudyState study = testing::birthwtFileStudy(kBirthwt, model());
   const std::string studyPath = dir_.file("plain.cvstudy");

@@ -13,6 +13,8 @@
 #include <nlohmann/json.hpp>
 #include <optional>
 
+#include "core/sites/summary_set.h"
+#include "core/util/sha256.h"
 #include "tests/reference/reference_csv.h"
 #include "tests/unit/cli_run.h"
 
@@ -101,6 +103,8 @@ TEST_F(SiteSummaries, PoolingSummariesEqualsValidatingTheWholeCohortBySite) {
     for (auto& s : *sites) s.erase("warnings");
   }
   EXPECT_EQ(ps, ws);
+  // Each site's calibration curve (the "calibration by site" plot) is among what is equal.
+  for (const nlohmann::json& site : ps) EXPECT_GT(site.at("calibration_curve").size(), 10u);
   EXPECT_EQ(p.at("clusters").at("pooled"), w.at("clusters").at("pooled"));
   EXPECT_EQ(p.at("clusters").at("net_benefit"), w.at("clusters").at("net_benefit"));
   // What only the whole cohort gives exactly: the AUC of all patients, within the stated bound.
@@ -200,9 +204,66 @@ TEST_F(SiteSummaries, ReportsCarryTheSiteSectionWithAForestPlotPerMeasure) {
     EXPECT_NE(text.find("0.849 (0.790 to 0.894)"), std::string::npos);
     EXPECT_NE(text.find("do not replace clinical judgment"), std::string::npos);
   }
-  EXPECT_NE(testing::pdfText(dir_.file("pooled.pdf")).find("QLD.cvsummary"), std::string::npos);
+  const std::string pdf = testing::pdfText(dir_.file("pooled.pdf"));
+  EXPECT_NE(pdf.find("QLD.cvsummary"), std::string::npos);
+  // Every site's calibration curve on one set of axes, with each site in its legend.
+  const std::size_t curves = pdf.find("Calibration by site");
+  ASSERT_NE(curves, std::string::npos);
+  for (const std::string& state : states_) {
+    EXPECT_NE(pdf.find(state, curves), std::string::npos) << state;
+  }
 }
 #endif
+
+// A set of summaries as the workstation saves it (core/sites/summary_set.h): `pool --set` pools
+// exactly what naming the files pools, finds them relative to the set's folder, carries the set's
+// thresholds, and refuses a summary changed after the set was saved.
+TEST_F(SiteSummaries, ASavedSetPoolsAsItsFilesDoAndRefusesAChangedSummary) {
+  const std::vector<std::string> summaries = summarizeAll();
+  SummarySet set;
+  for (const std::string& path : summaries) set.summaries.push_back({path, sha256OfFile(path)});
+  set.netBenefitThresholds = {0.1, 0.2};
+  const std::string setPath = dir_.file("four.cvsites");
+  dir_.write("four.cvsites", summarySetText(set, setPath));
+  // Paths inside the set's folder are stored relative to it.
+  EXPECT_NE(testing::readWhole(setPath).find("\"file\": \"QLD.cvsummary\""), std::string::npos);
+  const testing::CliRun bySet =
+      runCalivera({"pool", "--set", setPath, "--json", dir_.file("set.json"), "--csv-dir",
+                   dir_.file("set_tables")});
+  ASSERT_EQ(bySet.status, 0) << bySet.err;
+  const testing::CliRun byFiles =
+      pool(summaries, {"--report-thresholds", "0.1,0.2", "--json", dir_.file("files.json")});
+  ASSERT_EQ(byFiles.status, 0) << byFiles.err;
+  EXPECT_EQ(readJson(dir_.file("set.json")).at("clusters"),
+            readJson(dir_.file("files.json")).at("clusters"));
+  EXPECT_EQ(readJson(dir_.file("set.json")).at("clusters").at("net_benefit").size(), 2u);
+  const std::string inputs = testing::readWhole(dir_.file("set_tables/site_inputs.csv"));
+  EXPECT_NE(inputs.find(sha256OfFile(summaries[0])), std::string::npos) << inputs;
+  // The reproducing line names the set.
+  const testing::CliRun text = runCalivera({"pool", "--set", setPath});
+  ASSERT_EQ(text.status, 0) << text.err;
+  EXPECT_NE(text.out.find("calivera pool --set " + setPath), std::string::npos) << text.out;
+
+  // A summary replaced after the set was saved (valid on its own) is refused, naming it.
+  const testing::CliRun redo =
+      runCalivera({"summarize", "--data", cohorts_[states_[1]], "--outcome", "dead", "--risk",
+                   "risk", "--site", states_[1], "--suppress-below", "5", "--out", summaries[1]});
+  ASSERT_EQ(redo.status, 0) << redo.err;
+  const testing::CliRun changed = runCalivera({"pool", "--set", setPath});
+  EXPECT_EQ(changed.status, 2);
+  EXPECT_NE(changed.err.find(summaries[1]), std::string::npos) << changed.err;
+  EXPECT_NE(changed.err.find("changed after the set was saved"), std::string::npos) << changed.err;
+  // Not a set; a set naming one summary.
+  const testing::CliRun notSet = runCalivera({"pool", "--set", summaries[0]});
+  EXPECT_EQ(notSet.status, 2);
+  EXPECT_NE(notSet.err.find("not a Calivera site summary set"), std::string::npos) << notSet.err;
+  SummarySet single;
+  single.summaries = {{summaries[0], ""}};
+  dir_.write("one.cvsites", summarySetText(single, dir_.file("one.cvsites")));
+  const testing::CliRun one = runCalivera({"pool", "--set", dir_.file("one.cvsites")});
+  EXPECT_EQ(one.status, 2);
+  EXPECT_NE(one.err.find("fewer than two"), std::string::npos) << one.err;
+}
 
 TEST_F(SiteSummaries, BadSummariesAreRefusedClearly) {
   const std::vector<std::string> summaries = summarizeAll();

@@ -78,8 +78,9 @@ QString helpGuideHtml() {
           QObject::tr("The model validated in each site of a site column, then each measure "
                       "pooled across sites by random-effects meta-analysis, with the "
                       "prediction interval for a new site and a forest plot per measure. "
-                      "Sites that cannot share patient rows use <code>calivera summarize</code> "
-                      "and <code>calivera pool</code>."));
+                      "Sites that cannot share patient rows use <code>calivera summarize</code>; "
+                      "File → Pool site summaries opens their files in a window of its own "
+                      "(<code>calivera pool</code> gives the same numbers)."));
   html += QObject::tr(
       "</table><h3>Studies</h3><p>File → Save study keeps the inputs' fingerprints and every "
       "setting; results are recomputed when the study is opened, and a changed input is "

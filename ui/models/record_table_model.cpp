@@ -32,8 +32,9 @@ QVariant RecordTableModel::data(const QModelIndex& index, int role) const {
     case kSortRole:
       return c.textual ? QVariant(c.text) : QVariant(c.sortKey);
     case Qt::TextAlignmentRole:
-      return index.column() == 0 ? QVariant(Qt::AlignLeft | Qt::AlignVCenter)
-                                 : QVariant(Qt::AlignRight | Qt::AlignVCenter);
+      // Words read from the left, numbers line up on the right.
+      return index.column() == 0 || c.textual ? QVariant(Qt::AlignLeft | Qt::AlignVCenter)
+                                              : QVariant(Qt::AlignRight | Qt::AlignVCenter);
     default:
       return {};
   }

@@ -22,7 +22,8 @@ double ForestWidget::unit() const {
 }
 
 QSize ForestWidget::sizeHint() const {
-  return {640, static_cast<int>(std::ceil(charts::forestPlotHeightPoints(plot_) * unit()))};
+  // Narrower than two columns of the smallest screen, so a pair never needs a horizontal scroll.
+  return {480, static_cast<int>(std::ceil(charts::forestPlotHeightPoints(plot_) * unit()))};
 }
 
 void ForestWidget::paintEvent(QPaintEvent*) {

@@ -10,6 +10,7 @@
 #include <QTableView>
 #include <QVBoxLayout>
 
+#include "core/report/site_curves.h"
 #include "core/report/site_forest.h"
 #include "core/report/site_tables.h"
 #include "core/util/shown_text.h"
@@ -20,6 +21,7 @@
 #include "ui/views/chart_panel.h"
 #include "ui/views/forest_widget.h"
 #include "ui/views/result_table_view.h"
+#include "ui/views/site_curves_widget.h"
 
 namespace calivera::ui {
 
@@ -28,13 +30,14 @@ SitesView::SitesView(QWidget* parent) : QWidget(parent) {
   auto* layout = new QVBoxLayout(this);
   note_ = new QLabel;
   note_->setObjectName(QStringLiteral("sitesNote"));
+  note_->setTextFormat(Qt::PlainText);  // site column names come from files
   note_->setWordWrap(true);
   note_->setTextInteractionFlags(Qt::TextSelectableByMouse);
   layout->addWidget(note_);
 
   // Two pages: the tables with the selected site's calibration, and the forest plots (two per
   // row), so each has the whole width even on a 1366-pixel screen.
-  auto* pages = new QTabWidget;
+  auto* pages = pages_ = new QTabWidget;
   pages->setObjectName(QStringLiteral("sitesPages"));
   auto* left = new QWidget;
   auto* leftLayout = new QVBoxLayout(left);
@@ -59,6 +62,13 @@ SitesView::SitesView(QWidget* parent) : QWidget(parent) {
   forests_ = new QGridLayout(forestHost);
   scroll->setWidget(forestHost);
   pages->addTab(scroll, tr("Forest plots"));
+  allCurves_ = new SiteCurvesWidget;
+  pages->addTab(allCurves_, tr("Calibration by site"));
+  netBenefitModel_ = new RecordTableModel(this);
+  netBenefitModel_->setObjectName(QStringLiteral("sitesNetBenefitModel"));
+  pages->addTab(makeResultTableView(QStringLiteral("sitesNetBenefitTable"), netBenefitModel_,
+                                    &netBenefitProxy_),
+                tr("Net benefit across sites"));
   layout->addWidget(pages, 1);
 
   connect(sitesTable_->selectionModel(), &QItemSelectionModel::currentRowChanged, this,
@@ -70,60 +80,89 @@ SitesView::SitesView(QWidget* parent) : QWidget(parent) {
 }
 
 void SitesView::setResults(const std::shared_ptr<const UncertaintyResults>& results) {
-  results_ = results;
+  setAnalysis(results && results->sites
+                  ? std::shared_ptr<const SiteAnalysis>(results, &*results->sites)
+                  : nullptr,
+              tr("No sites yet. Analysis → Intervals, comparison and subgroups: choose the cohort "
+                 "column that names each patient's site to validate the model in every site and "
+                 "pool the results across sites."));
+}
+
+void SitesView::setAnalysis(std::shared_ptr<const SiteAnalysis> analysis,
+                            const QString& emptyNote) {
+  analysis_ = std::move(analysis);
   while (QLayoutItem* item = forests_->takeAt(0)) {
     delete item->widget();
     delete item;
   }
-  if (!results_ || !results_->sites) {
+  if (!analysis_) {
     sitesModel_->setTable({}, {}, {});
     pooledModel_->setTable({}, {}, {});
+    netBenefitModel_->setTable({}, {}, {});
     chart_->setLinkedChart(nullptr);
+    allCurves_->setPlot({});
     site_ = -1;
-    note_->setText(
-        tr("No sites yet. Analysis → Intervals, comparison and subgroups: choose the cohort "
-           "column that names each patient's site to validate the model in every site and pool "
-           "the results across sites."));
+    note_->setText(emptyNote);
     return;
   }
-  const SiteAnalysis& a = *results_->sites;
+  const SiteAnalysis& a = *analysis_;
   showResultTable(*sitesModel_, sitesTable(a));
+  // Up to eight sites and the four measures show every row; the chart takes what is left, and
+  // with no chart (sites that sent summaries) the sites table does.
   capTableHeight(sitesTable_, 8);
-  // Up to eight sites and the four measures show every row; the chart takes what is left.
   sitesTable_->setMinimumHeight(sitesTable_->maximumHeight());
+  if (a.validations.empty()) sitesTable_->setMaximumHeight(QWIDGETSIZE_MAX);
   showResultTable(*pooledModel_, pooledSitesTable(a));
   capTableHeight(pooledTable_, 4);
   pooledTable_->setMinimumHeight(pooledTable_->maximumHeight());
+  showResultTable(*netBenefitModel_, pooledNetBenefitTable(a));
   int index = 0;
   for (ForestPlot& plot : forestPlots(a)) {
     forests_->addWidget(new ForestWidget(std::move(plot)), index / 2, index % 2, Qt::AlignTop);
     ++index;
   }
   forests_->setRowStretch((index + 1) / 2, 1);
-  note_->setText(
-      tr("Each site (column %1) validated on its own patients (%2 sites), then pooled by "
-         "random-effects meta-analysis: the prediction interval is where a new, similar site's "
-         "value is expected. Evidence for local governance, not an approval. Select a site to "
-         "see its calibration.")
-          .arg(QString::fromStdString(visibleName(a.column, 60)).toHtmlEscaped())
-          .arg(a.sites.size()));
+  allCurves_->setPlot(siteCurvesPlot(a));
+  // Sites that sent summaries have no patient rows here, so no linked chart of their own: the
+  // tables take the page, and a selected site is highlighted under "Calibration by site".
+  const bool rows = !a.validations.empty();
+  chart_->setVisible(rows);
+  const QString how = rows ? tr("Each site (column %1) validated on its own patients (%2 sites)")
+                                 .arg(QString::fromStdString(visibleName(a.column, 60)))
+                                 .arg(a.sites.size())
+                           : tr("Each site validated on its own patients where they are, and "
+                                "sent as a summary of aggregates (%1 sites)")
+                                 .arg(a.sites.size());
+  note_->setText(how + tr(", then pooled by random-effects meta-analysis: the prediction interval "
+                          "is where a new, similar site's value is expected. Evidence for local "
+                          "governance, not an approval. Select a site to see its calibration%1.")
+                           .arg(rows ? QString() : tr(" under Calibration by site")));
   int first = -1;
-  for (std::size_t i = 0; i < a.validations.size() && first < 0; ++i) {
-    if (a.validations[i].metrics) first = static_cast<int>(i);
+  for (std::size_t i = 0; i < a.sites.size() && first < 0; ++i) {
+    const bool has = rows ? i < a.validations.size() && a.validations[i].metrics.has_value()
+                          : a.sites[i].hasMetrics && !a.sites[i].missingLevel;
+    if (has) first = static_cast<int>(i);
   }
   showSite(first);
 }
 
 void SitesView::showSite(int index) {
   site_ = -1;
-  if (!results_ || !results_->sites || index < 0 ||
-      index >= static_cast<int>(results_->sites->validations.size()) ||
-      !results_->sites->validations[static_cast<std::size_t>(index)].metrics) {
+  const bool inRange = analysis_ && index >= 0 && index < static_cast<int>(analysis_->sites.size());
+  allCurves_->highlightSite(inRange ? std::optional<std::size_t>(index) : std::nullopt);
+  if (analysis_ && analysis_->validations.empty()) {
+    // A pool of summaries: the site's row and its curve among every site's.
+    if (inRange) site_ = index;
+    selectRow(index);
+    return;
+  }
+  if (!analysis_ || index < 0 || index >= static_cast<int>(analysis_->validations.size()) ||
+      !analysis_->validations[static_cast<std::size_t>(index)].metrics) {
     chart_->setLinkedChart(nullptr);
     return;
   }
   site_ = index;
-  const std::vector<SubgroupResult>& all = results_->sites->validations;
+  const std::vector<SubgroupResult>& all = analysis_->validations;
   const SubgroupResult& r = all[static_cast<std::size_t>(index)];
   auto* chart = new charts::CalibrationChart(r.metrics->calibration, r.metrics->distribution);
   chart->setTitle(QStringLiteral("Site %1: %2")
@@ -137,12 +176,22 @@ void SitesView::showSite(int index) {
   }
   chart_->setLinkedChart(chart);
   if (snapshot_) chart->setThreshold(*snapshot_);
+  selectRow(index);
+}
+
+void SitesView::selectRow(int index) {
+  if (index < 0) return;
   const QModelIndex at = sitesProxy_->mapFromSource(sitesModel_->index(index, 0));
   if (sitesTable_->selectionModel()->currentIndex().row() != at.row()) {
     const QSignalBlocker block(sitesTable_->selectionModel());
     sitesTable_->selectionModel()->setCurrentIndex(
         at, QItemSelectionModel::ClearAndSelect | QItemSelectionModel::Rows);
   }
+}
+
+void SitesView::insertFirstPage(QWidget* page, const QString& title) {
+  pages_->insertTab(0, page, title);
+  pages_->setCurrentIndex(0);
 }
 
 void SitesView::setThreshold(const ThresholdSnapshot& snapshot) {
