@@ -67,8 +67,11 @@ std::string summarySetText(const SummarySet& set, const std::string& setPath) {
 }
 
 SummarySet readSummarySet(const std::string& path) {
-  const nlohmann::json root =
-      parseStrictJson(readSmallFile(path, "site summary set", kMaxSummarySetBytes), path, false);
+  return parseSummarySet(readSmallFile(path, "site summary set", kMaxSummarySetBytes), path);
+}
+
+SummarySet parseSummarySet(const std::string& text, const std::string& path) {
+  const nlohmann::json root = parseStrictJson(text, path, false);
   const auto fail = [&](const std::string& field, const std::string& problem) {
     throw InputError(path + ": field '" + field + "' " + problem);
   };

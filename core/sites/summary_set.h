@@ -44,6 +44,8 @@ std::string summarySetText(const SummarySet& set, const std::string& setPath);
 // Throws InputError naming the file and the field. Paths come back resolved against the set's
 // folder.
 SummarySet readSummarySet(const std::string& path);
+// The same from text already read (`path` names it in messages and anchors relative paths).
+SummarySet parseSummarySet(const std::string& text, const std::string& path);
 
 // Reads each summary (readSiteSummary) and hashes its bytes; an entry with a recorded SHA-256
 // that differs is refused naming the file. `progress` is called after each file; false cancels
