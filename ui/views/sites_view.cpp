@@ -15,11 +15,11 @@
 #include "core/report/site_tables.h"
 #include "core/util/shown_text.h"
 #include "render/charts/calibration_chart.h"
-#include "render/charts/overlay_series.h"
 #include "ui/models/record_table_model.h"
 #include "ui/models/result_tables.h"
 #include "ui/views/chart_panel.h"
 #include "ui/views/forest_widget.h"
+#include "ui/views/level_calibration.h"
 #include "ui/views/result_table_view.h"
 #include "ui/views/site_curves_widget.h"
 
@@ -162,31 +162,17 @@ void SitesView::showSite(int index) {
     return;
   }
   site_ = index;
-  const std::vector<SubgroupResult>& all = analysis_->validations;
-  const SubgroupResult& r = all[static_cast<std::size_t>(index)];
-  auto* chart = new charts::CalibrationChart(r.metrics->calibration, r.metrics->distribution);
-  chart->setTitle(QStringLiteral("Site %1: %2")
-                      .arg(QString::fromStdString(visibleName(r.level, 30)), chart->title()));
-  std::size_t overlays = 0;
-  for (std::size_t i = 0; i < all.size() && overlays < charts::kComparisonStyles; ++i) {
-    if (static_cast<int>(i) == index || !all[i].metrics) continue;
-    chart->addComparison(QString::fromStdString(visibleName(all[i].level, 40)),
-                         all[i].metrics->calibration);
-    ++overlays;
-  }
+  const SubgroupResult& r = analysis_->validations[static_cast<std::size_t>(index)];
+  auto* chart = levelCalibrationChart(
+      analysis_->validations, static_cast<std::size_t>(index),
+      QStringLiteral("Site %1").arg(QString::fromStdString(visibleName(r.level, 30))));
   chart_->setLinkedChart(chart);
   if (snapshot_) chart->setThreshold(*snapshot_);
   selectRow(index);
 }
 
 void SitesView::selectRow(int index) {
-  if (index < 0) return;
-  const QModelIndex at = sitesProxy_->mapFromSource(sitesModel_->index(index, 0));
-  if (sitesTable_->selectionModel()->currentIndex().row() != at.row()) {
-    const QSignalBlocker block(sitesTable_->selectionModel());
-    sitesTable_->selectionModel()->setCurrentIndex(
-        at, QItemSelectionModel::ClearAndSelect | QItemSelectionModel::Rows);
-  }
+  selectSourceRow(sitesTable_, sitesProxy_, index);
 }
 
 void SitesView::insertFirstPage(QWidget* page, const QString& title) {

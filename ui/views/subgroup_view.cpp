@@ -11,10 +11,10 @@
 #include "core/report/uncertainty_result_tables.h"
 #include "core/util/shown_text.h"
 #include "render/charts/calibration_chart.h"
-#include "render/charts/overlay_series.h"
 #include "ui/models/record_table_model.h"
 #include "ui/models/result_tables.h"
 #include "ui/views/chart_panel.h"
+#include "ui/views/level_calibration.h"
 #include "ui/views/result_table_view.h"
 
 namespace calivera::ui {
@@ -125,28 +125,13 @@ void SubgroupView::showLevel(int level) {
   }
   level_ = level;
   const SubgroupResult& r = a->levels[static_cast<std::size_t>(level)];
-  auto* chart = new charts::CalibrationChart(r.metrics->calibration, r.metrics->distribution);
-  chart->setTitle(QStringLiteral("%1 = %2: %3")
-                      .arg(QString::fromStdString(visibleName(a->column, 30)),
-                           QString::fromStdString(visibleName(r.level, 30)), chart->title()));
-  if (r.bootstrap) chart->setCurveBand(r.bootstrap->calibrationCurve);
-  // The other levels' smoothed curves, for comparison (each its own colour and dash pattern).
-  std::size_t overlays = 0;
-  for (std::size_t i = 0; i < a->levels.size() && overlays < charts::kComparisonStyles; ++i) {
-    const SubgroupResult& other = a->levels[i];
-    if (static_cast<int>(i) == level || !other.metrics) continue;
-    chart->addComparison(QString::fromStdString(visibleName(other.level, 40)),
-                         other.metrics->calibration);
-    ++overlays;
-  }
+  auto* chart = levelCalibrationChart(
+      a->levels, static_cast<std::size_t>(level),
+      QStringLiteral("%1 = %2").arg(QString::fromStdString(visibleName(a->column, 30)),
+                                    QString::fromStdString(visibleName(r.level, 30))));
   chart_->setLinkedChart(chart);
   if (snapshot_) chart->setThreshold(*snapshot_);
-  const QModelIndex index = proxy_->mapFromSource(model_->index(level, 0));
-  if (table_->selectionModel()->currentIndex().row() != index.row()) {
-    const QSignalBlocker block(table_->selectionModel());
-    table_->selectionModel()->setCurrentIndex(
-        index, QItemSelectionModel::ClearAndSelect | QItemSelectionModel::Rows);
-  }
+  selectSourceRow(table_, proxy_, level);
 }
 
 void SubgroupView::setThreshold(const ThresholdSnapshot& snapshot) {
