@@ -93,6 +93,7 @@ TEST_F(RunCommand, JsonEqualsValidateWithTheStudysOptions) {
   EXPECT_NE(line.find("--bootstrap 25 --seed 11"), std::string::npos) << line;
 }
 
+#ifdef CALIVERA_HAVE_PDF  // a build without the UI has no PDF writer
 // Net benefit across sites is pooled where the workstation pools it for the same study, whether or
 // not `run` also writes the report (whose own table rows are the study's report thresholds): the
 // PDF the workstation exports and the one `run --pdf` writes carry the same site numbers.
@@ -115,6 +116,7 @@ TEST_F(RunCommand, SitesArePooledAsInTheWorkstationWithOrWithoutTheReport) {
   for (const auto& row : a.at("clusters").at("net_benefit")) thresholds.push_back(row["threshold"]);
   EXPECT_EQ(thresholds, (std::vector<double>{0.05, 0.1, 0.2, 0.3, 0.5}));
 }
+#endif
 
 TEST_F(RunCommand, SummaryEndsWithTheReproduceLineThenTheCaution) {
   const StudyState study = testing::birthwtFileStudy(kBirthwt, model());

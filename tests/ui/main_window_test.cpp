@@ -1091,6 +1091,13 @@ class MainWindowTest : public QObject {
     QVERIFY(cal != nullptr);
     QVERIFY(cal->title().contains(QString::fromStdString(ref.sites->sites[1].name)));
     QCOMPARE(cal->comparisonCount(), ref.sites->validations.size() - 1);
+    // The site's own linked views: its ROC and decision curves beside its calibration.
+    auto* roc = dynamic_cast<charts::RocChart*>(view->rocPanel()->linkedChart());
+    auto* decision =
+        dynamic_cast<charts::DecisionCurveChart*>(view->decisionPanel()->linkedChart());
+    QVERIFY(roc != nullptr && decision != nullptr);
+    QVERIFY(roc->title().contains(QString::fromStdString(ref.sites->sites[1].name)));
+    QVERIFY(decision->title().contains(QString::fromStdString(ref.sites->sites[1].name)));
   }
 
   void screenshots() {

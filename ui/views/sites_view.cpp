@@ -15,6 +15,8 @@
 #include "core/report/site_tables.h"
 #include "core/util/shown_text.h"
 #include "render/charts/calibration_chart.h"
+#include "render/charts/decision_curve_chart.h"
+#include "render/charts/roc_chart.h"
 #include "ui/models/record_table_model.h"
 #include "ui/models/result_tables.h"
 #include "ui/views/chart_panel.h"
@@ -35,8 +37,9 @@ SitesView::SitesView(QWidget* parent) : QWidget(parent) {
   note_->setTextInteractionFlags(Qt::TextSelectableByMouse);
   layout->addWidget(note_);
 
-  // Two pages: the tables with the selected site's calibration, and the forest plots (two per
-  // row), so each has the whole width even on a 1366-pixel screen.
+  // Per-site and pooled results on pages of their own: each site with the selected site's linked
+  // views, then the pooled measures above their forest plots (two per row), so each has the whole
+  // width and the charts their height even on a 1366 x 768 screen.
   auto* pages = pages_ = new QTabWidget;
   pages->setObjectName(QStringLiteral("sitesPages"));
   auto* left = new QWidget;
@@ -50,18 +53,29 @@ SitesView::SitesView(QWidget* parent) : QWidget(parent) {
   pooledTable_ =
       makeResultTableView(QStringLiteral("sitesPooledTable"), pooledModel_, &pooledProxy_);
   chart_ = new ChartPanel(QStringLiteral("siteCalibrationView"));
+  roc_ = new ChartPanel(QStringLiteral("siteRocView"));
+  decision_ = new ChartPanel(QStringLiteral("siteDecisionCurveView"));
+  siteCharts_ = new QTabWidget;
+  siteCharts_->setObjectName(QStringLiteral("siteCharts"));
+  siteCharts_->setDocumentMode(true);
+  siteCharts_->addTab(chart_, tr("Calibration"));
+  siteCharts_->addTab(roc_, tr("ROC curve"));
+  siteCharts_->addTab(decision_, tr("Decision curve"));
   leftLayout->addWidget(sitesTable_);
-  leftLayout->addWidget(pooledTable_);
-  leftLayout->addWidget(chart_, 1);
-  pages->addTab(left, tr("Sites and pooled measures"));
+  leftLayout->addWidget(siteCharts_, 1);
+  pages->addTab(left, tr("Each site"));
 
+  auto* pooledPage = new QWidget;
+  auto* pooledLayout = new QVBoxLayout(pooledPage);
+  pooledLayout->addWidget(pooledTable_);
   auto* scroll = new QScrollArea;
   scroll->setObjectName(QStringLiteral("forestScroll"));
   scroll->setWidgetResizable(true);
   auto* forestHost = new QWidget;
   forests_ = new QGridLayout(forestHost);
   scroll->setWidget(forestHost);
-  pages->addTab(scroll, tr("Forest plots"));
+  pooledLayout->addWidget(scroll, 1);
+  pages->addTab(pooledPage, tr("Pooled measures and forest plots"));
   allCurves_ = new SiteCurvesWidget;
   pages->addTab(allCurves_, tr("Calibration by site"));
   netBenefitModel_ = new RecordTableModel(this);
@@ -75,7 +89,9 @@ SitesView::SitesView(QWidget* parent) : QWidget(parent) {
           [this](const QModelIndex& current) {
             if (current.isValid()) showSite(sitesProxy_->mapToSource(current).row());
           });
-  connect(chart_, &ChartPanel::thresholdPicked, this, &SitesView::thresholdPicked);
+  for (ChartPanel* panel : {chart_, roc_, decision_}) {
+    connect(panel, &ChartPanel::thresholdPicked, this, &SitesView::thresholdPicked);
+  }
   setResults(nullptr);
 }
 
@@ -99,7 +115,7 @@ void SitesView::setAnalysis(std::shared_ptr<const SiteAnalysis> analysis,
     sitesModel_->setTable({}, {}, {});
     pooledModel_->setTable({}, {}, {});
     netBenefitModel_->setTable({}, {}, {});
-    chart_->setLinkedChart(nullptr);
+    for (ChartPanel* panel : {chart_, roc_, decision_}) panel->setLinkedChart(nullptr);
     allCurves_->setPlot({});
     site_ = -1;
     note_->setText(emptyNote);
@@ -126,7 +142,7 @@ void SitesView::setAnalysis(std::shared_ptr<const SiteAnalysis> analysis,
   // Sites that sent summaries have no patient rows here, so no linked chart of their own: the
   // tables take the page, and a selected site is highlighted under "Calibration by site".
   const bool rows = !a.validations.empty();
-  chart_->setVisible(rows);
+  siteCharts_->setVisible(rows);
   const QString how = rows ? tr("Each site (column %1) validated on its own patients (%2 sites)")
                                  .arg(QString::fromStdString(visibleName(a.column, 60)))
                                  .arg(a.sites.size())
@@ -158,7 +174,7 @@ void SitesView::showSite(int index) {
   }
   if (!analysis_ || index < 0 || index >= static_cast<int>(analysis_->validations.size()) ||
       !analysis_->validations[static_cast<std::size_t>(index)].metrics) {
-    chart_->setLinkedChart(nullptr);
+    for (ChartPanel* panel : {chart_, roc_, decision_}) panel->setLinkedChart(nullptr);
     return;
   }
   site_ = index;
@@ -167,7 +183,18 @@ void SitesView::showSite(int index) {
       analysis_->validations, static_cast<std::size_t>(index),
       QStringLiteral("Site %1").arg(QString::fromStdString(visibleName(r.level, 30))));
   chart_->setLinkedChart(chart);
-  if (snapshot_) chart->setThreshold(*snapshot_);
+  const ValidationResult& m = *r.metrics;
+  roc_->setLinkedChart(new charts::RocChart(m.discrimination));
+  decision_->setLinkedChart(new charts::DecisionCurveChart(m.decisionCurve, m.cohort));
+  const QString site = QString::fromStdString(visibleName(r.level, 30));
+  for (ChartPanel* panel : {roc_, decision_}) {
+    panel->linkedChart()->setTitle(
+        QStringLiteral("Site %1: %2").arg(site, panel->linkedChart()->title()));
+  }
+  if (snapshot_) {
+    for (ChartPanel* panel : {chart_, roc_, decision_})
+      panel->linkedChart()->setThreshold(*snapshot_);
+  }
   selectRow(index);
 }
 
@@ -182,7 +209,9 @@ void SitesView::insertFirstPage(QWidget* page, const QString& title) {
 
 void SitesView::setThreshold(const ThresholdSnapshot& snapshot) {
   snapshot_ = snapshot;
-  if (chart_->linkedChart() != nullptr) chart_->linkedChart()->setThreshold(snapshot);
+  for (ChartPanel* panel : {chart_, roc_, decision_}) {
+    if (panel->linkedChart() != nullptr) panel->linkedChart()->setThreshold(snapshot);
+  }
 }
 
 }  // namespace calivera::ui

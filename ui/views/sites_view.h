@@ -1,12 +1,13 @@
 #pragma once
 // Validation across sites (core/sites/site_pooling.h): the workstation's Sites tab, when the study
 // names a site column, and the window of pooled site summaries (ui/site_summaries_window.h).
-// One page: each site validated alone and the pooled measures (tables), and, when the sites'
-// patients are here, the selected site's own linked calibration chart with the other sites'
-// curves overlaid. Another page: one forest plot per measure; a third: every site's calibration
-// curve on one set of axes, the selected site's highlighted (both the same drawings as the PDF
-// report); selecting a site in the table shows it in both;
-// a fourth: net benefit pooled across sites at the tabulated thresholds.
+// One page: each site validated alone (table) and, when the sites' patients are here, the
+// selected site's own linked views: its calibration with the other sites' curves overlaid, its
+// ROC curve and its decision curve, all at the study's threshold. Another page: the pooled
+// measures (table) and one forest plot per measure; a third: every site's calibration curve on one
+// set of axes, the selected site's highlighted (both the same drawings as the PDF report);
+// selecting a site in the table shows it in both; a fourth: net benefit pooled across sites at the
+// tabulated thresholds.
 
 #include <QWidget>
 #include <memory>
@@ -41,7 +42,9 @@ class SitesView : public QWidget {
   // Shows site `index` (row of the sites table) in the calibration chart.
   void showSite(int index);
   int currentSite() const { return site_; }
-  ChartPanel* chartPanel() const { return chart_; }
+  ChartPanel* chartPanel() const { return chart_; }  // the selected site's calibration
+  ChartPanel* rocPanel() const { return roc_; }
+  ChartPanel* decisionPanel() const { return decision_; }
   // A page of the caller's before the others (the summaries a pool read), shown first.
   void insertFirstPage(QWidget* page, const QString& title);
   SiteCurvesWidget* allSiteCurves() const { return allCurves_; }
@@ -62,6 +65,9 @@ class SitesView : public QWidget {
   QSortFilterProxyModel* pooledProxy_ = nullptr;
   QTableView* pooledTable_ = nullptr;
   ChartPanel* chart_ = nullptr;
+  ChartPanel* roc_ = nullptr;
+  ChartPanel* decision_ = nullptr;
+  QTabWidget* siteCharts_ = nullptr;  // the selected site's linked views
   SiteCurvesWidget* allCurves_ = nullptr;
   QGridLayout* forests_ = nullptr;
   QTabWidget* pages_ = nullptr;
