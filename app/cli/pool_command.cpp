@@ -167,11 +167,7 @@ int runPoolCommand(const std::vector<std::string>& words) {
               << tableText(pooledSitesTable(pooled.analysis), "  ")
               << "net benefit across sites (all patients' counts, and the random-effects mean):\n"
               << tableText(pooledNetBenefitTable(pooled.analysis), "  ")
-              << "all sites' patients together: n " << pooled.n << ", events " << pooled.events
-              << ", O/E " << formatNumber(pooled.overallOe, 3) << ", Brier "
-              << formatNumber(pooled.overallBrier, 4) << ", AUC from histograms "
-              << formatNumber(pooled.overallAuc.auc, 4) << " (exact value within +/- "
-              << formatNumber(pooled.overallAuc.errorBound, 4) << ")\n";
+              << pooledOverallText(pooled) << '\n';
     for (const std::string& w : pooled.warnings)
       std::cout << "warning: " << shownText(w, 400) << '\n';
     std::cout << "\nReproduce with:\n  "

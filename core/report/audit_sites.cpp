@@ -6,6 +6,7 @@
 #include "core/report/audit_blocks.h"
 #include "core/report/audit_format.h"
 #include "core/report/site_forest.h"
+#include "core/report/site_tables.h"
 #include "core/util/shown_text.h"
 
 namespace calivera {
@@ -192,13 +193,7 @@ AuditDocument buildPooledSitesDocument(const PooledSummaries& pooled, const std:
          reportName(f.summary.softwareVersion)});
   }
   blocks.push_back(reportTable(inputs));
-  blocks.push_back(reportParagraph(
-      "All sites' patients together: " + std::to_string(pooled.n) + " patients, " +
-      std::to_string(pooled.events) + " events; O/E " + formatNumber(pooled.overallOe, 3) +
-      ", Brier score " + formatNumber(pooled.overallBrier, 4) +
-      "; AUC from the sites' histograms " + formatNumber(pooled.overallAuc.auc, 4) +
-      ", the exact value lying within \u00b1" + formatNumber(pooled.overallAuc.errorBound, 4) +
-      " of it."));
+  blocks.push_back(reportParagraph(pooledOverallText(pooled)));
   for (const std::string& w : pooled.warnings)
     blocks.push_back(reportParagraph("- " + shownText(w, 600)));
   blocks.push_back(reportHeading("2  Results"));

@@ -4,6 +4,8 @@
 #include <filesystem>
 #include <limits>
 
+#include "core/present/number_text.h"
+
 namespace calivera {
 namespace {
 
@@ -164,6 +166,15 @@ ResultTable summaryInputsTable(const PooledSummaries& pooled) {
          TableValue::of(s.softwareVersion), TableValue::of(f.sha256)});
   }
   return t;
+}
+
+std::string pooledOverallText(const PooledSummaries& pooled) {
+  return "All sites' patients together: " + std::to_string(pooled.n) + " patients, " +
+         std::to_string(pooled.events) + " events; O/E " + formatNumber(pooled.overallOe, 3) +
+         "; Brier score " + formatNumber(pooled.overallBrier, 4) +
+         "; AUC from the sites' histograms " + formatNumber(pooled.overallAuc.auc, 4) +
+         ", the exact value lying within \u00b1" + formatNumber(pooled.overallAuc.errorBound, 4) +
+         " of it.";
 }
 
 }  // namespace calivera

@@ -16,6 +16,9 @@ ResultTable pooledNetBenefitTable(const SiteAnalysis& analysis);
 // What a pool of site summaries read: each summary's site, file, counts, suppression, software
 // and the SHA-256 of its bytes (site_inputs.csv).
 ResultTable summaryInputsTable(const PooledSummaries& pooled);
+// The one sentence on every site's patients together (counts, O/E, Brier, and the binned AUC with
+// its bound) that `pool`'s summary, its report and the workstation's window all show.
+std::string pooledOverallText(const PooledSummaries& pooled);
 
 // "QLD: no events; VIC: ..." for the sites a pool left out; empty when none.
 std::string exclusionText(const std::vector<SiteExclusion>& excluded);

@@ -7,6 +7,7 @@
 #include "ui/sites/site_summaries_window.h"
 
 #include <QFile>
+#include <QLabel>
 #include <QTabWidget>
 #include <QTableView>
 #include <QTemporaryDir>
@@ -91,6 +92,10 @@ class SiteSummariesWindowTest : public QObject {
       QCOMPARE(a.measures[m].pooled.pool->tau2, ref.analysis.measures[m].pooled.pool->tau2);
     }
     QCOMPARE(w.pooled()->overallAuc.auc, ref.overallAuc.auc);
+    // The same sentence as `calivera pool` prints and its report carries.
+    QVERIFY(w.findChild<QLabel*>("summaryOverall")
+                ->text()
+                .startsWith(QString::fromStdString(pooledOverallText(ref))));
     QCOMPARE(w.findChild<QTableView*>("summaryInputsTable")->model()->rowCount(), 4);
     QCOMPARE(w.findChild<QTableView*>("sitesTable")->model()->rowCount(),
              static_cast<int>(sitesTable(ref.analysis).rows.size()));

@@ -15,7 +15,6 @@
 #include <QToolBar>
 #include <QVBoxLayout>
 
-#include "core/present/number_text.h"
 #include "core/report/audit_sites.h"
 #include "core/report/csv_text.h"
 #include "core/report/site_tables.h"
@@ -207,15 +206,7 @@ void SiteSummariesWindow::showPooled() {
   }
   const PooledSummaries& p = *pooled_;
   showResultTable(*inputsModel_, summaryInputsTable(p));
-  QString overall =
-      tr("All sites' patients together: %1 patients, %2 events; O/E %3; Brier score %4; AUC "
-         "from the sites' histograms %5, the exact value within ±%6 of it.")
-          .arg(p.n)
-          .arg(p.events)
-          .arg(QString::fromStdString(formatNumber(p.overallOe, 3)))
-          .arg(QString::fromStdString(formatNumber(p.overallBrier, 4)))
-          .arg(QString::fromStdString(formatNumber(p.overallAuc.auc, 4)))
-          .arg(QString::fromStdString(formatNumber(p.overallAuc.errorBound, 4)));
+  QString overall = QString::fromStdString(pooledOverallText(p));
   for (const std::string& w : p.warnings) {
     overall +=
         QStringLiteral("\n") + tr("Warning: %1").arg(QString::fromStdString(shownText(w, 400)));
