@@ -11,6 +11,7 @@
 #include "core/util/errors.h"
 #include "core/util/input_file.h"
 #include "core/util/number_format.h"
+#include "core/util/sha256.h"
 #include "core/util/strict_json.h"
 
 namespace calivera {
@@ -275,8 +276,7 @@ DevelopmentRecord readDevelopment(const Json& object, const Context& file) {
   }
   const auto digest = [&](const char* field) {
     std::optional<std::string> hex = optionalString(object, field, context);
-    if (hex &&
-        (hex->size() != 64 || hex->find_first_not_of("0123456789abcdef") != std::string::npos)) {
+    if (hex && !isSha256Hex(*hex)) {
       context.fail(std::string("field '") + field + "' must be 64 lowercase hex digits");
     }
     return hex;

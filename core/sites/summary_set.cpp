@@ -16,14 +16,6 @@ namespace {
 
 namespace fs = std::filesystem;
 
-bool isSha256Hex(const std::string& s) {
-  if (s.size() != 64) return false;
-  for (const char c : s) {
-    if (!((c >= '0' && c <= '9') || (c >= 'a' && c <= 'f'))) return false;
-  }
-  return true;
-}
-
 // `path` as written in a set saved in `folder`: relative when inside it.
 std::string storedPath(const std::string& path, const fs::path& folder) {
   std::error_code error;

@@ -42,6 +42,10 @@ std::string finish(EVP_MD_CTX* context) {
 
 }  // namespace
 
+bool isSha256Hex(std::string_view text) {
+  return text.size() == 64 && text.find_first_not_of("0123456789abcdef") == std::string_view::npos;
+}
+
 std::string sha256OfBytes(std::string_view bytes) {
   DigestContext context = newContext();
   EVP_DigestUpdate(context.get(), bytes.data(), bytes.size());

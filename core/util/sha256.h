@@ -11,6 +11,8 @@ namespace calivera {
 // Lowercase hex digest. Throws InputError naming the path when the file cannot be read.
 std::string sha256OfFile(const std::string& path);
 std::string sha256OfBytes(std::string_view bytes);
+// True for a digest as these functions write it: 64 lowercase hex digits.
+bool isSha256Hex(std::string_view text);
 
 // sha256OfFile on a thread of its own, so a file is hashed while it is parsed (issue 13: both
 // read the same bytes, and hashing is one serial pass). The thread's OpenSSL state is released

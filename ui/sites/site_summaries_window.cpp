@@ -138,14 +138,14 @@ bool SiteSummariesWindow::openSet(const QString& path) {
 }
 
 bool SiteSummariesWindow::addSummaries(const QStringList& paths) {
-  std::vector<SummarySetEntry> entries = entries_;
+  std::vector<SummarySetEntry> entries = this->entries();
   for (const QString& p : paths) entries.push_back({utf8(p), ""});
   return pool(std::move(entries), std::nullopt);
 }
 
 bool SiteSummariesWindow::removeSite(int row) {
-  if (row < 0 || row >= static_cast<int>(entries_.size())) return false;
-  std::vector<SummarySetEntry> entries = entries_;
+  std::vector<SummarySetEntry> entries = this->entries();
+  if (row < 0 || row >= static_cast<int>(entries.size())) return false;
   entries.erase(entries.begin() + row);
   return pool(std::move(entries), std::nullopt);
 }
@@ -175,8 +175,6 @@ bool SiteSummariesWindow::pool(std::vector<SummarySetEntry> entries,
       },
       [this, setPath](PoolOutcome& out) {
         pooled_ = out.pooled;
-        entries_.clear();
-        for (const SummaryFile& f : pooled_->inputs) entries_.push_back({f.path, f.sha256});
         if (out.set) {
           thresholds_ = out.set->netBenefitThresholds;
           title_ = out.set->title;
@@ -191,6 +189,14 @@ bool SiteSummariesWindow::pool(std::vector<SummarySetEntry> entries,
       });
   if (!started) showMessage(tr("Wait for the running task to finish, or cancel it."), true);
   return started;
+}
+
+std::vector<SummarySetEntry> SiteSummariesWindow::entries() const {
+  std::vector<SummarySetEntry> out;
+  if (pooled_) {
+    for (const SummaryFile& f : pooled_->inputs) out.push_back({f.path, f.sha256});
+  }
+  return out;
 }
 
 void SiteSummariesWindow::showPooled() {
@@ -222,7 +228,7 @@ void SiteSummariesWindow::showPooled() {
 QString SiteSummariesWindow::saveSet(const QString& path) {
   if (!pooled_) return tr("Nothing to save: pool two or more site summaries first.");
   SummarySet set;
-  set.summaries = entries_;
+  set.summaries = entries();
   set.netBenefitThresholds = thresholds_;
   set.title = title_;
   try {
@@ -279,7 +285,7 @@ QString SiteSummariesWindow::reproduceLine() const {
       setPath_ && !modified_ ? std::optional<std::string>(utf8(*setPath_)) : std::nullopt;
   std::vector<std::string> paths;
   if (!set) {
-    for (const SummarySetEntry& e : entries_) paths.push_back(e.path);
+    for (const SummarySetEntry& e : entries()) paths.push_back(e.path);
   }
   return QString::fromStdString(
       commandLine("pool", poolCommandWords(set, paths, set ? std::vector<double>{} : thresholds_)));
@@ -303,7 +309,7 @@ void SiteSummariesWindow::updateActions() {
   reportAction_->setEnabled(idle && have);
   tablesAction_->setEnabled(idle && have);
   copyLineAction_->setEnabled(have);
-  removeAction_->setEnabled(idle && have && entries_.size() > 2 &&
+  removeAction_->setEnabled(idle && have && pooled_->inputs.size() > 2 &&
                             inputsTable_->selectionModel()->currentIndex().isValid());
 }
 

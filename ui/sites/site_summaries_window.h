@@ -63,6 +63,8 @@ class SiteSummariesWindow : public QMainWindow {
   // window changes only when that succeeds.
   bool pool(std::vector<SummarySetEntry> entries, std::optional<QString> setPath);
   void showPooled();
+  // The summaries shown, each with the SHA-256 it had when pooled (none before a pool).
+  std::vector<SummarySetEntry> entries() const;
   void showMessage(const QString& text, bool error);
   void updateActions();
   void onAdd();
@@ -74,7 +76,6 @@ class SiteSummariesWindow : public QMainWindow {
 
   BackgroundJob* job_ = nullptr;
   std::shared_ptr<const PooledSummaries> pooled_;
-  std::vector<SummarySetEntry> entries_;  // with the SHA-256 each had when pooled
   std::vector<double> thresholds_;
   std::string title_;
   std::optional<QString> setPath_;
