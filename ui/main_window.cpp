@@ -256,7 +256,7 @@ void MainWindow::buildMenus() {
   add(file, QStringLiteral("actionCloseStudy"), tr("&Close study"),
       QKeySequence(Qt::CTRL | Qt::Key_W), &MainWindow::onNewStudy);
   file->addSeparator();
-  actionImport_ = add(file, QStringLiteral("actionImportCohort"), tr("&Import cohort CSV…"),
+  actionImport_ = add(file, QStringLiteral("actionImportCohort"), tr("&Import cohort…"),
                       QKeySequence(Qt::CTRL | Qt::Key_I), &MainWindow::onImportCohort);
   add(file, QStringLiteral("actionOpenSiteSummaries"), tr("Pool site s&ummaries…"), QKeySequence(),
       &MainWindow::onOpenSiteSummaries);

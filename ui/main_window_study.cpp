@@ -26,6 +26,7 @@
 #include <filesystem>
 #include <set>
 
+#include "core/data/package_file_reader.h"
 #include "core/model/model_io.h"
 #include "core/report/audit_report.h"
 #include "core/study/study_file.h"
@@ -235,7 +236,7 @@ void MainWindow::updateStatus() {
                  .arg(controller_->table() ? controller_->table()->rowCount : 0);
     full << tr("Cohort: %1").arg(name(study().data->path, 4096));
   } else {
-    parts << tr("No cohort: File → Import cohort CSV");
+    parts << tr("No cohort: File → Import cohort");
   }
   if (study().model) {
     parts << tr("Model: %1").arg(name(study().model->name, 50));
@@ -328,8 +329,9 @@ DroppedKind droppedKind(const QString& path) {
   if (suffix == QLatin1String("cvsummary") || suffix == QLatin1String("cvsites")) {
     return DroppedKind::SiteSummaries;
   }
+  PackageFormat package{};
   if (suffix == QLatin1String("csv") || suffix == QLatin1String("tsv") ||
-      suffix == QLatin1String("txt")) {
+      suffix == QLatin1String("txt") || packageFormatOf(path.toStdString(), package)) {
     return DroppedKind::Cohort;
   }
   if (suffix != QLatin1String("json")) return DroppedKind::Unknown;
@@ -357,7 +359,8 @@ bool MainWindow::openDroppedFile(const QString& path) {
       break;
   }
   showMessage(tr("Not opened: %1. Drop a study (.cvstudy), a model file (.json), a cohort "
-                 "(.csv, .tsv, .txt) or site summaries (.cvsummary, .cvsites).")
+                 "(.csv, .tsv, .txt, .sas7bdat, .dta, .sav, .zsav) or site summaries (.cvsummary, "
+                 ".cvsites).")
                   .arg(QFileInfo(path).fileName()),
               true);
   return false;

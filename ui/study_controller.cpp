@@ -195,7 +195,7 @@ bool StudyController::openInputs(const QString& data, const QString& model,
 
 bool StudyController::loadModelFile(const QString& path) {
   if (!study_.data) {
-    emit message(tr("Import a cohort first (File → Import cohort CSV), then load the model."),
+    emit message(tr("Import a cohort first (File → Import cohort), then load the model."),
                  true);
     return false;
   }
@@ -259,7 +259,7 @@ bool StudyController::setColumnMapping(
 
 bool StudyController::runValidation() {
   if (!study_.data) {
-    emit message(tr("Import a cohort first (File → Import cohort CSV)."), true);
+    emit message(tr("Import a cohort first (File → Import cohort)."), true);
     return false;
   }
   PipelineRequest request;

@@ -8,6 +8,7 @@
 #include <utility>
 
 #include "app/cli/arguments.h"
+#include "core/data/cohort_file.h"
 #include "core/data/csv_reader.h"
 #include "core/fit/cohort_fit.h"
 #include "core/model/model_io.h"
@@ -28,7 +29,8 @@ constexpr const char* kUsage =
     "unless --reference names one). Rows missing the outcome or any predictor are excluded and\n"
     "counted per column.\n\n"
     "options:\n"
-    "  --data FILE            cohort CSV (header row; comma, semicolon or tab)\n"
+    "  --data FILE            cohort CSV (header row; comma, semicolon or tab), or a SAS\n"
+    "                         .sas7bdat, Stata .dta or SPSS .sav/.zsav file\n"
     "  --outcome COLUMN       0/1 outcome column (or any two values with --event-value)\n"
     "  --event-value VALUE    the outcome value that means an event\n"
     "  --predictors LIST      comma-separated predictor columns\n"
@@ -41,7 +43,7 @@ constexpr const char* kUsage =
     "                         about 50 constrained fits per coefficient)\n"
     "  --max-iterations N     Newton-Raphson iteration limit (default 100)\n"
     "  --name TEXT            model name stored in the file\n"
-    "  --delimiter C          ',', ';' or 'tab' (default: detected from the header)\n"
+    "  --delimiter C          CSV only: ',', ';' or 'tab' (default: detected from the header)\n"
     "  --missing TOKEN        an extra field value that means missing (repeatable; '' and NA\n"
     "                         always do)\n"
     "  --out FILE             model file to write (JSON, format calivera-model/1)\n"
@@ -198,7 +200,7 @@ int runFitCommand(const std::vector<std::string>& words) {
   csv.onlyColumns.push_back(fitSpec.outcome.column);
 
   std::future<std::string> hash = sha256OfFileInBackground(dataPath);
-  CsvReadResult read = readCsvFile(dataPath, csv);
+  CohortFileRead read = readCohortFile(dataPath, csv);
   const std::string dataSha256 = hash.get();
   markStage("cohort parsed and hashed");
   CohortFit result = fitCohortModel(std::move(read.table), fitSpec);

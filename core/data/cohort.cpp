@@ -18,7 +18,7 @@ std::string formatNumber(double value) {
 }
 
 std::string where(const Table& table, std::size_t row) {
-  return table.sourceName + ":" + std::to_string(table.lineOfRow(row)) + ": ";
+  return table.placeOfRow(row) + ": ";
 }
 
 // One distinct outcome value as found in the column, for checks and messages.
@@ -61,8 +61,8 @@ std::string listValues(const Table& table, const std::vector<DistinctValue>& val
   for (std::size_t i = 0; i < values.size() && i < kShown; ++i) {
     list += i == 0 ? "" : ", ";
     list += "'" + shownText(values[i].text) + "' (" + std::to_string(values[i].rows) +
-            (values[i].rows == 1 ? " row" : " rows") + ", first on line " +
-            std::to_string(table.lineOfRow(values[i].firstRow)) + ")";
+            (values[i].rows == 1 ? " row" : " rows") + ", first on " +
+            table.rowName(values[i].firstRow) + ")";
   }
   if (values.size() > kShown) list += ", ... (" + std::to_string(values.size()) + " in all)";
   return list;
@@ -74,6 +74,18 @@ std::vector<std::int8_t> eventIndicator(const Table& table, const Column& column
   std::vector<std::int8_t> event(table.rowCount, -1);
   const std::string columnText = "column '" + shownText(column.name) + "': ";
   if (!spec.eventValue) {
+    if (column.kind == ColumnKind::Text && !column.firstNonNumeric) {
+      // A statistical-package file's string or labelled variable: name its categories.
+      std::string levels;
+      for (std::size_t i = 0; i < column.levels.size() && i < 5; ++i) {
+        levels += (i == 0 ? "'" : ", '") + shownText(column.levels[i]) + "'";
+        if (!column.levelCodes.empty()) levels += " = " + column.levelCodes[i];
+      }
+      throw InputError(table.sourceName + ": " + columnText + "the outcome " +
+                       column.nonNumericNote + ": " + levels +
+                       (column.levels.size() > 5 ? ", ..." : "") +
+                       "; give the category that means an event");
+    }
     if (column.kind == ColumnKind::Text) {
       const FieldLocation& first = *column.firstNonNumeric;
       throw InputError(table.sourceName + ":" + std::to_string(first.line) + ": " + columnText +
@@ -104,6 +116,19 @@ std::vector<std::int8_t> eventIndicator(const Table& table, const Column& column
             ? values[i].text == wanted
             : numericEvent && csv::parseNumber(values[i].text, number) && number == eventNumber;
     if (same) eventIndex = i;
+  }
+  // A value-labelled column of a statistical-package file also takes the event as its stored
+  // code ("1" for the label "Yes"), when no label is spelled so.
+  if (eventIndex == values.size() && numericEvent && !column.levelCodes.empty()) {
+    for (std::size_t i = 0; i < values.size(); ++i) {
+      const auto level = std::find(column.levels.begin(), column.levels.end(), values[i].text);
+      double code = 0.0;
+      if (level != column.levels.end() &&
+          csv::parseNumber(column.levelCodes[std::size_t(level - column.levels.begin())], code) &&
+          code == eventNumber) {
+        eventIndex = i;
+      }
+    }
   }
   if (values.size() != 2 || eventIndex == values.size()) {
     const std::string problem =

@@ -13,6 +13,13 @@ const Column* Table::find(std::string_view name) const {
   return nullptr;
 }
 
+const RefusedColumn* Table::findRefused(std::string_view name) const {
+  for (const RefusedColumn& refused : refusedColumns) {
+    if (refused.name == name) return &refused;
+  }
+  return nullptr;
+}
+
 std::vector<std::string> Table::fileColumnNames() const {
   if (!headerNames.empty()) return headerNames;
   std::vector<std::string> names;
@@ -21,8 +28,22 @@ std::vector<std::string> Table::fileColumnNames() const {
   return names;
 }
 
+std::string Table::placeOfRow(std::size_t row) const {
+  return rowsAreRecords ? sourceName + ", record " + std::to_string(row + 1)
+                        : sourceName + ":" + std::to_string(lineOfRow(row));
+}
+
+std::string Table::rowName(std::size_t row) const {
+  return rowsAreRecords ? "record " + std::to_string(row + 1)
+                        : "line " + std::to_string(lineOfRow(row));
+}
+
 const Column& Table::require(std::string_view name) const {
   if (const Column* column = find(name)) return *column;
+  if (const RefusedColumn* refused = findRefused(name)) {
+    throw InputError(sourceName + ": column '" + shownText(refused->name) +
+                     "' cannot be analysed: " + refused->reason);
+  }
   std::string available;
   for (const std::string& header : fileColumnNames()) {
     // A column of the file the reader was told to skip: the analysis asked for a column its own
@@ -41,6 +62,10 @@ const Column& Table::require(std::string_view name) const {
 
 const Column& Table::requireNumeric(std::string_view name) const {
   const Column& column = require(name);
+  if (column.kind == ColumnKind::Text && !column.nonNumericNote.empty()) {
+    throw InputError(sourceName + ": column '" + shownText(column.name) + "' " +
+                     column.nonNumericNote + ", not numbers");
+  }
   if (column.kind == ColumnKind::Text) {
     const std::size_t line = column.firstNonNumeric ? column.firstNonNumeric->line : 0;
     const std::string text = column.firstNonNumeric ? column.firstNonNumeric->text : "";

@@ -28,14 +28,30 @@ struct Column {
   std::vector<std::string> levels;  // Text: distinct levels in sorted (byte) order
   std::size_t missingCount = 0;
   std::optional<FieldLocation> firstNonNumeric;  // Text columns: where numeric parsing failed
+  // Text columns of statistical-package files: why the column is not numeric ("is a string
+  // variable in the Stata file"), used instead of firstNonNumeric in messages.
+  std::string nonNumericNote;
+  // Value-labelled columns of statistical-package files: each level's stored code ("1"), in
+  // the order of `levels`; empty for CSV columns.
+  std::vector<std::string> levelCodes;
 
   bool isMissing(std::size_t row) const {
     return kind == ColumnKind::Numeric ? numbers[row] != numbers[row] : codes[row] < 0;
   }
 };
 
+// A column of the file that no analysis may use, with the reason (a date variable of a
+// statistical-package file); Table::require names the reason.
+struct RefusedColumn {
+  std::string name;
+  std::string reason;  // completes "column 'NAME' cannot be analysed: ...", e.g. "it holds dates"
+};
+
 struct Table {
   std::string sourceName;  // the file path, used in every message about this table
+  // False for CSV (rows are named by their line in the file); true for statistical-package
+  // files, whose rows are named by their 1-based record number.
+  bool rowsAreRecords = false;
   std::vector<Column> columns;
   std::size_t rowCount = 0;
   // Physical line on which each record starts. Empty when no record spans several lines, in
@@ -46,14 +62,23 @@ struct Table {
   // (CsvOptions::onlyColumns); empty when `columns` holds them all.
   std::vector<std::string> headerNames;
 
+  std::vector<RefusedColumn> refusedColumns;
+
   // The file's column names: headerNames, or the names of `columns`.
   std::vector<std::string> fileColumnNames() const;
 
   std::size_t lineOfRow(std::size_t row) const {
     return recordLines.empty() ? row + 2 : recordLines[row];
   }
+  // Where a row is, for messages: "FILE:LINE" for CSV, "FILE, record N" otherwise.
+  std::string placeOfRow(std::size_t row) const;
+  // The row's name without the file: "line LINE" or "record N".
+  std::string rowName(std::size_t row) const;
   const Column* find(std::string_view name) const;
-  // Throws InputError naming the file and listing the available columns.
+  // The refusal of a column that is in the file but no analysis may use; nullptr otherwise.
+  const RefusedColumn* findRefused(std::string_view name) const;
+  // Throws InputError naming the file and listing the available columns, or giving the reason
+  // a refused column cannot be used.
   const Column& require(std::string_view name) const;
   // Throws InputError naming file, line, column and text when the column is not numeric.
   const Column& requireNumeric(std::string_view name) const;

@@ -40,8 +40,8 @@ std::vector<double> riskFromColumn(const Table& table, const std::string& name,
     if (!(p >= 0.0 && p <= 1.0)) {
       std::ostringstream message;
       message.precision(10);
-      message << table.sourceName << ":" << table.lineOfRow(rows[i]) << ": column " << name
-              << ": risk " << p << " lies outside [0, 1]";
+      message << table.placeOfRow(rows[i]) << ": column " << name << ": risk " << p
+              << " lies outside [0, 1]";
       throw InputError(message.str());
     }
     risk[i] = p;
@@ -216,7 +216,7 @@ std::vector<std::string> analysisColumns(const ValidationRequest& request,
 
 ValidationRun runValidation(const ValidationRequest& request) {
   std::future<std::string> hash = sha256OfFileInBackground(request.dataPath);
-  CsvReadResult read = readCsvFile(request.dataPath, request.csv);
+  CohortFileRead read = readCohortFile(request.dataPath, request.csv);
   markStage("cohort parsed");
   std::string sha = hash.get();
   markStage("cohort hashed");

@@ -22,6 +22,7 @@
 #include <vector>
 
 #include "core/data/cohort.h"
+#include "core/data/cohort_file.h"
 #include "core/data/csv_reader.h"
 #include "core/data/table.h"
 #include "core/metrics/validation.h"

@@ -15,6 +15,7 @@
 #include "core/data/column_hints.h"
 #include "core/model/category_levels.h"
 #include "core/util/errors.h"
+#include "core/util/shown_text.h"
 
 namespace calivera {
 
@@ -70,6 +71,10 @@ std::string missingColumnMessage(const Model& model, const Table& table, const s
   const std::string mapped = name == variable ? "" : " (mapped from '" + variable + "')";
   const std::string modelText =
       model.sourcePath.empty() ? "model '" + model.name + "'" : "model file " + model.sourcePath;
+  if (const RefusedColumn* refused = table.findRefused(name)) {
+    return table.sourceName + ": " + modelText + ", term '" + label + "' needs column '" +
+           shownText(name) + "'" + mapped + ", which cannot be analysed: " + refused->reason;
+  }
   // Why it is missing decides the remedy: a near name (case, a typo) or another delimiter is
   // named; otherwise the user pairs the variable with the cohort's own column.
   return table.sourceName + ": " + modelText + ", term '" + label + "' needs column '" + name +
@@ -188,8 +193,8 @@ class BoundTerm {
   }
 
   [[noreturn]] void fail(std::size_t row, const std::string& what) const {
-    throw InputError(table_.sourceName + ":" + std::to_string(table_.lineOfRow(row)) +
-                     ": column '" + column_->name + "' " + what + " (term '" + label() + "')");
+    throw InputError(table_.placeOfRow(row) + ": column '" + column_->name + "' " + what +
+                     " (term '" + label() + "')");
   }
 
   const Model& model_;

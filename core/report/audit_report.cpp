@@ -7,6 +7,7 @@
 #include <ctime>
 #include <string_view>
 
+#include "core/data/cohort_file.h"
 #include "core/metrics/size_warnings.h"
 #include "core/present/caution.h"
 #include "core/present/measures.h"
@@ -110,6 +111,7 @@ void addIdentification(const AuditReportInput& input, const DisclosurePlan& plan
   blocks.push_back(reportHeading("1  What was validated"));
   ReportTable cohort = keyValueTable(std::string(kTablePrefix) + "Cohort file");
   cohort.rows.push_back({"File name", fileNameOnly(input.cohortFile.name)});
+  cohort.rows.push_back({"Format", cohortFileFormat(input.cohortFile.name)});
   cohort.rows.push_back({"SHA-256", input.cohortFile.sha256});
   if (!input.analysedSha256.empty()) {
     cohort.rows.push_back({"Analysed-data fingerprint", input.analysedSha256});

@@ -2,6 +2,7 @@
 
 #include <cmath>
 
+#include "core/data/cohort_file.h"
 #include "core/metrics/json_values.h"
 
 namespace calivera {
@@ -127,9 +128,11 @@ json inputsJson(const ValidationRun& run) {
   const ValidationRequest& r = run.request;
   json model = nullptr;
   if (r.modelPath) model = {{"file", *r.modelPath}, {"sha256", run.modelSha256}};
-  json data = {{"file", r.dataPath}, {"sha256", run.dataSha256}};
+  json data = {
+      {"file", r.dataPath}, {"format", cohortFileFormat(r.dataPath)}, {"sha256", run.dataSha256}};
   if (!run.analysedSha256.empty()) data["analysed_data_sha256"] = run.analysedSha256;
-  return {{"data", data},
+  return {{"source", "file"},
+          {"data", data},
           {"model", model},
           {"risk_column", r.riskColumn ? json(*r.riskColumn) : json(nullptr)}};
 }

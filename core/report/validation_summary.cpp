@@ -6,6 +6,7 @@
 #include <iterator>
 #include <sstream>
 
+#include "core/data/cohort_file.h"
 #include "core/present/measures.h"
 #include "core/present/number_text.h"
 #include "core/report/audit_run.h"
@@ -34,7 +35,8 @@ std::string validationSummaryText(const ValidationRun& run, const std::string& b
   const Calibration& c = r.calibration;
   std::ostringstream out;
   out << "Calivera " << run.softwareVersion << " - validation of " << run.modelName << "\n\n";
-  out << "Cohort file   " << run.request.dataPath << "\n  SHA-256     " << run.dataSha256 << "\n";
+  out << "Cohort file   " << run.request.dataPath << " (" << cohortFileFormat(run.request.dataPath)
+      << ")\n  SHA-256     " << run.dataSha256 << "\n";
   if (!run.analysedSha256.empty()) out << "  analysed    " << run.analysedSha256 << "\n";
   if (run.request.modelPath) {
     out << "Model file    " << *run.request.modelPath << "\n  SHA-256     " << run.modelSha256

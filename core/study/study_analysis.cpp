@@ -46,7 +46,7 @@ CsvOptions csvOptionsFor(const ImportSettings& settings) {
 LoadedTable loadCohortFile(const std::string& path, const ImportSettings& settings) {
   LoadedTable loaded;
   std::future<std::string> hash = sha256OfFileInBackground(path);  // while the file is parsed
-  CsvReadResult read = readCsvFile(path, csvOptionsFor(settings));
+  CohortFileRead read = readCohortFile(path, csvOptionsFor(settings));
   loaded.delimiter = read.delimiter;
   loaded.table = std::make_shared<const Table>(std::move(read.table));
   loaded.record.path = std::filesystem::absolute(path).string();

@@ -9,6 +9,7 @@
 #include <string>
 #include <vector>
 
+#include "core/data/cohort_file.h"
 #include "core/data/csv_reader.h"
 #include "core/data/table.h"
 #include "core/fit/logistic_fit.h"

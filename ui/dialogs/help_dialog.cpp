@@ -45,7 +45,8 @@ QString helpGuideHtml() {
       "(calibration), and what acting on it at a threshold would mean (clinical utility). Every "
       "number on screen can be repeated by one command line (Analysis → Reproduce on the command "
       "line).</p>"
-      "<p><b>Start:</b> File → Import cohort CSV, choose the outcome column, then Model → Load "
+      "<p><b>Start:</b> File → Import cohort (CSV, or a SAS, Stata or SPSS file), choose the "
+      "outcome column, then Model → Load "
       "model file (or Fit a model on this cohort). The validation runs at once; change the "
       "threshold with the bar above the views, the arrow keys, or a click on a chart.</p>"
       "<h3>Views</h3><table cellspacing='6'>");

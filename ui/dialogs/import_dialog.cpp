@@ -18,6 +18,7 @@
 
 #include "core/data/cohort.h"
 #include "core/data/csv_reader.h"
+#include "core/data/package_file_reader.h"
 #include "core/study/study_analysis.h"
 #include "ui/async/background_job.h"
 
@@ -30,15 +31,32 @@ const char* const kZeroOne = "(column holds 0 and 1)";
 
 QString levelText(const Column& c, std::size_t row) {
   if (c.isMissing(row)) return QStringLiteral("·missing·");
-  if (c.kind == ColumnKind::Text) return QString::fromStdString(c.levels[c.codes[row]]);
+  if (c.kind == ColumnKind::Text) {
+    const auto level = static_cast<std::size_t>(c.codes[row]);
+    const QString label = QString::fromStdString(c.levels[level]);
+    // A value label is shown with the code stored in the file.
+    return c.levelCodes.empty()
+               ? label
+               : QStringLiteral("%1 = %2").arg(label, QString::fromStdString(c.levelCodes[level]));
+  }
   return QString::number(c.numbers[row], 'g', 10);
+}
+
+QString kindText(const Column& c) {
+  if (c.kind == ColumnKind::Numeric) return ImportDialog::tr("number");
+  return c.levelCodes.empty() ? ImportDialog::tr("text") : ImportDialog::tr("labelled categories");
+}
+
+bool isPackageFile(const QString& path) {
+  PackageFormat format{};
+  return packageFormatOf(path.toStdString(), format);
 }
 
 }  // namespace
 
 ImportDialog::ImportDialog(QWidget* parent) : QDialog(parent) {
   setObjectName(QStringLiteral("importDialog"));
-  setWindowTitle(tr("Import cohort CSV"));
+  setWindowTitle(tr("Import cohort"));
   job_ = new BackgroundJob(this);
   auto* layout = new QVBoxLayout(this);
   auto* form = new QFormLayout;
@@ -50,7 +68,10 @@ ImportDialog::ImportDialog(QWidget* parent) : QDialog(parent) {
   browse->setObjectName(QStringLiteral("importBrowse"));
   pathRow->addWidget(path_, 1);
   pathRow->addWidget(browse);
-  form->addRow(tr("&File:"), pathRow);
+  // A row holding a layout gets no buddy of its own: without one the '&' would show literally.
+  auto* fileLabel = new QLabel(tr("&File:"));
+  fileLabel->setBuddy(path_);
+  form->addRow(fileLabel, pathRow);
 
   delimiter_ = new QComboBox;
   delimiter_->setObjectName(QStringLiteral("importDelimiter"));
@@ -74,6 +95,7 @@ ImportDialog::ImportDialog(QWidget* parent) : QDialog(parent) {
   layout->addLayout(form);
 
   previewNote_ = new QLabel;
+  previewNote_->setTextFormat(Qt::PlainText);  // names and messages from the file, shown as is
   previewNote_->setObjectName(QStringLiteral("importPreviewNote"));
   previewNote_->setWordWrap(true);
   layout->addWidget(previewNote_);
@@ -108,7 +130,10 @@ ImportDialog::ImportDialog(QWidget* parent) : QDialog(parent) {
 
   connect(browse, &QPushButton::clicked, this, [this]() {
     const QString p = QFileDialog::getOpenFileName(
-        this, tr("Cohort CSV"), path_->text(), tr("CSV files (*.csv *.tsv *.txt);;All files (*)"));
+        this, tr("Cohort file"), path_->text(),
+        tr("Cohort files (*.csv *.tsv *.txt *.sas7bdat *.dta *.sav *.zsav);;"
+           "CSV files (*.csv *.tsv *.txt);;SAS, Stata and SPSS files (*.sas7bdat *.dta *.sav "
+           "*.zsav);;All files (*)"));
     if (!p.isEmpty()) setPath(p);
   });
   connect(path_, &QLineEdit::editingFinished, this, &ImportDialog::refresh);
@@ -163,7 +188,9 @@ QString ImportDialog::path() const {
 
 ImportSettings ImportDialog::settings() const {
   ImportSettings s;
-  s.delimiter = static_cast<char>(delimiter_->currentData().toInt());
+  // A statistical-package file has no delimiter.
+  s.delimiter =
+      isPackageFile(path()) ? char(0) : static_cast<char>(delimiter_->currentData().toInt());
   s.missingTokens.clear();
   if (emptyIsMissing_->isChecked()) s.missingTokens.emplace_back();
   for (const QString& t : missingTokens_->text().split(',', Qt::SkipEmptyParts)) {
@@ -188,7 +215,15 @@ void ImportDialog::refreshPreview() {
   preview_->setRowCount(0);
   preview_->setColumnCount(0);
   if (path().isEmpty()) {
-    previewNote_->setText(tr("Choose a CSV file with one row per patient and a header row."));
+    previewNote_->setText(
+        tr("Choose a cohort file with one row per patient: CSV with a header "
+           "row, or a SAS (.sas7bdat), Stata (.dta) or SPSS (.sav, .zsav) "
+           "file."));
+    return;
+  }
+  delimiter_->setEnabled(!isPackageFile(path()));
+  if (isPackageFile(path())) {
+    refreshPackagePreview();
     return;
   }
   QFile file(path());
@@ -207,9 +242,7 @@ void ImportDialog::refreshPreview() {
     preview_->setRowCount(rows);
     QStringList headers;
     for (const Column& c : t.columns) {
-      headers << QStringLiteral("%1\n(%2)")
-                     .arg(QString::fromStdString(c.name),
-                          c.kind == ColumnKind::Numeric ? tr("number") : tr("text"));
+      headers << QStringLiteral("%1\n(%2)").arg(QString::fromStdString(c.name), kindText(c));
     }
     preview_->setHorizontalHeaderLabels(headers);
     for (int row = 0; row < rows; ++row) {
@@ -223,6 +256,59 @@ void ImportDialog::refreshPreview() {
                              "rows; the full read below decides.")
                               .arg(rows)
                               .arg(delim, r.delimiterDetected ? tr(" (detected)") : QString()));
+  } catch (const std::exception& e) {
+    previewNote_->setText(tr("Preview not available: %1").arg(QString::fromStdString(e.what())));
+  }
+}
+
+void ImportDialog::refreshPackagePreview() {
+  PackageFormat format{};
+  packageFormatOf(path().toStdString(), format);
+  try {
+    PackageReadOptions options;
+    options.missingTokens = settings().missingTokens;
+    options.rowLimit = kPreviewRows;
+    const Table t = readPackageFile(path().toStdString(), format, options);
+    const int rows = static_cast<int>(std::min<std::size_t>(t.rowCount, kPreviewRows));
+    const int read = static_cast<int>(t.columns.size());
+    const int refused = static_cast<int>(t.refusedColumns.size());
+    preview_->setColumnCount(read + refused);
+    preview_->setRowCount(rows);
+    QStringList headers;
+    for (const Column& c : t.columns) {
+      headers << QStringLiteral("%1\n(%2)").arg(QString::fromStdString(c.name), kindText(c));
+    }
+    for (const RefusedColumn& r : t.refusedColumns) {
+      headers << QStringLiteral("%1\n(%2)").arg(QString::fromStdString(r.name), tr("not used"));
+    }
+    preview_->setHorizontalHeaderLabels(headers);
+    for (int k = 0; k < refused; ++k) {
+      const QString reason = QString::fromStdString(t.refusedColumns[std::size_t(k)].reason);
+      preview_->horizontalHeaderItem(read + k)->setToolTip(reason);
+    }
+    for (int row = 0; row < rows; ++row) {
+      for (int col = 0; col < read; ++col) {
+        preview_->setItem(row, col,
+                          new QTableWidgetItem(levelText(t.columns[std::size_t(col)], row)));
+      }
+    }
+    preview_->horizontalHeader()->setSectionResizeMode(QHeaderView::ResizeToContents);
+    QString note = tr("First %1 records of the %2 file. Value labels are read as categories "
+                      "(shown with their codes), and the file's own missing values (system, "
+                      "tagged and user-defined) as missing.")
+                       .arg(rows)
+                       .arg(QString::fromStdString(packageFormatName(format)));
+    if (refused > 0) {
+      QStringList names;
+      for (const RefusedColumn& r : t.refusedColumns) {
+        names << QString::fromStdString(r.name);
+      }
+      note += QLatin1Char(' ') +
+              tr("Not usable in an analysis (dates, times or ambiguous labels; hover the "
+                 "header for the reason): %1.")
+                  .arg(names.join(QStringLiteral(", ")));
+    }
+    previewNote_->setText(note);
   } catch (const std::exception& e) {
     previewNote_->setText(tr("Preview not available: %1").arg(QString::fromStdString(e.what())));
   }
@@ -289,6 +375,13 @@ void ImportDialog::refreshSummary() {
   if (table_ == nullptr) return;
   QString text =
       tr("<b>%1 rows, %2 columns read.</b>").arg(table_->rowCount).arg(table_->columns.size());
+  if (!table_->refusedColumns.empty()) {
+    QStringList names;
+    for (const RefusedColumn& r : table_->refusedColumns) {
+      names << QString::fromStdString(r.name).toHtmlEscaped();
+    }
+    text += QLatin1Char(' ') + tr("Not usable: %1.").arg(names.join(QStringLiteral(", ")));
+  }
   const ImportSettings s = settings();
   const bool ok = !s.outcomeColumn.empty();
   buttons_->button(QDialogButtonBox::Ok)->setEnabled(ok);

@@ -1,5 +1,6 @@
 #pragma once
-// Import a cohort CSV: choose the file, the delimiter and the missing-value tokens, see a live
+// Import a cohort (CSV, or a SAS, Stata or SPSS file): choose the file, the delimiter (CSV) and the
+// missing-value tokens, see a live
 // preview of the first rows, choose the outcome column and the value that means "event", and read
 // a summary of what will be excluded and why. The whole file is read in the background while the
 // dialog is open, so the summary counts every row; the loaded table is handed to the caller.
@@ -42,6 +43,7 @@ class ImportDialog : public QDialog {
  private:
   void refresh();
   void refreshPreview();
+  void refreshPackagePreview();  // SAS, Stata and SPSS files: the first records via ReadStat
   void startFullRead();
   void refreshOutcomeChoices();
   void refreshSummary();
