@@ -54,6 +54,11 @@ constexpr const char* kHelp =
     "  --development-data   the cohort is the model's development data: performance is\n"
     "                       apparent (Hosmer-Lemeshow on g-2 df) even when the model file's\n"
     "                       fingerprint of its data does not match the cohort file\n"
+    "  --imputation-column COL\n"
+    "                       the cohort stacks imputed copies numbered by COL (0: the\n"
+    "                       original data, required; 1..m: the copies, same patients in the\n"
+    "                       same order): results on the original data's complete cases, plus\n"
+    "                       every copy's validation pooled by Rubin's rules\n"
     "  --groups G           risk groups for Hosmer-Lemeshow and the calibration table (10)\n"
     "  --thresholds T       FROM:TO:STEP or a list T1,T2,... strictly inside (0, 1)\n"
     "                       (0.01:0.99:0.01); a patient is flagged when risk >= threshold\n"
@@ -122,7 +127,7 @@ void addValidateOptions(OptionSpec& spec) {
   spec.valued.insert({"--data", "--outcome", "--model", "--risk", "--groups", "--thresholds",
                       "--map", "--map-level", "--json", "--csv-dir", "--pdf", "--title",
                       "--analyst", "--reviewer", "--suppress-below", "--paper",
-                      "--reasonable-range", "--report-thresholds"});
+                      "--reasonable-range", "--report-thresholds", "--imputation-column"});
   spec.flags.insert({"--help", "--development-data"});
   addDataOptions(spec);
   addUncertaintyOptions(spec);  // uncertainty: --bootstrap, --compare, --subgroup, ...
@@ -217,6 +222,7 @@ ValidationRequest validationRequestFrom(const Arguments& arguments) {
     levels[from] = item.substr(eq + 1);
   }
   request.developmentData = arguments.has("--development-data");
+  request.imputationColumn = arguments.value("--imputation-column");
   if (const auto g = arguments.value("--groups")) {
     const long long groups = parseInteger(*g, "--groups");
     if (groups < kGroupsLimit.min || groups > kGroupsLimit.max) {

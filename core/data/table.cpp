@@ -29,12 +29,12 @@ std::vector<std::string> Table::fileColumnNames() const {
 }
 
 std::string Table::placeOfRow(std::size_t row) const {
-  return rowsAreRecords ? sourceName + ", record " + std::to_string(row + 1)
+  return rowsAreRecords ? sourceName + ", record " + std::to_string(recordOfRow(row))
                         : sourceName + ":" + std::to_string(lineOfRow(row));
 }
 
 std::string Table::rowName(std::size_t row) const {
-  return rowsAreRecords ? "record " + std::to_string(row + 1)
+  return rowsAreRecords ? "record " + std::to_string(recordOfRow(row))
                         : "line " + std::to_string(lineOfRow(row));
 }
 
@@ -75,6 +75,52 @@ const Column& Table::requireNumeric(std::string_view name) const {
                      numberFieldHint(text));
   }
   return column;
+}
+
+Table tableRows(const Table& table, const std::vector<std::uint32_t>& rows) {
+  Table part;
+  part.sourceName = table.sourceName;
+  part.rowsAreRecords = table.rowsAreRecords;
+  part.rowCount = rows.size();
+  part.headerNames = table.headerNames;
+  part.refusedColumns = table.refusedColumns;
+  part.recordLines.reserve(rows.size());
+  for (std::uint32_t row : rows) {
+    part.recordLines.push_back(static_cast<std::uint32_t>(
+        table.rowsAreRecords ? table.recordOfRow(row) : table.lineOfRow(row)));
+  }
+  part.columns.reserve(table.columns.size());
+  for (const Column& column : table.columns) {
+    Column copy;
+    copy.name = column.name;
+    copy.kind = column.kind;
+    copy.nonNumericNote = column.nonNumericNote;
+    copy.firstNonNumeric = column.firstNonNumeric;
+    if (column.kind == ColumnKind::Numeric) {
+      copy.numbers.reserve(rows.size());
+      for (std::uint32_t row : rows) copy.numbers.push_back(column.numbers[row]);
+    } else {
+      // Only the levels these rows hold, still in byte order, as a reader would list them.
+      std::vector<std::int32_t> newIndex(column.levels.size(), -1);
+      for (std::uint32_t row : rows) {
+        if (column.codes[row] >= 0) newIndex[static_cast<std::size_t>(column.codes[row])] = 0;
+      }
+      for (std::size_t level = 0; level < column.levels.size(); ++level) {
+        if (newIndex[level] < 0) continue;
+        newIndex[level] = static_cast<std::int32_t>(copy.levels.size());
+        copy.levels.push_back(column.levels[level]);
+        if (!column.levelCodes.empty()) copy.levelCodes.push_back(column.levelCodes[level]);
+      }
+      copy.codes.reserve(rows.size());
+      for (std::uint32_t row : rows) {
+        const std::int32_t code = column.codes[row];
+        copy.codes.push_back(code < 0 ? -1 : newIndex[static_cast<std::size_t>(code)]);
+      }
+    }
+    for (std::size_t i = 0; i < rows.size(); ++i) copy.missingCount += copy.isMissing(i) ? 1 : 0;
+    part.columns.push_back(std::move(copy));
+  }
+  return part;
 }
 
 }  // namespace calivera

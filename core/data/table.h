@@ -54,8 +54,9 @@ struct Table {
   bool rowsAreRecords = false;
   std::vector<Column> columns;
   std::size_t rowCount = 0;
-  // Physical line on which each record starts. Empty when no record spans several lines, in
-  // which case row r (0-based) is on line r + 2.
+  // Physical line on which each record starts (for a statistical-package file, or a table cut
+  // from one: its 1-based record number). Empty when no record spans several lines, in which
+  // case row r (0-based) is on line r + 2 (record r + 1).
   std::vector<std::uint32_t> recordLines;
 
   // Every column name of the file's header, in order, when the reader stored only some columns
@@ -70,6 +71,9 @@ struct Table {
   std::size_t lineOfRow(std::size_t row) const {
     return recordLines.empty() ? row + 2 : recordLines[row];
   }
+  std::size_t recordOfRow(std::size_t row) const {
+    return recordLines.empty() ? row + 1 : recordLines[row];
+  }
   // Where a row is, for messages: "FILE:LINE" for CSV, "FILE, record N" otherwise.
   std::string placeOfRow(std::size_t row) const;
   // The row's name without the file: "line LINE" or "record N".
@@ -83,5 +87,10 @@ struct Table {
   // Throws InputError naming file, line, column and text when the column is not numeric.
   const Column& requireNumeric(std::string_view name) const;
 };
+
+// The given rows of `table` (indices into it, in the order given) as a table of their own: every
+// column kept, a text column's levels those the rows hold (in the same order), and each row still
+// named by its place in the file.
+Table tableRows(const Table& table, const std::vector<std::uint32_t>& rows);
 
 }  // namespace calivera

@@ -6,6 +6,7 @@
 #include <sstream>
 #include <utility>
 
+#include "core/imputation/stacked_imputations.h"
 #include "core/model/analysed_fingerprint.h"
 #include "core/model/category_levels.h"
 #include "core/model/linear_predictor.h"
@@ -164,6 +165,11 @@ ValidationRun runValidation(const ValidationRequest& request, std::shared_ptr<co
   }
   const Model* model = run.model ? &*run.model : nullptr;
   run.cohort = prepareCohort(*table, request.outcome, model, request.riskColumn);
+  {
+    std::vector<std::string> used;
+    for (const ColumnExclusion& c : run.cohort.exclusions.byColumn) used.push_back(c.column);
+    run.missingPatterns = missingPatterns(*table, used, request.outcome);
+  }
   markStage("cohort prepared");
   if (model) {
     run.analysedSha256 =
@@ -210,6 +216,7 @@ std::vector<std::string> analysisColumns(const ValidationRequest& request,
     return {};
   }
   if (request.riskColumn) add(*request.riskColumn);
+  if (request.imputationColumn) add(*request.imputationColumn);
   for (const std::string& c : subgroupColumns) add(c);
   return columns;
 }
@@ -220,8 +227,30 @@ ValidationRun runValidation(const ValidationRequest& request) {
   markStage("cohort parsed");
   std::string sha = hash.get();
   markStage("cohort hashed");
-  return runValidation(request, std::make_shared<const Table>(std::move(read.table)),
-                       std::move(sha));
+  if (!request.imputationColumn) {
+    return runValidation(request, std::make_shared<const Table>(std::move(read.table)),
+                         std::move(sha));
+  }
+  const StackedImputations stacked =
+      splitStackedImputations(read.table, *request.imputationColumn, request.outcome.column);
+  read.table = Table();  // the copies hold what is needed
+  ValidationRequest each = request;
+  each.imputationColumn.reset();
+  each.options.progress = nullptr;
+  std::vector<ValidationRun> copies;
+  copies.reserve(stacked.copies.size());
+  for (std::size_t i = 0; i < stacked.copies.size(); ++i) {
+    reportProgress(request.options.progress,
+                   static_cast<double>(i) / static_cast<double>(stacked.copies.size() + 1));
+    copies.push_back(runValidation(each, stacked.copies[i], sha));
+  }
+  markStage("imputed copies validated");
+  ValidationRun run = runValidation(each, stacked.original, std::move(sha));
+  run.request.imputationColumn = request.imputationColumn;
+  run.imputed = std::make_shared<const ImputedValidation>(
+      poolImputedRuns(copies, stacked.column, stacked.indices));
+  markStage("imputations pooled");
+  return run;
 }
 
 }  // namespace calivera

@@ -25,6 +25,8 @@
 #include "core/data/cohort_file.h"
 #include "core/data/csv_reader.h"
 #include "core/data/table.h"
+#include "core/imputation/imputed_validation.h"
+#include "core/imputation/missing_patterns.h"
 #include "core/metrics/validation.h"
 #include "core/model/model.h"
 
@@ -52,6 +54,10 @@ struct ValidationRequest {
   // The user states that the cohort is the model's development data (apparent performance) even
   // when no fingerprint says so (for example the same patients saved with another delimiter).
   bool developmentData = false;
+  // A column numbering stacked imputed copies (core/imputation/stacked_imputations.h): the
+  // complete-case results come from the original data (index 0) and the pooled ones from the
+  // copies. File route only (runValidation(request)).
+  std::optional<std::string> imputationColumn;
   ValidationOptions options;  // thresholds empty: the default 0.01..0.99 by 0.01
 };
 
@@ -75,7 +81,11 @@ struct ValidationRun {
   std::string performanceBasis;        // one sentence: why apparent / new data
   std::shared_ptr<const Table> table;  // the cohort as read (subgroups, bootstrap, the GUI)
   PreparedCohort cohort;
-  ValidationResult result;      // result.warnings also holds the pipeline's warnings
+  ValidationResult result;  // result.warnings also holds the pipeline's warnings
+  // The columns the analysis uses (outcome first), missing together: the missingness report.
+  MissingPatternReport missingPatterns;
+  // With request.imputationColumn: the validation of every copy pooled by Rubin's rules.
+  std::shared_ptr<const ImputedValidation> imputed;
   std::string softwareVersion;  // CALIVERA_VERSION
 };
 

@@ -4,6 +4,7 @@
 
 #include "core/data/cohort_file.h"
 #include "core/metrics/json_values.h"
+#include "core/report/imputation_json.h"
 
 namespace calivera {
 namespace {
@@ -146,6 +147,8 @@ json settingsJson(const ValidationRun& run) {
           {"column_mapping", run.request.columnMapping},
           {"level_mapping", run.request.levelMapping},
           {"development_data_stated", run.request.developmentData},
+          {"imputation_column",
+           run.request.imputationColumn ? json(*run.request.imputationColumn) : json(nullptr)},
           {"thresholds", o.thresholds},
           {"flag_rule", "risk >= threshold"},
           {"histogram_bins", o.histogramBins},
@@ -194,6 +197,8 @@ json validationToJson(const ValidationRun& run) {
           {"decision_curve", decisionCurveJson(r.decisionCurve)},
           {"thresholds", thresholdsJson(r.thresholds)},
           {"risk_distribution", histogram},
+          {"missing_data", missingDataJson(run)},
+          {"pooled", pooledJson(run)},
           {"warnings", r.warnings}};
 }
 

@@ -3,7 +3,8 @@
 // `calivera validate --json`. Non-finite numbers (an undefined statistic) are written as null.
 // The key layout is a contract with outside checks: add keys, never rename. Layout:
 //   format, software {name, version}, caution,
-//   inputs {data {file, sha256}, model {file, sha256} | null, risk_column | null},
+//   inputs {source "file", data {file, format, sha256, analysed_data_sha256},
+//           model {file, sha256} | null, risk_column | null},
 //   model {name, development_data_sha256 | null},
 //   settings {outcome, event_value, groups, thresholds [..], histogram_bins, loess {...}},
 //   cohort {n, events, non_events, prevalence, excluded, rows_read, excluded_by_column {col: n},
@@ -24,6 +25,7 @@
 //                specificity_ci, ppv, ppv_ci, npv, npv_ci, flagged_per_1000,
 //                events_caught_per_1000, events_missed_per_1000, flagged_without_event_per_1000}],
 //   risk_distribution {bin_edges, events, non_events},
+//   missing_data {...}, pooled {...} | null   (core/report/imputation_json.h),
 //   warnings [text]
 
 #include <nlohmann/json.hpp>

@@ -10,6 +10,7 @@
 #include "core/present/measures.h"
 #include "core/present/number_text.h"
 #include "core/report/audit_run.h"
+#include "core/report/imputation_json.h"
 #include "core/report/validation_json.h"
 
 namespace calivera {
@@ -115,6 +116,7 @@ std::string validationSummaryText(const ValidationRun& run, const std::string& b
     out << "\nWarnings\n";
     for (const std::string& w : r.warnings) out << "  - " << w << "\n";
   }
+  out << missingDataSummaryText(run);
   if (!beforeCaution.empty()) out << "\n" << beforeCaution;
   out << "\n" << kCautionText << "\n";
   return out.str();

@@ -76,6 +76,9 @@ std::vector<std::string> validateCommandWords(const ValidationRequest& validatio
   }
   addLevelMappingWords(w, validation.levelMapping);
   if (validation.developmentData) w.push_back("--development-data");
+  if (validation.imputationColumn) {
+    w.insert(w.end(), {"--imputation-column", *validation.imputationColumn});
+  }
   const ValidationOptions defaults;
   if (validation.options.groups != defaults.groups) {
     w.insert(w.end(), {"--groups", std::to_string(validation.options.groups)});

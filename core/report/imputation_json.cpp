@@ -1,0 +1,146 @@
+#include "core/report/imputation_json.h"
+
+#include <cstdio>
+#include <sstream>
+
+#include "core/metrics/json_values.h"
+
+namespace calivera {
+
+using nlohmann::json;
+
+namespace {
+
+json spreadJson(const SpreadOverCopies& s) {
+  return {{"smallest", jsonNumber(s.smallest)},
+          {"median", jsonNumber(s.median)},
+          {"largest", jsonNumber(s.largest)}};
+}
+
+std::string number(double value, int digits = 3) {
+  char buffer[64];
+  std::snprintf(buffer, sizeof buffer, "%.*f", digits, value);
+  return buffer;
+}
+
+const char* measureLabel(const std::string& key) {
+  if (key == "c_statistic") return "c-statistic";
+  if (key == "oe_ratio") return "O/E ratio";
+  if (key == "calibration_intercept") return "Calibration intercept";
+  if (key == "calibration_slope") return "Calibration slope";
+  return "Brier score";
+}
+
+}  // namespace
+
+json missingDataJson(const ValidationRun& run) {
+  json patterns = json::array();
+  for (const MissingPattern& p : run.missingPatterns.patterns) {
+    patterns.push_back(
+        {{"missing", p.missingColumns},
+         {"rows", p.rows},
+         {"outcome_known", p.outcomeKnown},
+         {"events", p.events},
+         {"event_rate", p.outcomeKnown > 0 ? jsonNumber(static_cast<double>(p.events) /
+                                                        static_cast<double>(p.outcomeKnown))
+                                           : json(nullptr)}});
+  }
+  json out = {{"method", run.imputed ? run.imputed->method : "complete_case"},
+              {"m", run.imputed ? run.imputed->indices.size() : 0},
+              {"imputation_column", run.imputed ? json(run.imputed->column) : json(nullptr)},
+              {"patterns", patterns},
+              {"other_patterns",
+               {{"patterns", run.missingPatterns.otherPatterns},
+                {"rows", run.missingPatterns.othersRows}}}};
+  if (!run.imputed) {
+    out["hosmer_lemeshow_per_imputation"] = nullptr;
+    return out;
+  }
+  const ImputedValidation& imputed = *run.imputed;
+  out["imputation_indices"] = imputed.indices;
+  out["patients_per_copy"] = imputed.n;
+  out["events_per_copy"] = imputed.events;
+  out["hosmer_lemeshow_per_imputation"] = {
+      {"df", imputed.hosmerLemeshowDf},
+      {"statistic", spreadJson(imputed.hosmerLemeshowStatistic)},
+      {"p_value", spreadJson(imputed.hosmerLemeshowP)}};
+  json curve = json::array();
+  for (const CalibrationCurvePoint& p : imputed.calibrationCurve) {
+    curve.push_back({{"risk", jsonNumber(p.risk)}, {"observed", jsonNumber(p.observed)}});
+  }
+  out["calibration_curve"] = curve;
+  json decision = json::array();
+  for (const DecisionCurvePoint& p : imputed.decisionCurve) {
+    decision.push_back({{"threshold", jsonNumber(p.threshold)},
+                        {"net_benefit", jsonNumber(p.netBenefit)},
+                        {"net_benefit_treat_all", jsonNumber(p.netBenefitTreatAll)}});
+  }
+  out["decision_curve"] = decision;
+  return out;
+}
+
+json pooledJson(const ValidationRun& run) {
+  if (!run.imputed) return nullptr;
+  json out = json::object();
+  for (const PooledImputedMeasure& m : run.imputed->pooled) {
+    const bool ok = m.problem.empty();
+    const auto value = [ok](double v) { return ok ? jsonNumber(v) : json(nullptr); };
+    out[m.key] = {{"estimate", value(m.estimate)},
+                  {"ci", ok ? jsonInterval(m.ci) : json(nullptr)},
+                  {"within_variance", value(m.rubin.withinVariance)},
+                  {"between_variance", value(m.rubin.betweenVariance)},
+                  {"total_variance", value(m.rubin.totalVariance)},
+                  {"fraction_missing_information", value(m.rubin.fractionMissingInformation)},
+                  {"df", value(m.rubin.df)},
+                  {"complete_data_df", value(m.rubin.completeDataDf)},
+                  {"scale", m.scale},
+                  {"estimate_on_scale", value(m.rubin.estimate)},
+                  {"per_imputation", m.perImputation},
+                  {"per_imputation_variance", m.perImputationVariance},
+                  {"problem", ok ? json(nullptr) : json(m.problem)}};
+  }
+  return out;
+}
+
+std::string missingDataSummaryText(const ValidationRun& run) {
+  std::ostringstream out;
+  const MissingPatternReport& report = run.missingPatterns;
+  if (report.patterns.size() > 1 || run.imputed) {
+    out << "\nMissing values by pattern (columns missing together; rows, events / outcome "
+           "known)\n";
+    for (const MissingPattern& p : report.patterns) {
+      std::string names;
+      for (const std::string& c : p.missingColumns) names += (names.empty() ? "" : ", ") + c;
+      out << "  " << (names.empty() ? std::string("(complete)") : names) << ": " << p.rows
+          << " rows, " << p.events << " / " << p.outcomeKnown << "\n";
+    }
+    if (report.otherPatterns > 0) {
+      out << "  " << report.otherPatterns << " other patterns: " << report.othersRows << " rows\n";
+    }
+  }
+  if (!run.imputed) return out.str();
+  const ImputedValidation& imputed = *run.imputed;
+  out << "\nPooled over " << imputed.indices.size() << " imputed copies (column '" << imputed.column
+      << "', " << imputed.n << " patients each; Rubin's rules, "
+      << "Barnard-Rubin df)\n";
+  for (const PooledImputedMeasure& m : imputed.pooled) {
+    out << "  " << measureLabel(m.key) << ": ";
+    if (!m.problem.empty()) {
+      out << "not pooled: " << m.problem << "\n";
+      continue;
+    }
+    out << number(m.estimate, 4) << " (95% CI " << number(m.ci.lo, 4) << " to "
+        << number(m.ci.hi, 4) << "), fraction of missing information "
+        << number(m.rubin.fractionMissingInformation) << ", df " << number(m.rubin.df, 1)
+        << ", pooled on the " << m.scale << " scale\n";
+  }
+  out << "  Hosmer-Lemeshow per copy (not pooled): statistic "
+      << number(imputed.hosmerLemeshowStatistic.smallest, 2) << " to "
+      << number(imputed.hosmerLemeshowStatistic.largest, 2) << " (median "
+      << number(imputed.hosmerLemeshowStatistic.median, 2) << ") on " << imputed.hosmerLemeshowDf
+      << " df\n";
+  out << "  The results above are the complete cases of the original data (index 0).\n";
+  return out.str();
+}
+
+}  // namespace calivera
