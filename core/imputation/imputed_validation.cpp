@@ -2,6 +2,7 @@
 
 #include <algorithm>
 #include <cmath>
+#include <iterator>
 #include <map>
 
 #include "core/metrics/validation_run.h"
@@ -78,36 +79,47 @@ SpreadOverCopies spread(std::vector<double> values) {
 
 }  // namespace
 
-ImputedValidation poolImputedRuns(const std::vector<ValidationRun>& runs, const std::string& column,
-                                  const std::vector<long long>& indices) {
-  if (runs.size() < 2) throw InputError("pooling imputations needs at least two copies");
-  ImputedValidation out;
-  out.column = column;
-  out.indices = indices;
-  const ValidationRun& first = runs.front();
-  out.n = first.result.cohort.n;
-  out.events = first.result.cohort.events;
-  for (std::size_t i = 1; i < runs.size(); ++i) {
-    if (runs[i].cohort.rows != first.cohort.rows) {
-      throw InputError(runs[i].table->sourceName + ": imputation " + std::to_string(indices[i]) +
-                       " analyses " + std::to_string(runs[i].result.cohort.n) +
-                       " patients, imputation " + std::to_string(indices[0]) + " " +
-                       std::to_string(out.n) +
-                       ": a column the analysis needs is still missing in a copy (each copy "
-                       "must be complete)");
+CopyMeasures copyMeasures(const ValidationRun& run, long long index) {
+  CopyMeasures copy;
+  copy.index = index;
+  copy.n = run.result.cohort.n;
+  copy.events = run.result.cohort.events;
+  for (std::size_t k = 0; k < std::size(kImputedMeasureKeys); ++k) {
+    if (!estimateOf(run, kImputedMeasureKeys[k], copy.estimates[k], copy.variances[k],
+                    copy.problems[k])) {
+      copy.estimates[k] = copy.variances[k] = PooledImputedMeasure::kNaN;
     }
   }
+  copy.hosmerLemeshowStatistic = run.result.hosmerLemeshow.statistic;
+  copy.hosmerLemeshowP = run.result.hosmerLemeshow.pValue;
+  copy.hosmerLemeshowDf = run.result.hosmerLemeshow.df;
+  copy.calibrationCurve = calibrationCurveOnGrid(run.result.calibration.curve);
+  copy.decisionCurve = run.result.decisionCurve;
+  return copy;
+}
+
+ImputedValidation poolImputedCopies(const std::vector<CopyMeasures>& copies,
+                                    const std::string& column) {
+  if (copies.size() < 2) throw InputError("pooling imputations needs at least two copies");
+  ImputedValidation out;
+  out.column = column;
+  const CopyMeasures& first = copies.front();
+  for (const CopyMeasures& copy : copies) out.indices.push_back(copy.index);
+  out.n = first.n;
+  out.events = first.events;
   const double n = static_cast<double>(out.n);
-  for (const char* keyText : kImputedMeasureKeys) {
+  for (std::size_t k = 0; k < std::size(kImputedMeasureKeys); ++k) {
     PooledImputedMeasure measure;
-    measure.key = keyText;
+    measure.key = kImputedMeasureKeys[k];
     const PoolingScale scale = scaleOf(measure.key);
     measure.scale = poolingScaleName(scale);
-    for (const ValidationRun& run : runs) {
-      double estimate = 0.0, variance = 0.0;
-      if (!estimateOf(run, measure.key, estimate, variance, measure.problem)) break;
-      measure.perImputation.push_back(estimate);
-      measure.perImputationVariance.push_back(variance);
+    for (const CopyMeasures& copy : copies) {
+      if (!copy.problems[k].empty()) {
+        measure.problem = copy.problems[k] + " (imputation " + std::to_string(copy.index) + ")";
+        break;
+      }
+      measure.perImputation.push_back(copy.estimates[k]);
+      measure.perImputationVariance.push_back(copy.variances[k]);
     }
     if (measure.problem.empty()) {
       measure.rubin = poolByRubin(measure.perImputation, measure.perImputationVariance,
@@ -119,43 +131,41 @@ ImputedValidation poolImputedRuns(const std::vector<ValidationRun>& runs, const 
   }
 
   std::vector<double> hl, hlP;
-  for (const ValidationRun& run : runs) {
-    hl.push_back(run.result.hosmerLemeshow.statistic);
-    hlP.push_back(run.result.hosmerLemeshow.pValue);
+  for (const CopyMeasures& copy : copies) {
+    hl.push_back(copy.hosmerLemeshowStatistic);
+    hlP.push_back(copy.hosmerLemeshowP);
   }
   out.hosmerLemeshowStatistic = spread(hl);
   out.hosmerLemeshowP = spread(hlP);
-  out.hosmerLemeshowDf = first.result.hosmerLemeshow.df;
+  out.hosmerLemeshowDf = first.hosmerLemeshowDf;
 
   // The calibration curve: the mean of the copies' curves at each grid risk they all reach.
   std::map<long long, std::pair<double, std::size_t>> curve;  // risk * 100 -> (sum, copies)
-  for (const ValidationRun& run : runs) {
-    for (const CalibrationCurvePoint& point :
-         calibrationCurveOnGrid(run.result.calibration.curve)) {
+  for (const CopyMeasures& copy : copies) {
+    for (const CalibrationCurvePoint& point : copy.calibrationCurve) {
       auto& entry = curve[std::llround(point.risk * 100.0)];
       entry.first += point.observed;
       ++entry.second;
     }
   }
+  const double m = static_cast<double>(copies.size());
   for (const auto& [percent, entry] : curve) {
-    if (entry.second != runs.size()) continue;
-    out.calibrationCurve.push_back(
-        {static_cast<double>(percent) / 100.0, entry.first / static_cast<double>(runs.size())});
+    if (entry.second != copies.size()) continue;
+    out.calibrationCurve.push_back({static_cast<double>(percent) / 100.0, entry.first / m});
   }
   // The decision curve: every copy has the same thresholds (one request).
-  out.decisionCurve = first.result.decisionCurve;
-  for (std::size_t k = 0; k < out.decisionCurve.size(); ++k) {
-    DecisionCurvePoint& mean = out.decisionCurve[k];
-    mean.netBenefit = mean.standardizedNetBenefit = mean.interventionsAvoidedPer100 = 0.0;
-    mean.netBenefitTreatAll = 0.0;
-    for (const ValidationRun& run : runs) {
-      const DecisionCurvePoint& p = run.result.decisionCurve.at(k);
+  out.decisionCurve = first.decisionCurve;
+  for (std::size_t t = 0; t < out.decisionCurve.size(); ++t) {
+    DecisionCurvePoint& mean = out.decisionCurve[t];
+    mean.netBenefit = mean.netBenefitTreatAll = 0.0;
+    mean.standardizedNetBenefit = mean.interventionsAvoidedPer100 = 0.0;
+    for (const CopyMeasures& copy : copies) {
+      const DecisionCurvePoint& p = copy.decisionCurve.at(t);
       mean.netBenefit += p.netBenefit;
       mean.netBenefitTreatAll += p.netBenefitTreatAll;
       mean.standardizedNetBenefit += p.standardizedNetBenefit;
       mean.interventionsAvoidedPer100 += p.interventionsAvoidedPer100;
     }
-    const double m = static_cast<double>(runs.size());
     mean.netBenefit /= m;
     mean.netBenefitTreatAll /= m;
     mean.standardizedNetBenefit /= m;

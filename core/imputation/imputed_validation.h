@@ -9,6 +9,7 @@
 // and is reported per copy (smallest, median, largest), never pooled.
 
 #include <cstddef>
+#include <iterator>
 #include <limits>
 #include <string>
 #include <vector>
@@ -55,9 +56,25 @@ struct ImputedValidation {
   std::vector<DecisionCurvePoint> decisionCurve;
 };
 
-// `runs`: one validation per imputed copy (at least two, each analysing the same patients).
-// Throws InputError when a copy analyses other rows than the first (a predictor still missing).
-ImputedValidation poolImputedRuns(const std::vector<ValidationRun>& runs, const std::string& column,
-                                  const std::vector<long long>& indices);
+// What pooling needs from one copy's validation (kept instead of the whole run, so memory does
+// not grow with m): each measure and its within-imputation variance on its pooling scale (or why
+// there is none), Hosmer-Lemeshow, the calibration curve on the 0.01 grid, the decision curve.
+struct CopyMeasures {
+  long long index = 0;
+  std::size_t n = 0, events = 0;
+  double estimates[std::size(kImputedMeasureKeys)] = {};
+  double variances[std::size(kImputedMeasureKeys)] = {};
+  std::string problems[std::size(kImputedMeasureKeys)];
+  double hosmerLemeshowStatistic = 0.0, hosmerLemeshowP = 0.0;
+  int hosmerLemeshowDf = 0;
+  std::vector<CalibrationCurvePoint> calibrationCurve;
+  std::vector<DecisionCurvePoint> decisionCurve;
+};
+
+CopyMeasures copyMeasures(const ValidationRun& run, long long index);
+
+// At least two copies, each analysing the same patients (the caller checks).
+ImputedValidation poolImputedCopies(const std::vector<CopyMeasures>& copies,
+                                    const std::string& column);
 
 }  // namespace calivera

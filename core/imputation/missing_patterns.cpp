@@ -1,6 +1,7 @@
 #include "core/imputation/missing_patterns.h"
 
 #include <algorithm>
+#include <cstdint>
 #include <map>
 
 namespace calivera {
@@ -18,15 +19,25 @@ MissingPatternReport missingPatterns(const Table& table, const std::vector<std::
   std::vector<std::int8_t> eventOf(table.rowCount, -1);
   for (std::size_t i = 0; i < known.size(); ++i) eventOf[known[i]] = events[i] == 1.0 ? 1 : 0;
 
-  // Key: one bit per column, as a string of '0'/'1' (any number of columns).
-  std::map<std::string, MissingPattern> byKey;
-  std::string key(used.size(), '0');
+  // Key: one bit per column, in 64-bit words (any number of columns). Most rows are complete,
+  // so the all-zero key is counted without a map lookup.
+  const std::size_t words = (used.size() + 63) / 64;
+  std::map<std::vector<std::uint64_t>, MissingPattern> byKey;
+  MissingPattern complete;
+  std::vector<std::uint64_t> key(words);
   for (std::size_t row = 0; row < table.rowCount; ++row) {
-    for (std::size_t k = 0; k < used.size(); ++k) key[k] = used[k]->isMissing(row) ? '1' : '0';
-    MissingPattern& pattern = byKey[key];
+    std::fill(key.begin(), key.end(), 0);
+    bool any = false;
+    for (std::size_t k = 0; k < used.size(); ++k) {
+      if (used[k]->isMissing(row)) {
+        key[k / 64] |= std::uint64_t{1} << (k % 64);
+        any = true;
+      }
+    }
+    MissingPattern& pattern = any ? byKey[key] : complete;
     if (pattern.rows++ == 0) {
       for (std::size_t k = 0; k < used.size(); ++k) {
-        if (key[k] == '1') pattern.missingColumns.push_back(columns[k]);
+        if ((key[k / 64] >> (k % 64)) & 1u) pattern.missingColumns.push_back(columns[k]);
       }
     }
     if (eventOf[row] >= 0) {
@@ -34,6 +45,7 @@ MissingPatternReport missingPatterns(const Table& table, const std::vector<std::
       pattern.events += static_cast<std::size_t>(eventOf[row]);
     }
   }
+  if (complete.rows > 0) byKey[std::vector<std::uint64_t>(words)] = std::move(complete);
   std::vector<MissingPattern> all;
   all.reserve(byKey.size());
   for (auto& [k, pattern] : byKey) all.push_back(std::move(pattern));

@@ -62,7 +62,7 @@ StackedImputations splitStackedImputations(const Table& table, const std::string
   const Column& outcome = table.require(outcomeColumn);
   StackedImputations split;
   split.column = column;
-  split.original = std::make_shared<const Table>(tableRows(table, original->second));
+  split.originalRows = original->second;
   for (const auto& [number, rows] : rowsOf) {
     if (number == 0) continue;
     if (rows.size() != n) {
@@ -96,7 +96,7 @@ StackedImputations splitStackedImputations(const Table& table, const std::string
       }
     }
     split.indices.push_back(number);
-    split.copies.push_back(std::make_shared<const Table>(tableRows(table, rows)));
+    split.copyRows.push_back(rows);
   }
   return split;
 }

@@ -14,7 +14,7 @@
 //   (the copies would carry an imputed outcome).
 
 #include <cstddef>
-#include <memory>
+#include <cstdint>
 #include <string>
 #include <vector>
 
@@ -22,10 +22,12 @@
 
 namespace calivera {
 
+// Rows of the stacked table, so each copy can be made a table of its own (tableRows) only while
+// it is validated: memory stays near the stacked table's, whatever m is.
 struct StackedImputations {
   std::string column;
-  std::shared_ptr<const Table> original;             // index 0
-  std::vector<std::shared_ptr<const Table>> copies;  // by increasing index
+  std::vector<std::uint32_t> originalRows;           // index 0
+  std::vector<std::vector<std::uint32_t>> copyRows;  // by increasing index
   std::vector<long long> indices;                    // the index of each copy
 };
 

@@ -135,7 +135,7 @@ PerformanceDecision decidePerformance(const Model* model, const std::string& dat
 }
 
 ValidationRun runValidation(const ValidationRequest& request, std::shared_ptr<const Table> table,
-                            std::string dataSha256) {
+                            std::string dataSha256, const PerformanceDecision* decided) {
   if (!table) throw InputError("no cohort is loaded");
   ValidationRun run;
   run.request = request;
@@ -171,13 +171,15 @@ ValidationRun runValidation(const ValidationRequest& request, std::shared_ptr<co
     run.missingPatterns = missingPatterns(*table, used, request.outcome);
   }
   markStage("cohort prepared");
-  if (model) {
+  if (model && !decided) {
     run.analysedSha256 =
         analysedDataFingerprint(*model, *table, run.cohort.rows, run.cohort.input.outcome);
   }
   markStage("analysed-data fingerprint");
   const PerformanceDecision decision =
-      decidePerformance(model, run.dataSha256, run.analysedSha256, request.developmentData);
+      decided
+          ? *decided
+          : decidePerformance(model, run.dataSha256, run.analysedSha256, request.developmentData);
   run.performance = decision.apparent ? kPerformanceApparent : kPerformanceNewData;
   run.performanceBasis = decision.basis;
   ValidationOptions options = request.options;
@@ -233,22 +235,36 @@ ValidationRun runValidation(const ValidationRequest& request) {
   }
   const StackedImputations stacked =
       splitStackedImputations(read.table, *request.imputationColumn, request.outcome.column);
-  read.table = Table();  // the copies hold what is needed
   ValidationRequest each = request;
   each.imputationColumn.reset();
   each.options.progress = nullptr;
-  std::vector<ValidationRun> copies;
-  copies.reserve(stacked.copies.size());
-  for (std::size_t i = 0; i < stacked.copies.size(); ++i) {
+  ValidationRun run = runValidation(
+      each, std::make_shared<const Table>(tableRows(read.table, stacked.originalRows)), sha);
+  const PerformanceDecision decision{run.performance == kPerformanceApparent, run.performanceBasis};
+  std::vector<CopyMeasures> copies;
+  copies.reserve(stacked.copyRows.size());
+  std::vector<std::uint32_t> firstRows;
+  for (std::size_t i = 0; i < stacked.copyRows.size(); ++i) {
     reportProgress(request.options.progress,
-                   static_cast<double>(i) / static_cast<double>(stacked.copies.size() + 1));
-    copies.push_back(runValidation(each, stacked.copies[i], sha));
+                   static_cast<double>(i + 1) / static_cast<double>(stacked.copyRows.size() + 1));
+    const ValidationRun copy = runValidation(
+        each, std::make_shared<const Table>(tableRows(read.table, stacked.copyRows[i])), sha,
+        &decision);
+    if (i == 0) {
+      firstRows = copy.cohort.rows;
+    } else if (copy.cohort.rows != firstRows) {
+      throw InputError(copy.table->sourceName + ": imputation " +
+                       std::to_string(stacked.indices[i]) + " analyses " +
+                       std::to_string(copy.result.cohort.n) + " patients, imputation " +
+                       std::to_string(stacked.indices[0]) + " " + std::to_string(firstRows.size()) +
+                       ": a column the analysis needs is still missing in a copy (each copy "
+                       "must be complete)");
+    }
+    copies.push_back(copyMeasures(copy, stacked.indices[i]));
   }
   markStage("imputed copies validated");
-  ValidationRun run = runValidation(each, stacked.original, std::move(sha));
-  run.request.imputationColumn = request.imputationColumn;
-  run.imputed = std::make_shared<const ImputedValidation>(
-      poolImputedRuns(copies, stacked.column, stacked.indices));
+  run.imputed =
+      std::make_shared<const ImputedValidation>(poolImputedCopies(copies, stacked.column));
   markStage("imputations pooled");
   return run;
 }

@@ -124,7 +124,9 @@ std::vector<std::string> analysisColumns(const ValidationRequest& request,
 ValidationRun runValidation(const ValidationRequest& request);
 
 // The same after the caller loaded the table (the workstation loads it once for its data view).
+// `decided`: apparent or new data as already decided for the cohort this table is part of (an
+// imputed copy takes the original data's decision); then no analysed-data fingerprint is made.
 ValidationRun runValidation(const ValidationRequest& request, std::shared_ptr<const Table> table,
-                            std::string dataSha256);
+                            std::string dataSha256, const PerformanceDecision* decided = nullptr);
 
 }  // namespace calivera

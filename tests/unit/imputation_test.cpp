@@ -54,15 +54,16 @@ TEST(RubinRules, IdenticalCopiesGiveTheCompleteDataAnswer) {
 }
 
 TEST(StackedImputations, SplitsTheOriginalAndTheCopies) {
-  const StackedImputations s = splitStackedImputations(
-      table("imp,y,x\n0,1,\n0,0,2\n1,1,5\n1,0,2\n2,1,7\n2,0,2\n"), "imp", "y");
-  EXPECT_EQ(s.original->rowCount, 2u);
-  ASSERT_EQ(s.copies.size(), 2u);
+  const Table stacked = table("imp,y,x\n0,1,\n0,0,2\n1,1,5\n1,0,2\n2,1,7\n2,0,2\n");
+  const StackedImputations s = splitStackedImputations(stacked, "imp", "y");
+  EXPECT_EQ(s.originalRows, (std::vector<std::uint32_t>{0, 1}));
+  ASSERT_EQ(s.copyRows.size(), 2u);
   EXPECT_EQ(s.indices, (std::vector<long long>{1, 2}));
-  EXPECT_EQ(s.copies[1]->require("x").numbers[0], 7.0);
+  const Table second = tableRows(stacked, s.copyRows[1]);
+  EXPECT_EQ(second.require("x").numbers[0], 7.0);
   // Rows keep their place in the file for messages: the second copy's first row is line 6.
-  EXPECT_EQ(s.copies[1]->placeOfRow(0), "stack.csv:6");
-  EXPECT_EQ(s.original->require("x").missingCount, 1u);
+  EXPECT_EQ(second.placeOfRow(0), "stack.csv:6");
+  EXPECT_EQ(tableRows(stacked, s.originalRows).require("x").missingCount, 1u);
 }
 
 TEST(StackedImputations, BadStacksAreClearErrors) {
