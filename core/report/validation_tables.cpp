@@ -83,20 +83,64 @@ std::string warningsCsv(const ValidationRun& run) {
   return csv.str();
 }
 
+std::string missingPatternsCsv(const MissingPatternReport& report) {
+  CsvText csv({"missing_columns", "rows", "outcome_known", "events"});
+  for (const MissingPattern& p : report.patterns) {
+    std::string names;
+    for (const std::string& c : p.missingColumns) names += (names.empty() ? "" : "; ") + c;
+    csv.field(names).count(p.rows).count(p.outcomeKnown).count(p.events).end();
+  }
+  if (report.otherPatterns > 0) {
+    csv.field("(" + std::to_string(report.otherPatterns) + " other patterns)")
+        .count(report.othersRows)
+        .field("")
+        .field("")
+        .end();
+  }
+  return csv.str();
+}
+
+std::string pooledCsv(const ImputedValidation& imputed) {
+  CsvText csv({"measure", "estimate", "ci_lo", "ci_hi", "scale", "estimate_on_scale",
+               "within_variance", "between_variance", "total_variance",
+               "fraction_missing_information", "df", "complete_data_df", "problem"});
+  for (const PooledImputedMeasure& m : imputed.pooled) {
+    csv.field(m.key).num(m.estimate).ci(m.ci).field(m.scale);
+    if (m.problem.empty()) {
+      csv.num(m.rubin.estimate).num(m.rubin.withinVariance).num(m.rubin.betweenVariance);
+      csv.num(m.rubin.totalVariance).num(m.rubin.fractionMissingInformation).num(m.rubin.df);
+      csv.num(m.rubin.completeDataDf).field("");
+    } else {
+      for (int k = 0; k < 7; ++k) csv.field("");
+      csv.field(m.problem);
+    }
+    csv.end();
+  }
+  return csv.str();
+}
+
 }  // namespace
 
 std::vector<std::pair<std::string, std::string>> validationTables(const ValidationRun& run) {
   const ValidationResult& r = run.result;
   const ResultTable thresholds = thresholdTable(r);
   const ResultTable groups = hosmerLemeshowTable(r.hosmerLemeshow);
-  return {{thresholds.fileName, tableCsv(thresholds)},
-          {"decision_curve.csv", decisionCurveCsv(r.decisionCurve)},
-          {groups.fileName, tableCsv(groups)},
-          {"calibration_curve.csv", curveCsv(r.calibration.curve)},
-          {"roc.csv", rocCsv(r.discrimination.roc)},
-          {"risk_distribution.csv", histogramCsv(r.distribution)},
-          {"summary.csv", summaryCsv(run)},
-          {"warnings.csv", warningsCsv(run)}};
+  std::vector<std::pair<std::string, std::string>> tables{
+      {thresholds.fileName, tableCsv(thresholds)},
+      {"decision_curve.csv", decisionCurveCsv(r.decisionCurve)},
+      {groups.fileName, tableCsv(groups)},
+      {"calibration_curve.csv", curveCsv(r.calibration.curve)},
+      {"roc.csv", rocCsv(r.discrimination.roc)},
+      {"risk_distribution.csv", histogramCsv(r.distribution)},
+      {"summary.csv", summaryCsv(run)},
+      {"warnings.csv", warningsCsv(run)},
+      {"missing_patterns.csv", missingPatternsCsv(run.missingPatterns)}};
+  if (run.imputed) {
+    tables.emplace_back("pooled_imputations.csv", pooledCsv(*run.imputed));
+    tables.emplace_back("imputed_calibration_curve.csv", curveCsv(run.imputed->calibrationCurve));
+    tables.emplace_back("imputed_decision_curve.csv", decisionCurveCsv(run.imputed->decisionCurve));
+  }
+  return tables;
 }
 
 void writeTables(const std::string& directory,

@@ -3,7 +3,9 @@
 // field for an undefined value), for `calivera validate --csv-dir DIR` and for export from the
 // workstation. Each table is one file in DIR:
 //   thresholds.csv, decision_curve.csv, hosmer_lemeshow_groups.csv, calibration_curve.csv,
-//   roc.csv, risk_distribution.csv, summary.csv (one row per scalar statistic), warnings.csv.
+//   roc.csv, risk_distribution.csv, summary.csv (one row per scalar statistic), warnings.csv,
+//   missing_patterns.csv; with imputed copies also pooled_imputations.csv,
+//   imputed_calibration_curve.csv and imputed_decision_curve.csv (means over the copies).
 // The threshold and group tables are defined once, with their on-screen labels, in
 // core/report/result_table.h; the workstation exports them as this same text.
 

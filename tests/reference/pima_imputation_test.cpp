@@ -6,6 +6,7 @@
 // tests/reference/data/pima_imputation.json).
 #include <gtest/gtest.h>
 
+#include <filesystem>
 #include <nlohmann/json.hpp>
 
 #include "tests/reference/reference_csv.h"
@@ -71,6 +72,26 @@ TEST(PimaImputationReference, SummaryNamesThePatternsAndThePooledMeasures) {
       << run.out;
   EXPECT_NE(run.out.find("Hosmer-Lemeshow per copy (not pooled)"), std::string::npos);
   EXPECT_NE(run.out.find("--imputation-column .imp"), std::string::npos);  // reproduce line
+}
+
+TEST(PimaImputationReference, CsvTablesCarryThePooledMeasuresAndPatterns) {
+  const testing::TempDir dir("pima_imputation_csv");
+  const testing::CliRun run = testing::runCalivera(
+      {"validate", "--data", referencePath("pima_tr2_imputed.csv"), "--outcome", "diabetic",
+       "--model", referencePath("pima_imputation_model.json"), "--imputation-column", ".imp",
+       "--csv-dir", dir.file("tables")});
+  ASSERT_EQ(run.status, 0) << run.err;
+  const auto pooled = testing::readColumns(dir.file("tables/pooled_imputations.csv"));
+  const json reference = json::parse(testing::readWhole(referencePath("pima_imputation.json")));
+  ASSERT_EQ(pooled.at("measure").size(), 5u);
+  EXPECT_EQ(pooled.at("measure")[0], "c_statistic");
+  EXPECT_LT(relativeDifference(std::stod(pooled.at("estimate")[0]),
+                               reference["pooled"]["c_statistic"]["estimate"].get<double>()),
+            1e-8);  // written with 10 significant digits
+  const auto patterns = testing::readColumns(dir.file("tables/missing_patterns.csv"));
+  EXPECT_EQ(patterns.at("missing_columns")[1], "skin");
+  EXPECT_EQ(patterns.at("rows")[1], "84");
+  EXPECT_TRUE(std::filesystem::exists(dir.file("tables/imputed_decision_curve.csv")));
 }
 
 }  // namespace
