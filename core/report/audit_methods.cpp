@@ -62,7 +62,7 @@ const std::vector<MethodParagraph>& auditMethodParagraphs() {
   return paragraphs;
 }
 
-std::vector<ChecklistItem> auditChecklist(bool apparent, bool subgroups) {
+std::vector<ChecklistItem> auditChecklist(bool apparent, bool subgroups, bool imputed) {
   using S = ChecklistStatus;
   return {
       {"Title identifying the study as a validation of a prediction model", S::Covered,
@@ -82,7 +82,11 @@ std::vector<ChecklistItem> auditChecklist(bool apparent, bool subgroups) {
       {"Sample size: participants and outcome events", S::Covered,
        "Section 1 (rows read, analysed, events) and the warnings"},
       {"Missing data: how many and how handled", S::Covered,
-       "Section 1: rows excluded per column (complete-case analysis)"},
+       imputed ? "Section 1: rows excluded per column; Section 2, missing data: patterns, "
+                 "complete cases and the imputed copies pooled by Rubin's rules (say how the "
+                 "copies were imputed)"
+               : "Section 1: rows excluded per column (complete-case analysis); Section 2, "
+                 "missing data: the columns missing together, when any are"},
       {apparent ? "Performance on the development data (apparent performance)"
                 : "Type of validation (external, on a new cohort)",
        S::Covered, "Section 1, settings"},

@@ -26,6 +26,7 @@ struct ChecklistItem {
 
 // `apparent`: the cohort is the development data (changes the wording of the validation item).
 // `subgroups`: the report has a subgroup section (the subgroup item is then covered).
-std::vector<ChecklistItem> auditChecklist(bool apparent, bool subgroups = false);
+std::vector<ChecklistItem> auditChecklist(bool apparent, bool subgroups = false,
+                                          bool imputed = false);
 
 }  // namespace calivera

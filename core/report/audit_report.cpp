@@ -17,6 +17,7 @@
 #include "core/report/audit_disclosure.h"
 #include "core/report/audit_format.h"
 #include "core/report/audit_methods.h"
+#include "core/report/audit_missing.h"
 #include "core/report/audit_overview.h"
 #include "core/report/audit_sites.h"
 #include "core/report/audit_uncertainty.h"
@@ -456,7 +457,8 @@ void addChecklist(const AuditReportInput& input, std::vector<ReportBlock>& block
   table.widths = {0.13, 0.45, 0.42};
   table.align = {CellAlign::Left, CellAlign::Left, CellAlign::Left};
   const bool subgroups = input.uncertainty && !input.uncertainty->subgroups.empty();
-  for (const ChecklistItem& item : auditChecklist(input.settings.apparent, subgroups)) {
+  for (const ChecklistItem& item :
+       auditChecklist(input.settings.apparent, subgroups, input.imputed != nullptr)) {
     table.rows.push_back(
         {checklistStatusText(item.status == ChecklistStatus::Covered), item.topic, item.where});
   }
@@ -550,6 +552,7 @@ AuditDocument buildAuditDocument(const AuditReportInput& input) {
   addCharts(doc, blocks);
   addHosmerLemeshow(input, plan, blocks);
   addThresholdTable(tableRows, plan, blocks);
+  addMissingDataSection(input, plan, blocks);
   if (input.uncertainty) {
     std::vector<double> tabulated;
     for (const ThresholdRow& row : tableRows) tabulated.push_back(row.threshold);

@@ -15,12 +15,15 @@
 // through the same disclosure plan.
 
 #include <cstddef>
+#include <memory>
 #include <optional>
 #include <string>
 #include <utility>
 #include <vector>
 
 #include "core/data/cohort.h"
+#include "core/imputation/imputed_validation.h"
+#include "core/imputation/missing_patterns.h"
 #include "core/metrics/threshold_table.h"  // defaultTableThresholds
 #include "core/metrics/validation.h"
 #include "core/model/model.h"
@@ -71,6 +74,9 @@ struct AuditReportInput {
   // study); absent for a run from command-line options.
   std::optional<FileFingerprint> studyFile;
   ReportSignOff signOff;
+  // Which analysed columns are missing together; with stacked imputed copies, their pooling.
+  MissingPatternReport missingPatterns;
+  std::shared_ptr<const ImputedValidation> imputed;
 };
 
 enum class CellAlign { Left, Right };

@@ -12,6 +12,8 @@ AuditReportInput auditInputFromRun(const ValidationRun& run, const std::string& 
   input.cohortFile = {run.request.dataPath, run.dataSha256};
   input.analysedSha256 = run.analysedSha256;
   input.exclusions = run.cohort.exclusions;
+  input.missingPatterns = run.missingPatterns;
+  input.imputed = run.imputed;
   if (run.model) {
     input.model = *run.model;
     input.modelFile = {run.request.modelPath.value_or(""), run.modelSha256};

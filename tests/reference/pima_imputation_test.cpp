@@ -94,5 +94,26 @@ TEST(PimaImputationReference, CsvTablesCarryThePooledMeasuresAndPatterns) {
   EXPECT_TRUE(std::filesystem::exists(dir.file("tables/imputed_decision_curve.csv")));
 }
 
+#ifdef CALIVERA_HAVE_PDF  // a build without the UI has no PDF writer
+TEST(PimaImputationReference, ReportShowsPatternsMergedUnderSuppressionAndThePooledTable) {
+  const testing::TempDir dir("pima_imputation_pdf");
+  const std::string pdf = dir.file("report.pdf");
+  const testing::CliRun run = testing::runCalivera(
+      {"validate", "--data", referencePath("pima_tr2_imputed.csv"), "--outcome", "diabetic",
+       "--model", referencePath("pima_imputation_model.json"), "--imputation-column", ".imp",
+       "--pdf", pdf, "--suppress-below", "11"});
+  ASSERT_EQ(run.status, 0) << run.err;
+  const std::string text = testing::pdfText(pdf);
+  EXPECT_NE(text.find("Columns missing together"), std::string::npos);
+  // Pima.tr2's small patterns (skin and bmi: 2, bmi: 1, bp: 1) make 4 < 11 rows, so the
+  // smallest other incomplete pattern (bp and skin: 12) joins them: 16 rows, 4 patterns.
+  EXPECT_NE(text.find("4 other patterns together"), std::string::npos) << text;
+  const std::size_t table = text.find("Columns missing together");
+  EXPECT_EQ(text.find("bp, skin", table), std::string::npos);
+  EXPECT_NE(text.find("Complete cases and imputed copies pooled"), std::string::npos);
+  EXPECT_NE(text.find("pooled by Rubin's rules"), std::string::npos);
+}
+#endif
+
 }  // namespace
 }  // namespace calivera
