@@ -17,14 +17,6 @@ std::string patternName(const MissingPattern& p) {
   return names;
 }
 
-std::string measureName(const std::string& key) {
-  if (key == "c_statistic") return "c-statistic";
-  if (key == "oe_ratio") return "O/E ratio";
-  if (key == "calibration_intercept") return "Calibration intercept";
-  if (key == "calibration_slope") return "Calibration slope";
-  return "Brier score";
-}
-
 double completeCaseValue(const ValidationResult& r, const std::string& key, Interval& ci) {
   if (key == "c_statistic") {
     ci = r.discrimination.aucCi;
@@ -139,12 +131,12 @@ void addPooled(const AuditReportInput& input, std::vector<ReportBlock>& blocks) 
     const std::string completeText =
         std::isfinite(ci.lo) ? formatWithCi(complete, ci, 3) : formatFixed(complete, 3);
     if (!m.problem.empty()) {
-      table.rows.push_back({measureName(m.key), completeText, "not pooled", "", ""});
+      table.rows.push_back({imputedMeasureLabel(m.key), completeText, "not pooled", "", ""});
       continue;
     }
-    table.rows.push_back({measureName(m.key), completeText, formatWithCi(m.estimate, m.ci, 3),
-                          formatPercent(m.rubin.fractionMissingInformation, 1),
-                          formatFixed(m.rubin.df, 0)});
+    table.rows.push_back(
+        {imputedMeasureLabel(m.key), completeText, formatWithCi(m.estimate, m.ci, 3),
+         formatPercent(m.rubin.fractionMissingInformation, 1), formatFixed(m.rubin.df, 0)});
   }
   table.note =
       "Missing information: the fraction of the pooled variance due to the missing "

@@ -23,14 +23,6 @@ std::string number(double value, int digits = 3) {
   return buffer;
 }
 
-const char* measureLabel(const std::string& key) {
-  if (key == "c_statistic") return "c-statistic";
-  if (key == "oe_ratio") return "O/E ratio";
-  if (key == "calibration_intercept") return "Calibration intercept";
-  if (key == "calibration_slope") return "Calibration slope";
-  return "Brier score";
-}
-
 }  // namespace
 
 json missingDataJson(const ValidationRun& run) {
@@ -124,7 +116,7 @@ std::string missingDataSummaryText(const ValidationRun& run) {
       << "', " << imputed.n << " patients each; Rubin's rules, "
       << "Barnard-Rubin df)\n";
   for (const PooledImputedMeasure& m : imputed.pooled) {
-    out << "  " << measureLabel(m.key) << ": ";
+    out << "  " << imputedMeasureLabel(m.key) << ": ";
     if (!m.problem.empty()) {
       out << "not pooled: " << m.problem << "\n";
       continue;

@@ -19,13 +19,20 @@ using nlohmann::json;
 using testing::referencePath;
 using testing::relativeDifference;
 
+// validate on the stacked Pima.tr2 copies with the Pima.te model, plus `extra` options.
+testing::CliRun validatePima(const std::vector<std::string>& extra) {
+  std::vector<std::string> words{
+      "validate", "--data",  referencePath("pima_tr2_imputed.csv"),       "--outcome",
+      "diabetic", "--model", referencePath("pima_imputation_model.json"), "--imputation-column",
+      ".imp"};
+  words.insert(words.end(), extra.begin(), extra.end());
+  return testing::runCalivera(words);
+}
+
 TEST(PimaImputationReference, PooledMeasuresMatchRubinsRulesInR) {
   const testing::TempDir dir("pima_imputation");
   const std::string out = dir.file("pooled.json");
-  const testing::CliRun run = testing::runCalivera(
-      {"validate", "--data", referencePath("pima_tr2_imputed.csv"), "--outcome", "diabetic",
-       "--model", referencePath("pima_imputation_model.json"), "--imputation-column", ".imp",
-       "--json", out});
+  const testing::CliRun run = validatePima({"--json", out});
   ASSERT_EQ(run.status, 0) << run.err;
   const json got = json::parse(testing::readWhole(out));
   const json reference = json::parse(testing::readWhole(referencePath("pima_imputation.json")));
@@ -61,9 +68,7 @@ TEST(PimaImputationReference, PooledMeasuresMatchRubinsRulesInR) {
 }
 
 TEST(PimaImputationReference, SummaryNamesThePatternsAndThePooledMeasures) {
-  const testing::CliRun run = testing::runCalivera(
-      {"validate", "--data", referencePath("pima_tr2_imputed.csv"), "--outcome", "diabetic",
-       "--model", referencePath("pima_imputation_model.json"), "--imputation-column", ".imp"});
+  const testing::CliRun run = validatePima({});
   ASSERT_EQ(run.status, 0) << run.err;
   // MASS::Pima.tr2: 98 records lack skin (84 of them skin alone).
   EXPECT_NE(run.out.find("  skin: 84 rows, 29 / 84"), std::string::npos) << run.out;
@@ -76,10 +81,7 @@ TEST(PimaImputationReference, SummaryNamesThePatternsAndThePooledMeasures) {
 
 TEST(PimaImputationReference, CsvTablesCarryThePooledMeasuresAndPatterns) {
   const testing::TempDir dir("pima_imputation_csv");
-  const testing::CliRun run = testing::runCalivera(
-      {"validate", "--data", referencePath("pima_tr2_imputed.csv"), "--outcome", "diabetic",
-       "--model", referencePath("pima_imputation_model.json"), "--imputation-column", ".imp",
-       "--csv-dir", dir.file("tables")});
+  const testing::CliRun run = validatePima({"--csv-dir", dir.file("tables")});
   ASSERT_EQ(run.status, 0) << run.err;
   const auto pooled = testing::readColumns(dir.file("tables/pooled_imputations.csv"));
   const json reference = json::parse(testing::readWhole(referencePath("pima_imputation.json")));
@@ -98,10 +100,7 @@ TEST(PimaImputationReference, CsvTablesCarryThePooledMeasuresAndPatterns) {
 TEST(PimaImputationReference, ReportShowsPatternsMergedUnderSuppressionAndThePooledTable) {
   const testing::TempDir dir("pima_imputation_pdf");
   const std::string pdf = dir.file("report.pdf");
-  const testing::CliRun run = testing::runCalivera(
-      {"validate", "--data", referencePath("pima_tr2_imputed.csv"), "--outcome", "diabetic",
-       "--model", referencePath("pima_imputation_model.json"), "--imputation-column", ".imp",
-       "--pdf", pdf, "--suppress-below", "11"});
+  const testing::CliRun run = validatePima({"--pdf", pdf, "--suppress-below", "11"});
   ASSERT_EQ(run.status, 0) << run.err;
   const std::string text = testing::pdfText(pdf);
   EXPECT_NE(text.find("Columns missing together"), std::string::npos);
