@@ -469,6 +469,10 @@ QWidget* MainWindow::buildTablesTab() {
   connect(thresholdTable_, &QTableView::activated, this, moveThresholdTo);
   tabs->addTab(thresholdTable_, tr("Threshold trade-offs"));
   tabs->addTab(hlTable_, tr("Calibration groups (Hosmer-Lemeshow)"));
+  missingModel_ = new RecordTableModel(this);
+  missingModel_->setObjectName(QStringLiteral("missingPatternsModel"));
+  tabs->addTab(makeTableView(QStringLiteral("missingPatternsTable"), missingModel_, nullptr),
+               tr("Missing values by pattern"));
   return tabs;
 }
 

@@ -171,6 +171,7 @@ class MainWindow : public QMainWindow {
   SitesView* sitesView_ = nullptr;
   RecordTableModel* thresholdModel_ = nullptr;
   RecordTableModel* hlModel_ = nullptr;
+  RecordTableModel* missingModel_ = nullptr;  // the analysed columns missing together
   RecordTableModel* coefficientModel_ = nullptr;
   QSortFilterProxyModel* thresholdProxy_ = nullptr;
   QTableView* thresholdTable_ = nullptr;

@@ -29,6 +29,7 @@
 #include "core/data/package_file_reader.h"
 #include "core/model/model_io.h"
 #include "core/report/audit_report.h"
+#include "core/report/missing_table.h"
 #include "core/study/study_file.h"
 #include "core/study/study_uncertainty.h"
 #include "core/util/errors.h"
@@ -88,6 +89,7 @@ void MainWindow::rebuildViews() {
     for (ChartPanel* p : {roc_, calibration_, decision_, distribution_}) p->setLinkedChart(nullptr);
     thresholdModel_->setTable({}, {}, {});
     hlModel_->setTable({}, {}, {});
+    missingModel_->setTable({}, {}, {});
     confusion_->clear();
   } else {
     auto* roc = new charts::RocChart(r->discrimination);
@@ -101,6 +103,8 @@ void MainWindow::rebuildViews() {
     distribution_->setLinkedChart(new charts::DistributionChart(r->distribution));
     showResultTable(*thresholdModel_, thresholdTable(*r));
     showResultTable(*hlModel_, hosmerLemeshowTable(r->hosmerLemeshow));
+    if (study().run)
+      showResultTable(*missingModel_, missingPatternsTable(study().run->missingPatterns));
   }
   if (study().model) {
     fillCoefficientTable(*coefficientModel_, *study().model);

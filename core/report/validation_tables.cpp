@@ -6,6 +6,7 @@
 
 #include "core/present/measures.h"
 #include "core/report/csv_text.h"
+#include "core/report/missing_table.h"
 #include "core/report/result_table.h"
 #include "core/util/errors.h"
 #include "core/util/output_transaction.h"
@@ -83,23 +84,6 @@ std::string warningsCsv(const ValidationRun& run) {
   return csv.str();
 }
 
-std::string missingPatternsCsv(const MissingPatternReport& report) {
-  CsvText csv({"missing_columns", "rows", "outcome_known", "events"});
-  for (const MissingPattern& p : report.patterns) {
-    std::string names;
-    for (const std::string& c : p.missingColumns) names += (names.empty() ? "" : "; ") + c;
-    csv.field(names).count(p.rows).count(p.outcomeKnown).count(p.events).end();
-  }
-  if (report.otherPatterns > 0) {
-    csv.field("(" + std::to_string(report.otherPatterns) + " other patterns)")
-        .count(report.othersRows)
-        .field("")
-        .field("")
-        .end();
-  }
-  return csv.str();
-}
-
 std::string pooledCsv(const ImputedValidation& imputed) {
   CsvText csv({"measure", "estimate", "ci_lo", "ci_hi", "scale", "estimate_on_scale",
                "within_variance", "between_variance", "total_variance",
@@ -134,7 +118,7 @@ std::vector<std::pair<std::string, std::string>> validationTables(const Validati
       {"risk_distribution.csv", histogramCsv(r.distribution)},
       {"summary.csv", summaryCsv(run)},
       {"warnings.csv", warningsCsv(run)},
-      {"missing_patterns.csv", missingPatternsCsv(run.missingPatterns)}};
+      {"missing_patterns.csv", tableCsv(missingPatternsTable(run.missingPatterns))}};
   if (run.imputed) {
     tables.emplace_back("pooled_imputations.csv", pooledCsv(*run.imputed));
     tables.emplace_back("imputed_calibration_curve.csv", curveCsv(run.imputed->calibrationCurve));

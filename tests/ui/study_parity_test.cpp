@@ -183,7 +183,7 @@ class StudyParityTest : public QObject {
     const auto cli =
         calivera::testing::runCalivera({"run", path("tables.cvstudy"), "--csv-dir", folder}, 120);
     QVERIFY2(cli.status == 0, cli.err.c_str());
-    for (const char* view : {"thresholdTable", "hosmerLemeshowTable"}) {
+    for (const char* view : {"thresholdTable", "hosmerLemeshowTable", "missingPatternsTable"}) {
       auto* table = w.findChild<QTableView*>(view);
       QVERIFY2(table != nullptr, view);
       const ResultTable* core = coreTableOf(*table->model());

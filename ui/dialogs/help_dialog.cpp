@@ -60,7 +60,8 @@ QString helpGuideHtml() {
                           "sample-size assessment and the warnings."));
   html += row(QObject::tr("Tables"),
               QObject::tr("Threshold trade-offs (one row per threshold; click a row to move the "
-                          "threshold there) and the calibration groups behind Hosmer-Lemeshow. "
+                          "threshold there), the calibration groups behind Hosmer-Lemeshow, and "
+                          "the analysed columns missing together (rows and events per pattern). "
                           "File → Export current table writes the CSV the command line writes."));
   html += row(QObject::tr("Model"),
               QObject::tr("The model's terms, coefficients with Wald intervals and odds ratios, "
