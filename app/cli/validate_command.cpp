@@ -34,6 +34,7 @@ namespace {
 constexpr const char* kHelp =
     "usage: calivera validate --data COHORT.csv --outcome COL (--model MODEL.json | --risk COL)\n"
     "                         [--map VAR=COLUMN] [--map-level VAR:LEVEL=MODEL_LEVEL]\n"
+    "                         [--imputation-column COL | --impute M [--impute-iterations K]]\n"
     "                         [--development-data] [--groups G] [--thresholds "
     "FROM:TO:STEP | T1,T2,...]\n"
     "                         [--json REPORT.json] [--csv-dir DIR]\n"
@@ -59,6 +60,14 @@ constexpr const char* kHelp =
     "                       original data, required; 1..m: the copies, same patients in the\n"
     "                       same order): results on the original data's complete cases, plus\n"
     "                       every copy's validation pooled by Rubin's rules\n"
+    "  --impute M           impute the model's missing predictor values M times (2 to 1000)\n"
+    "                       by chained equations (numbers: predictive mean matching;\n"
+    "                       categories: logistic or multinomial regression; the outcome and\n"
+    "                       every model column in each imputation model; the outcome is never\n"
+    "                       imputed), validate every copy and pool by Rubin's rules; --seed S\n"
+    "                       (default 1) gives the same copies for any --threads\n"
+    "  --impute-iterations K\n"
+    "                       cycles through the incomplete columns (default 10)\n"
     "  --groups G           risk groups for Hosmer-Lemeshow and the calibration table (10)\n"
     "  --thresholds T       FROM:TO:STEP or a list T1,T2,... strictly inside (0, 1)\n"
     "                       (0.01:0.99:0.01); a patient is flagged when risk >= threshold\n"
@@ -124,10 +133,27 @@ std::size_t suppressBelowFrom(const std::string& value) {
 }
 
 void addValidateOptions(OptionSpec& spec) {
-  spec.valued.insert({"--data", "--outcome", "--model", "--risk", "--groups", "--thresholds",
-                      "--map", "--map-level", "--json", "--csv-dir", "--pdf", "--title",
-                      "--analyst", "--reviewer", "--suppress-below", "--paper",
-                      "--reasonable-range", "--report-thresholds", "--imputation-column"});
+  spec.valued.insert({"--data",
+                      "--outcome",
+                      "--model",
+                      "--risk",
+                      "--groups",
+                      "--thresholds",
+                      "--map",
+                      "--map-level",
+                      "--json",
+                      "--csv-dir",
+                      "--pdf",
+                      "--title",
+                      "--analyst",
+                      "--reviewer",
+                      "--suppress-below",
+                      "--paper",
+                      "--reasonable-range",
+                      "--report-thresholds",
+                      "--imputation-column",
+                      "--impute",
+                      "--impute-iterations"});
   spec.flags.insert({"--help", "--development-data"});
   addDataOptions(spec);
   addUncertaintyOptions(spec);  // uncertainty: --bootstrap, --compare, --subgroup, ...
@@ -223,6 +249,29 @@ ValidationRequest validationRequestFrom(const Arguments& arguments) {
   }
   request.developmentData = arguments.has("--development-data");
   request.imputationColumn = arguments.value("--imputation-column");
+  if (const auto m = arguments.value("--impute")) {
+    if (request.imputationColumn) {
+      throw InputError(
+          "--impute: give --impute (copies made here) or --imputation-column "
+          "(copies made elsewhere), not both");
+    }
+    ChainedEquationsOptions impute;
+    const long long copies = parseInteger(*m, "--impute");
+    if (copies < 2 || copies > 1000) throw InputError("--impute: give 2 to 1000 copies");
+    impute.copies = static_cast<int>(copies);
+    if (const auto k = arguments.value("--impute-iterations")) {
+      const long long iterations = parseInteger(*k, "--impute-iterations");
+      if (iterations < 1 || iterations > 1000) {
+        throw InputError("--impute-iterations: give 1 to 1000 iterations");
+      }
+      impute.iterations = static_cast<int>(iterations);
+    }
+    if (const auto seed = seedOption(arguments)) impute.seed = *seed;
+    if (const auto threads = threadsOption(arguments)) impute.threads = *threads;
+    request.impute = impute;
+  } else if (arguments.has("--impute-iterations")) {
+    throw InputError("--impute-iterations: needs --impute M");
+  }
   if (const auto g = arguments.value("--groups")) {
     const long long groups = parseInteger(*g, "--groups");
     if (groups < kGroupsLimit.min || groups > kGroupsLimit.max) {

@@ -41,8 +41,9 @@ void addUncertaintyOptions(OptionSpec& spec) {
 
 const char* uncertaintyOptionsHelp() {
   return "  --bootstrap B           percentile bootstrap 95% CIs and bands from B resamples\n"
-         "  --seed S                bootstrap seed (default 1), reproducible for any --threads\n"
-         "  --threads N             bootstrap threads (default: all cores)\n"
+         "  --seed S                seed of the bootstrap and of --impute (default 1); the same\n"
+         "                          seed gives the same results for any --threads\n"
+         "  --threads N             bootstrap and imputation threads (default: all cores)\n"
          "  --compare MODEL.json    compare a further model on the same patients (repeatable;\n"
          "                          a second --model does the same)\n"
          "  --subgroup COLUMN       every measure per level of COLUMN (repeatable)\n"
@@ -50,6 +51,26 @@ const char* uncertaintyOptionsHelp() {
          "                          by random-effects meta-analysis (REML, HKSJ interval,\n"
          "                          prediction interval for a new site)\n"
          "  --size-thresholds T,..  thresholds for the net-benefit sample-size criterion\n";
+}
+
+std::optional<std::uint64_t> seedOption(const Arguments& args) {
+  const auto s = args.value("--seed");
+  if (!s) return std::nullopt;
+  const long long seed = parseInteger(*s, "--seed");
+  if (seed < kSeedLimit.min || seed > kSeedLimit.max) {
+    throw InputError("--seed: give a whole number from 0 to " + std::to_string(kSeedLimit.max));
+  }
+  return static_cast<std::uint64_t>(seed);
+}
+
+std::optional<unsigned> threadsOption(const Arguments& args) {
+  const auto t = args.value("--threads");
+  if (!t) return std::nullopt;
+  const long long threads = parseInteger(*t, "--threads");
+  if (threads < 1 || threads > kThreadsLimit.max) {
+    throw InputError("--threads: give 1 to " + std::to_string(kThreadsLimit.max));
+  }
+  return static_cast<unsigned>(threads);
 }
 
 UncertaintyRequest uncertaintyRequest(const Arguments& args) {
@@ -62,20 +83,8 @@ UncertaintyRequest uncertaintyRequest(const Arguments& args) {
     }
     request.bootstrapReplicates = static_cast<int>(replicates);
   }
-  if (const auto s = args.value("--seed")) {
-    const long long seed = parseInteger(*s, "--seed");
-    if (seed < kSeedLimit.min || seed > kSeedLimit.max) {
-      throw InputError("--seed: give a whole number from 0 to " + std::to_string(kSeedLimit.max));
-    }
-    request.seed = static_cast<std::uint64_t>(seed);
-  }
-  if (const auto t = args.value("--threads")) {
-    const long long threads = parseInteger(*t, "--threads");
-    if (threads < 1 || threads > kThreadsLimit.max) {
-      throw InputError("--threads: give 1 to " + std::to_string(kThreadsLimit.max));
-    }
-    request.threads = static_cast<unsigned>(threads);
-  }
+  if (const auto seed = seedOption(args)) request.seed = *seed;
+  if (const auto threads = threadsOption(args)) request.threads = *threads;
   const std::vector<std::string> models = args.values("--model");
   for (std::size_t m = 1; m < models.size(); ++m) request.compareModelPaths.push_back(models[m]);
   for (const auto& path : args.values("--compare")) request.compareModelPaths.push_back(path);

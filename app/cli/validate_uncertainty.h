@@ -9,6 +9,7 @@
 //   --subgroup COLUMN      every measure per level of COLUMN (repeatable)
 //   --size-thresholds T,.. thresholds for the net-benefit sample-size criterion
 
+#include <cstdint>
 #include <optional>
 #include <ostream>
 #include <string>
@@ -23,6 +24,11 @@ void addUncertaintyOptions(OptionSpec& spec);
 // Throws InputError naming the option for a bad value. Every --model after the first becomes a
 // comparison model.
 UncertaintyRequest uncertaintyRequest(const Arguments& args);
+
+// --seed and --threads (shared by the bootstrap and --impute); std::nullopt when not given.
+// Throw InputError for a value out of range.
+std::optional<std::uint64_t> seedOption(const Arguments& args);
+std::optional<unsigned> threadsOption(const Arguments& args);
 
 // The first --model (the validated one); std::nullopt without --model.
 std::optional<std::string> primaryModelPath(const Arguments& args);

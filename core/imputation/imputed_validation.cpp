@@ -4,6 +4,7 @@
 #include <cmath>
 #include <iterator>
 #include <map>
+#include <sstream>
 
 #include "core/metrics/validation_run.h"
 #include "core/sites/pooling_scale.h"
@@ -180,6 +181,33 @@ ImputedValidation poolImputedCopies(const std::vector<CopyMeasures>& copies,
     mean.interventionsAvoidedPer100 /= m;
   }
   return out;
+}
+
+std::string imputationMethodText(const std::string& key) {
+  if (key == "predictive_mean_matching") return "predictive mean matching";
+  if (key == "logistic") return "logistic regression";
+  if (key == "multinomial") return "multinomial regression";
+  return key;
+}
+
+std::string imputedCopiesSentence(const ImputedValidation& imputed) {
+  std::ostringstream out;
+  if (imputed.column.empty()) {
+    out << "Pooled over " << imputed.indices.size() << " copies imputed by chained equations ("
+        << imputed.iterations << " iterations, seed " << imputed.seed << "; ";
+    bool first = true;
+    for (const ImputedColumnRecord& c : imputed.imputedColumns) {
+      out << (first ? "" : ", ") << c.column << ": " << c.missing << " values by "
+          << imputationMethodText(c.method);
+      first = false;
+    }
+    out << "), " << imputed.n << " patients each; Rubin's rules, Barnard-Rubin df";
+  } else {
+    out << "Pooled over " << imputed.indices.size() << " imputed copies (column '" << imputed.column
+        << "', " << imputed.n << " patients each; Rubin's rules, "
+        << "Barnard-Rubin df)";
+  }
+  return out.str();
 }
 
 }  // namespace calivera

@@ -1,6 +1,7 @@
 #include "core/metrics/validation_run.h"
 
 #include <algorithm>
+#include <cassert>
 #include <cmath>
 #include <future>
 #include <sstream>
@@ -12,6 +13,7 @@
 #include "core/model/linear_predictor.h"
 #include "core/model/model_io.h"
 #include "core/util/errors.h"
+#include "core/util/indexed_tasks.h"
 #include "core/util/sha256.h"
 #include "core/util/stage_times.h"
 
@@ -223,12 +225,80 @@ std::vector<std::string> analysisColumns(const ValidationRequest& request,
   return columns;
 }
 
+namespace {
+
+// --impute: the complete-case validation of the cohort as read, then `copies` completed copies
+// made by chained equations, each validated (on the worker that made it) and pooled.
+ValidationRun runImputedValidation(const ValidationRequest& request,
+                                   std::shared_ptr<const Table> table, std::string sha) {
+  const ChainedEquationsOptions& impute = *request.impute;
+  assert(impute.isValid());
+  if (request.imputationColumn) {
+    throw InputError(
+        "imputation: copies are either made here or read from an imputation "
+        "column, not both");
+  }
+  if (!request.modelPath && !request.model) {
+    throw InputError(
+        "imputation needs a model: risks read from a column cannot be recomputed "
+        "from imputed predictor values");
+  }
+  ValidationRequest each = request;
+  each.impute.reset();
+  each.options.progress = nullptr;
+  ValidationRun run = runValidation(each, std::move(table), sha);
+  const ChainedEquationsData data =
+      prepareChainedEquations(*run.table, requiredColumns(*run.model), request.outcome);
+  markStage("imputation prepared");
+  // Every copy validates the run's model (its mapping already applied) without reading the file
+  // again; its fingerprint does not enter the pooled results.
+  each.model = run.model;
+  each.modelPath.reset();
+  const PerformanceDecision decision{run.performance == kPerformanceApparent, run.performanceBasis};
+  const auto m = static_cast<std::size_t>(impute.copies);
+  std::vector<CopyMeasures> copies(m);
+  runIndexedTasks(m, impute.threads, request.options.progress, [&](std::size_t k) {
+    const ValidationRun copy =
+        runValidation(each, std::make_shared<const Table>(imputedCopy(*run.table, data, impute, k)),
+                      sha, &decision);
+    if (copy.result.cohort.n != data.rows.size()) {
+      throw InputError(run.table->sourceName + ": imputed copy " + std::to_string(k + 1) +
+                       " analyses " + std::to_string(copy.result.cohort.n) + " of the " +
+                       std::to_string(data.rows.size()) +
+                       " patients with a known outcome: a value the model needs is still "
+                       "unusable after imputation");
+    }
+    copies[k] = copyMeasures(copy, static_cast<long long>(k + 1));
+  });
+  markStage("imputed copies made and validated");
+  ImputedValidation pooled = poolImputedCopies(copies, std::string());
+  pooled.method = "chained_equations";
+  pooled.iterations = impute.iterations;
+  pooled.seed = impute.seed;
+  pooled.donors = impute.donors;
+  for (const std::size_t v : data.incomplete) {
+    const ChainedEquationsData::Variable& variable = data.variables[v];
+    pooled.imputedColumns.push_back(
+        {variable.name, imputationMethodKey(variable.method), variable.missingAt.size()});
+  }
+  run.imputed = std::make_shared<const ImputedValidation>(std::move(pooled));
+  run.request.impute = request.impute;
+  markStage("imputations pooled");
+  return run;
+}
+
+}  // namespace
+
 ValidationRun runValidation(const ValidationRequest& request) {
   std::future<std::string> hash = sha256OfFileInBackground(request.dataPath);
   CohortFileRead read = readCohortFile(request.dataPath, request.csv);
   markStage("cohort parsed");
   std::string sha = hash.get();
   markStage("cohort hashed");
+  if (request.impute) {
+    return runImputedValidation(request, std::make_shared<const Table>(std::move(read.table)),
+                                std::move(sha));
+  }
   if (!request.imputationColumn) {
     return runValidation(request, std::make_shared<const Table>(std::move(read.table)),
                          std::move(sha));
@@ -265,6 +335,7 @@ ValidationRun runValidation(const ValidationRequest& request) {
   markStage("imputed copies validated");
   run.imputed =
       std::make_shared<const ImputedValidation>(poolImputedCopies(copies, stacked.column));
+  run.request.imputationColumn = request.imputationColumn;  // the run as asked for
   markStage("imputations pooled");
   return run;
 }

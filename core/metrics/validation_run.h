@@ -25,6 +25,7 @@
 #include "core/data/cohort_file.h"
 #include "core/data/csv_reader.h"
 #include "core/data/table.h"
+#include "core/imputation/chained_equations.h"
 #include "core/imputation/imputed_validation.h"
 #include "core/imputation/missing_patterns.h"
 #include "core/metrics/validation.h"
@@ -58,6 +59,10 @@ struct ValidationRequest {
   // complete-case results come from the original data (index 0) and the pooled ones from the
   // copies. File route only (runValidation(request)).
   std::optional<std::string> imputationColumn;
+  // Impute the model's missing predictor values here (core/imputation/chained_equations.h):
+  // the complete-case results come from the cohort as read and the pooled ones from the
+  // completed copies. File route and model route only; not with imputationColumn.
+  std::optional<ChainedEquationsOptions> impute;
   ValidationOptions options;  // thresholds empty: the default 0.01..0.99 by 0.01
 };
 
@@ -84,7 +89,8 @@ struct ValidationRun {
   ValidationResult result;  // result.warnings also holds the pipeline's warnings
   // The columns the analysis uses (outcome first), missing together: the missingness report.
   MissingPatternReport missingPatterns;
-  // With request.imputationColumn: the validation of every copy pooled by Rubin's rules.
+  // With request.imputationColumn or request.impute: the validation of every copy pooled by
+  // Rubin's rules.
   std::shared_ptr<const ImputedValidation> imputed;
   std::string softwareVersion;  // CALIVERA_VERSION
 };

@@ -62,7 +62,9 @@ const std::vector<MethodParagraph>& auditMethodParagraphs() {
   return paragraphs;
 }
 
-std::vector<ChecklistItem> auditChecklist(bool apparent, bool subgroups, bool imputed) {
+std::vector<ChecklistItem> auditChecklist(bool apparent, bool subgroups,
+                                          const std::string& imputation) {
+  const bool imputed = !imputation.empty();
   using S = ChecklistStatus;
   return {
       {"Title identifying the study as a validation of a prediction model", S::Covered,
@@ -82,11 +84,15 @@ std::vector<ChecklistItem> auditChecklist(bool apparent, bool subgroups, bool im
       {"Sample size: participants and outcome events", S::Covered,
        "Section 1 (rows read, analysed, events) and the warnings"},
       {"Missing data: how many and how handled", S::Covered,
-       imputed ? "Section 1: rows excluded per column; Section 2, missing data: patterns, "
-                 "complete cases and the imputed copies pooled by Rubin's rules (say how the "
-                 "copies were imputed)"
-               : "Section 1: rows excluded per column (complete-case analysis); Section 2, "
-                 "missing data: the columns missing together, when any are"},
+       imputation == "chained_equations"
+           ? "Section 1: rows excluded per column; Section 2, missing data: patterns, the "
+             "columns imputed by chained equations with their methods, complete cases and the "
+             "imputed copies pooled by Rubin's rules"
+       : imputed ? "Section 1: rows excluded per column; Section 2, missing data: patterns, "
+                   "complete cases and the imputed copies pooled by Rubin's rules (say how the "
+                   "copies were imputed)"
+                 : "Section 1: rows excluded per column (complete-case analysis); Section 2, "
+                   "missing data: the columns missing together, when any are"},
       {apparent ? "Performance on the development data (apparent performance)"
                 : "Type of validation (external, on a new cohort)",
        S::Covered, "Section 1, settings"},

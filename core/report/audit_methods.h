@@ -26,7 +26,8 @@ struct ChecklistItem {
 
 // `apparent`: the cohort is the development data (changes the wording of the validation item).
 // `subgroups`: the report has a subgroup section (the subgroup item is then covered).
+// `imputation`: ImputedValidation::method when the report pools imputed copies, else empty.
 std::vector<ChecklistItem> auditChecklist(bool apparent, bool subgroups = false,
-                                          bool imputed = false);
+                                          const std::string& imputation = {});
 
 }  // namespace calivera

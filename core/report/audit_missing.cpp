@@ -103,14 +103,41 @@ void addPatterns(const AuditReportInput& input, const DisclosurePlan& plan,
   blocks.push_back(reportTable(table));
 }
 
-void addPooled(const AuditReportInput& input, std::vector<ReportBlock>& blocks) {
+// How the copies came about: read from the cohort file, or made here by chained equations.
+std::string copiesOrigin(const ImputedValidation& imputed, const DisclosurePlan& plan) {
+  if (!imputed.column.empty()) {
+    return "The cohort file stacks " + std::to_string(imputed.indices.size()) +
+           " imputed copies of the data (column '" + reportName(imputed.column) + "', " +
+           std::to_string(imputed.n) +
+           " patients in each) under the original data. The results elsewhere in this report are "
+           "the complete cases of the original data; ";
+  }
+  std::string columns;
+  for (std::size_t i = 0; i < imputed.imputedColumns.size(); ++i) {
+    const ImputedColumnRecord& c = imputed.imputedColumns[i];
+    const bool small = plan.active() && c.missing > 0 && c.missing < plan.below();
+    columns += std::string(i == 0                                   ? ""
+                           : i + 1 == imputed.imputedColumns.size() ? " and "
+                                                                    : ", ") +
+               "'" + reportName(c.column) + "' (" +
+               (small ? "<" + std::to_string(plan.below()) : std::to_string(c.missing)) +
+               " values, " + imputationMethodText(c.method) + ")";
+  }
+  return "The missing values of the model's columns were imputed " +
+         std::to_string(imputed.indices.size()) + " times by chained equations (" +
+         std::to_string(imputed.iterations) + " iterations, seed " + std::to_string(imputed.seed) +
+         ") for the " + std::to_string(imputed.n) + " patients with a known outcome: " + columns +
+         ". Each imputation model holds the outcome and every other model column; the outcome "
+         "itself was never imputed. The results elsewhere in this report are the complete cases "
+         "of the cohort as read; ";
+}
+
+void addPooled(const AuditReportInput& input, const DisclosurePlan& plan,
+               std::vector<ReportBlock>& blocks) {
   const ImputedValidation& imputed = *input.imputed;
   blocks.push_back(reportParagraph(
-      "The cohort file stacks " + std::to_string(imputed.indices.size()) +
-      " imputed copies of the data (column '" + reportName(imputed.column) + "', " +
-      std::to_string(imputed.n) +
-      " patients in each) under the original data. The results elsewhere in this report are the "
-      "complete cases of the original data; each copy was validated the same way and the "
+      copiesOrigin(imputed, plan) +
+      "each copy was validated the same way and the "
       "measures below are pooled by Rubin's rules, on the logit scale for the c-statistic and "
       "the log scale for O/E, with Barnard-Rubin degrees of freedom. Hosmer-Lemeshow is a test, "
       "not an estimate: over the copies its statistic ranged from " +
@@ -151,7 +178,7 @@ void addMissingDataSection(const AuditReportInput& input, const DisclosurePlan& 
   if (input.missingPatterns.patterns.size() <= 1 && !input.imputed) return;  // nothing missing
   blocks.push_back(reportHeading("Missing data", 2));
   addPatterns(input, plan, blocks);
-  if (input.imputed) addPooled(input, blocks);
+  if (input.imputed) addPooled(input, plan, blocks);
 }
 
 }  // namespace calivera

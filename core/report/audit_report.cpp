@@ -458,7 +458,8 @@ void addChecklist(const AuditReportInput& input, std::vector<ReportBlock>& block
   table.align = {CellAlign::Left, CellAlign::Left, CellAlign::Left};
   const bool subgroups = input.uncertainty && !input.uncertainty->subgroups.empty();
   for (const ChecklistItem& item :
-       auditChecklist(input.settings.apparent, subgroups, input.imputed != nullptr)) {
+       auditChecklist(input.settings.apparent, subgroups,
+                      input.imputed ? input.imputed->method : std::string())) {
     table.rows.push_back(
         {checklistStatusText(item.status == ChecklistStatus::Covered), item.topic, item.where});
   }

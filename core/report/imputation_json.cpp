@@ -37,19 +37,31 @@ json missingDataJson(const ValidationRun& run) {
                                                         static_cast<double>(p.outcomeKnown))
                                            : json(nullptr)}});
   }
-  json out = {{"method", run.imputed ? run.imputed->method : "complete_case"},
-              {"m", run.imputed ? run.imputed->indices.size() : 0},
-              {"imputation_column", run.imputed ? json(run.imputed->column) : json(nullptr)},
-              {"patterns", patterns},
-              {"other_patterns",
-               {{"patterns", run.missingPatterns.otherPatterns},
-                {"rows", run.missingPatterns.othersRows}}}};
+  json out = {
+      {"method", run.imputed ? run.imputed->method : "complete_case"},
+      {"m", run.imputed ? run.imputed->indices.size() : 0},
+      {"imputation_column",
+       run.imputed && !run.imputed->column.empty() ? json(run.imputed->column) : json(nullptr)},
+      {"patterns", patterns},
+      {"other_patterns",
+       {{"patterns", run.missingPatterns.otherPatterns},
+        {"rows", run.missingPatterns.othersRows}}}};
   if (!run.imputed) {
     out["hosmer_lemeshow_per_imputation"] = nullptr;
     return out;
   }
   const ImputedValidation& imputed = *run.imputed;
   out["imputation_indices"] = imputed.indices;
+  if (imputed.method == "chained_equations") {
+    json columns = json::array();
+    for (const ImputedColumnRecord& c : imputed.imputedColumns) {
+      columns.push_back({{"column", c.column}, {"method", c.method}, {"imputed", c.missing}});
+    }
+    out["chained_equations"] = {{"iterations", imputed.iterations},
+                                {"seed", imputed.seed},
+                                {"donors", imputed.donors},
+                                {"imputed_columns", columns}};
+  }
   out["patients_per_copy"] = imputed.n;
   out["events_per_copy"] = imputed.events;
   out["hosmer_lemeshow_per_imputation"] = {
@@ -112,9 +124,7 @@ std::string missingDataSummaryText(const ValidationRun& run) {
   }
   if (!run.imputed) return out.str();
   const ImputedValidation& imputed = *run.imputed;
-  out << "\nPooled over " << imputed.indices.size() << " imputed copies (column '" << imputed.column
-      << "', " << imputed.n << " patients each; Rubin's rules, "
-      << "Barnard-Rubin df)\n";
+  out << "\n" << imputedCopiesSentence(imputed) << "\n";
   for (const PooledImputedMeasure& m : imputed.pooled) {
     out << "  " << imputedMeasureLabel(m.key) << ": ";
     if (!m.problem.empty()) {
@@ -131,7 +141,9 @@ std::string missingDataSummaryText(const ValidationRun& run) {
       << number(imputed.hosmerLemeshowStatistic.largest, 2) << " (median "
       << number(imputed.hosmerLemeshowStatistic.median, 2) << ") on " << imputed.hosmerLemeshowDf
       << " df\n";
-  out << "  The results above are the complete cases of the original data (index 0).\n";
+  out << (imputed.column.empty()
+              ? "  The results above are the complete cases of the cohort as read.\n"
+              : "  The results above are the complete cases of the original data (index 0).\n");
   return out.str();
 }
 

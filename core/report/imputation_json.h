@@ -3,7 +3,11 @@
 // were handled, the missingness patterns, and with stacked imputations the measures pooled by
 // Rubin's rules. Layout (added keys of `calivera validate --json`; the complete-case results keep
 // their keys):
-//   missing_data {method "complete_case" | "imputed_elsewhere", m, imputation_column | null,
+//   missing_data {method "complete_case" | "imputed_elsewhere" | "chained_equations", m,
+//                 imputation_column | null,
+//                 chained_equations {iterations, seed, donors,
+//                                    imputed_columns [{column, method, imputed}]}
+//                 (chained equations only),
 //                 imputation_indices [..], patients_per_copy, events_per_copy,
 //                 patterns [{missing [col..], rows, outcome_known, events, event_rate}],
 //                 other_patterns {patterns, rows},

@@ -93,6 +93,18 @@ std::vector<std::string> validateCommandWords(const ValidationRequest& validatio
     // The seed fixes every resample whatever the thread count, so threads are not written.
     w.insert(w.end(), {"--seed", std::to_string(uncertainty.seed)});
   }
+  if (validation.impute) {
+    // Copies, iterations and the seed fix every imputed value whatever the thread count.
+    w.insert(w.end(), {"--impute", std::to_string(validation.impute->copies), "--impute-iterations",
+                       std::to_string(validation.impute->iterations)});
+    if (uncertainty.bootstrapReplicates <= 0) {
+      w.insert(w.end(), {"--seed", std::to_string(validation.impute->seed)});
+    } else if (uncertainty.seed != validation.impute->seed) {
+      throw InputError(
+          "the bootstrap and the imputation use different seeds, which one command "
+          "line (one --seed) cannot express");
+    }
+  }
   for (const std::string& path : uncertainty.compareModelPaths) {
     w.insert(w.end(), {"--compare", path});
   }

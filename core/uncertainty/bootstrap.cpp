@@ -1,18 +1,13 @@
 #include "core/uncertainty/bootstrap.h"
 
 #include <algorithm>
-#include <atomic>
-#include <chrono>
 #include <cmath>
-#include <condition_variable>
-#include <exception>
 #include <limits>
-#include <mutex>
 #include <stdexcept>
-#include <thread>
 
 #include "core/metrics/sorted_cohort.h"
 #include "core/util/errors.h"
+#include "core/util/indexed_tasks.h"
 
 namespace calivera {
 namespace {
@@ -50,12 +45,6 @@ std::vector<std::uint32_t> drawResample(std::size_t n, std::uint64_t seed,
   return indices;
 }
 
-unsigned resolveThreadCount(unsigned requested) {
-  if (requested > 0) return requested;
-  const unsigned hardware = std::thread::hardware_concurrency();
-  return hardware > 0 ? hardware : 1;
-}
-
 BootstrapRun runBootstrap(std::size_t n, std::size_t statisticCount,
                           const ReplicateStatistic& statistic, const BootstrapOptions& options) {
   if (options.replicates < 1) throw std::invalid_argument("bootstrap needs at least 1 replicate");
@@ -69,61 +58,21 @@ BootstrapRun runBootstrap(std::size_t n, std::size_t statisticCount,
   std::vector<std::string> failures(replicates);
   std::vector<char> failedFlag(replicates, 0);
 
-  std::atomic<std::size_t> next{0};
-  std::atomic<std::size_t> done{0};
-  std::atomic<bool> stop{false};
-  std::mutex mutex;
-  std::condition_variable finished;
-  std::exception_ptr error;
-
-  const auto work = [&] {
-    while (!stop.load()) {
-      const std::size_t r = next.fetch_add(1);
-      if (r >= replicates) break;
-      try {
-        std::vector<double> values = statistic(drawResample(n, options.seed, r));
-        if (values.size() != statisticCount) {
-          throw std::logic_error("bootstrap statistic returned the wrong number of values");
-        }
-        run.values[r] = std::move(values);
-      } catch (const AnalysisError& failure) {
-        failedFlag[r] = 1;
-        failures[r] = failure.what();
-      } catch (...) {
-        const std::lock_guard lock(mutex);
-        if (!error) error = std::current_exception();
-        stop.store(true);
-      }
-      done.fetch_add(1);
-      finished.notify_one();
-    }
-  };
-
   run.threadsUsed =
-      static_cast<unsigned>(std::min<std::size_t>(resolveThreadCount(options.threads), replicates));
-  std::vector<std::jthread> workers;
-  workers.reserve(run.threadsUsed);
-  for (unsigned t = 0; t < run.threadsUsed; ++t) workers.emplace_back(work);
-
-  // The calling thread only reports progress, so a UI callback never runs on a worker.
-  bool cancelled = false;
-  {
-    std::unique_lock lock(mutex);
-    while (done.load() < replicates && !stop.load()) {
-      finished.wait_for(lock, std::chrono::milliseconds(50));
-      lock.unlock();
-      if (options.progress &&
-          !options.progress(static_cast<double>(done.load()) / static_cast<double>(replicates))) {
-        cancelled = true;
-        stop.store(true);
-      }
-      lock.lock();
-    }
-  }
-  for (auto& worker : workers) worker.join();
-  if (error) std::rethrow_exception(error);
-  if (cancelled) throw Cancelled();
-  reportProgress(options.progress, 1.0);
+      runIndexedTasks(replicates, options.threads, options.progress, [&](std::size_t r) {
+        try {
+          std::vector<double> values = statistic(drawResample(n, options.seed, r));
+          if (values.size() != statisticCount) {
+            throw std::logic_error(
+                "bootstrap statistic returned the wrong number of "
+                "values");
+          }
+          run.values[r] = std::move(values);
+        } catch (const AnalysisError& failure) {
+          failedFlag[r] = 1;
+          failures[r] = failure.what();
+        }
+      });
 
   for (std::size_t r = 0; r < replicates; ++r) {
     if (!failedFlag[r]) continue;

@@ -21,6 +21,7 @@
 #include <string>
 #include <vector>
 
+#include "core/util/indexed_tasks.h"  // resolveThreadCount
 #include "core/util/progress.h"
 
 namespace calivera {
@@ -83,7 +84,5 @@ struct PercentileInterval {
 // Percentile interval (Efron 1979) at `level` (0.95: 2.5% and 97.5% quantiles) of one column.
 PercentileInterval percentileInterval(const BootstrapRun& run, std::size_t statistic,
                                       double level = 0.95);
-
-unsigned resolveThreadCount(unsigned requested);
 
 }  // namespace calivera

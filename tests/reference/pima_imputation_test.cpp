@@ -6,6 +6,7 @@
 // tests/reference/data/pima_imputation.json).
 #include <gtest/gtest.h>
 
+#include <cmath>
 #include <filesystem>
 #include <nlohmann/json.hpp>
 
@@ -38,6 +39,8 @@ TEST(PimaImputationReference, PooledMeasuresMatchRubinsRulesInR) {
   const json reference = json::parse(testing::readWhole(referencePath("pima_imputation.json")));
   EXPECT_EQ(got["missing_data"]["method"], "imputed_elsewhere");
   EXPECT_EQ(got["missing_data"]["m"], 5);
+  EXPECT_EQ(got["missing_data"]["imputation_column"], ".imp");
+  EXPECT_EQ(got["settings"]["imputation_column"], ".imp");
   EXPECT_EQ(got["missing_data"]["patients_per_copy"], 300);
   // The complete-case results keep their keys: Pima.tr2's 200 complete records.
   EXPECT_EQ(got["cohort"]["n"], reference["complete_cases"]);
@@ -96,6 +99,117 @@ TEST(PimaImputationReference, CsvTablesCarryThePooledMeasuresAndPatterns) {
   EXPECT_TRUE(std::filesystem::exists(dir.file("tables/imputed_decision_curve.csv")));
 }
 
+// --- Calivera's own imputation (validate --impute) on the same cohort -------------------------
+// Reference: mice with m = 100 copies (tests/reference/scripts/pima_mice_reference.R,
+// tests/reference/data/pima_mice_reference.json), pooled by the same Rubin's rules.
+
+testing::CliRun imputePima(const std::vector<std::string>& extra) {
+  std::vector<std::string> words{"validate",
+                                 "--data",
+                                 referencePath("pima_tr2.csv"),
+                                 "--outcome",
+                                 "diabetic",
+                                 "--model",
+                                 referencePath("pima_imputation_model.json")};
+  words.insert(words.end(), extra.begin(), extra.end());
+  return testing::runCalivera(words);
+}
+
+json imputePimaJson(const std::vector<std::string>& extra, const std::string& name) {
+  const testing::TempDir dir(name);
+  const std::string out = dir.file("imputed.json");
+  std::vector<std::string> words = extra;
+  words.insert(words.end(), {"--json", out});
+  const testing::CliRun run = imputePima(words);
+  EXPECT_EQ(run.status, 0) << run.err;
+  return run.status == 0 ? json::parse(testing::readWhole(out)) : json();
+}
+
+TEST(PimaImputationReference, ChainedEquationsAgreeWithMiceWithinMonteCarloError) {
+  constexpr int kCopies = 100;
+  const json got =
+      imputePimaJson({"--impute", std::to_string(kCopies), "--seed", "5"}, "pima_chained");
+  ASSERT_TRUE(got.is_object());
+  const json reference = json::parse(testing::readWhole(referencePath("pima_mice_reference.json")));
+  const json& missing = got["missing_data"];
+  EXPECT_EQ(missing["method"], "chained_equations");
+  EXPECT_EQ(missing["m"], kCopies);
+  EXPECT_TRUE(missing["imputation_column"].is_null());
+  EXPECT_EQ(missing["patients_per_copy"], 300);
+  // MASS::Pima.tr2: bp missing in 13 records, skin in 98, bmi in 3; numbers all.
+  const json& columns = missing["chained_equations"]["imputed_columns"];
+  ASSERT_EQ(columns.size(), 3u);
+  EXPECT_EQ(columns[0],
+            json({{"column", "bp"}, {"method", "predictive_mean_matching"}, {"imputed", 13}}));
+  EXPECT_EQ(columns[1]["imputed"], 98);
+  EXPECT_EQ(columns[2]["imputed"], 3);
+  EXPECT_EQ(got["cohort"]["n"], 200);  // the complete-case results keep their keys
+  for (const auto& [measure, expected] : reference["pooled"].items()) {
+    const json& pooled = got["pooled"][measure];
+    ASSERT_TRUE(pooled.is_object()) << measure;
+    // Two independent Monte Carlo estimates of one pooled value: their difference has standard
+    // error sqrt(B_ours / m_ours + B_mice / m_mice); 4 standard errors.
+    const double ours = pooled["estimate_on_scale"].get<double>();
+    const double theirs = expected["estimate_on_scale"].get<double>();
+    const double error = std::sqrt(pooled["between_variance"].get<double>() / kCopies +
+                                   std::pow(expected["monte_carlo_se"].get<double>(), 2));
+    EXPECT_LT(std::abs(ours - theirs), 4.0 * error)
+        << measure << ": " << ours << " vs mice " << theirs << ", error " << error;
+    // The within-imputation variance hardly depends on the imputations; between-imputation
+    // variance and the fraction of missing information are themselves estimates from m copies:
+    // within a factor of two of mice's (common practice for a Monte Carlo check).
+    EXPECT_LT(relativeDifference(pooled["within_variance"].get<double>(),
+                                 expected["within_variance"].get<double>()),
+              0.02)
+        << measure;
+    const double ratio =
+        pooled["between_variance"].get<double>() / expected["between_variance"].get<double>();
+    EXPECT_GT(ratio, 0.5) << measure;
+    EXPECT_LT(ratio, 2.0) << measure;
+  }
+}
+
+TEST(PimaImputationReference, ChainedEquationsGiveTheSameResultsOnOneOrTwoThreads) {
+  const json one = imputePimaJson({"--impute", "6", "--seed", "11", "--threads", "1"}, "pima_t1");
+  const json two = imputePimaJson({"--impute", "6", "--seed", "11", "--threads", "2"}, "pima_t2");
+  ASSERT_TRUE(one.is_object() && two.is_object());
+  EXPECT_EQ(one["pooled"], two["pooled"]);
+  EXPECT_EQ(one["missing_data"], two["missing_data"]);
+  const json other = imputePimaJson({"--impute", "6", "--seed", "12"}, "pima_seed12");
+  EXPECT_NE(one["pooled"]["c_statistic"]["per_imputation"],
+            other["pooled"]["c_statistic"]["per_imputation"]);
+}
+
+TEST(PimaImputationReference, ChainedEquationsSummaryAndReproduceLine) {
+  const testing::CliRun run = imputePima({"--impute", "3", "--impute-iterations", "4"});
+  ASSERT_EQ(run.status, 0) << run.err;
+  EXPECT_NE(run.out.find("Pooled over 3 copies imputed by chained equations (4 iterations, seed "
+                         "1; bp: 13 values by predictive mean matching"),
+            std::string::npos)
+      << run.out;
+  EXPECT_NE(run.out.find("complete cases of the cohort as read"), std::string::npos);
+  EXPECT_NE(run.out.find("--impute 3 --impute-iterations 4 --seed 1"), std::string::npos);
+}
+
+TEST(PimaImputationReference, ImputeOptionsRefuseWhatCannotWork) {
+  const auto refused = [](const std::vector<std::string>& extra, const std::string& words) {
+    const testing::CliRun run = imputePima(extra);
+    EXPECT_EQ(run.status, 2) << run.out;
+    EXPECT_NE(run.err.find(words), std::string::npos) << run.err;
+  };
+  refused({"--impute", "1"}, "--impute: give 2 to 1000 copies");
+  refused({"--impute", "x"}, "--impute");
+  refused({"--impute-iterations", "3"}, "--impute-iterations: needs --impute M");
+  refused({"--impute", "5", "--impute-iterations", "0"}, "give 1 to 1000 iterations");
+  refused({"--impute", "5", "--imputation-column", "npreg"}, "not both");
+  // A cohort without missing values in the model's columns: nothing to impute.
+  const testing::CliRun complete = testing::runCalivera(
+      {"validate", "--data", referencePath("pima_tr.csv"), "--outcome", "diabetic", "--model",
+       referencePath("pima_imputation_model.json"), "--impute", "5"});
+  EXPECT_EQ(complete.status, 2);
+  EXPECT_NE(complete.err.find("nothing to impute"), std::string::npos) << complete.err;
+}
+
 #ifdef CALIVERA_HAVE_PDF  // a build without the UI has no PDF writer
 TEST(PimaImputationReference, ReportShowsPatternsMergedUnderSuppressionAndThePooledTable) {
   const testing::TempDir dir("pima_imputation_pdf");
@@ -111,6 +225,33 @@ TEST(PimaImputationReference, ReportShowsPatternsMergedUnderSuppressionAndThePoo
   EXPECT_EQ(text.find("bp, skin", table), std::string::npos);
   EXPECT_NE(text.find("Complete cases and imputed copies pooled"), std::string::npos);
   EXPECT_NE(text.find("pooled by Rubin's rules"), std::string::npos);
+}
+
+// The text with every run of white space (line breaks of the layout included) as one space.
+std::string oneLine(const std::string& text) {
+  std::string out;
+  for (const char c : text) {
+    const bool space = c == ' ' || c == '\n' || c == '\r' || c == '\t' || c == '\f';
+    if (!space) {
+      out += c;
+    } else if (!out.empty() && out.back() != ' ') {
+      out += ' ';
+    }
+  }
+  return out;
+}
+
+TEST(PimaImputationReference, ReportSaysHowTheCopiesWereImputed) {
+  const testing::TempDir dir("pima_chained_pdf");
+  const std::string pdf = dir.file("report.pdf");
+  const testing::CliRun run = imputePima({"--impute", "3", "--pdf", pdf});
+  ASSERT_EQ(run.status, 0) << run.err;
+  const std::string text = oneLine(testing::pdfText(pdf));
+  EXPECT_NE(text.find("imputed 3 times by chained equations (10 iterations, seed 1)"),
+            std::string::npos)
+      << text;
+  EXPECT_NE(text.find("'skin' (98 values, predictive mean matching)"), std::string::npos);
+  EXPECT_NE(text.find("the outcome itself was never imputed"), std::string::npos);
 }
 #endif
 
