@@ -80,14 +80,6 @@ SpreadOverCopies spread(std::vector<double> values) {
 
 }  // namespace
 
-const char* imputedMeasureLabel(const std::string& key) {
-  if (key == "c_statistic") return "c-statistic";
-  if (key == "oe_ratio") return "O/E ratio";
-  if (key == "calibration_intercept") return "Calibration intercept";
-  if (key == "calibration_slope") return "Calibration slope";
-  return "Brier score";
-}
-
 CopyMeasures copyMeasures(const ValidationRun& run, long long index) {
   CopyMeasures copy;
   copy.index = index;

@@ -26,9 +26,6 @@ struct ValidationRun;
 inline constexpr const char* kImputedMeasureKeys[] = {
     "c_statistic", "oe_ratio", "calibration_intercept", "calibration_slope", "brier"};
 
-// The measure's name as reports print it ("c-statistic", "O/E ratio", ...).
-const char* imputedMeasureLabel(const std::string& key);
-
 struct PooledImputedMeasure {
   static constexpr double kNaN = std::numeric_limits<double>::quiet_NaN();
   std::string key;

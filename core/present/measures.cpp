@@ -102,6 +102,10 @@ const Measure& measureByKey(std::string_view key) {
   return measureCatalog().front();
 }
 
+const Measure& measureOfPooledKey(std::string_view pooledKey) {
+  return measureByKey(pooledKey == "c_statistic" ? std::string_view("auc") : pooledKey);
+}
+
 std::string measureText(const Measure& m, const ValidationResult& r) {
   const double v = m.estimate(r);
   switch (m.format) {

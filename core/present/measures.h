@@ -45,6 +45,10 @@ const std::vector<Measure>& measureCatalog();
 // The catalog's entry for `key`; asserts that it exists (a programmer's error otherwise).
 const Measure& measureByKey(std::string_view key);
 
+// The catalog entry of a measure pooled over imputed copies (the keys of kImputedMeasureKeys,
+// core/imputation/imputed_validation.h, where the catalog's "auc" is "c_statistic").
+const Measure& measureOfPooledKey(std::string_view pooledKey);
+
 // The estimate as printed ("0.712", "< 0.001", "8"); "not defined" for NaN.
 std::string measureText(const Measure& m, const ValidationResult& r);
 // The estimate with its analytic interval when it has one: "0.712 (95% CI 0.631 to 0.785)".

@@ -3,6 +3,7 @@
 #include <algorithm>
 #include <cmath>
 
+#include "core/present/measures.h"
 #include "core/report/audit_blocks.h"
 #include "core/report/audit_format.h"
 
@@ -15,27 +16,6 @@ std::string patternName(const MissingPattern& p) {
   for (const std::string& c : p.missingColumns)
     names += (names.empty() ? "" : ", ") + reportName(c);
   return names;
-}
-
-double completeCaseValue(const ValidationResult& r, const std::string& key, Interval& ci) {
-  if (key == "c_statistic") {
-    ci = r.discrimination.aucCi;
-    return r.discrimination.auc;
-  }
-  if (key == "oe_ratio") {
-    ci = r.calibration.oeCi;
-    return r.calibration.oeRatio;
-  }
-  if (key == "calibration_intercept") {
-    ci = r.calibration.interceptCi;
-    return r.calibration.intercept;
-  }
-  if (key == "calibration_slope") {
-    ci = r.calibration.slopeCi;
-    return r.calibration.slope;
-  }
-  ci = {std::nan(""), std::nan("")};
-  return r.overall.brier;
 }
 
 void addPatterns(const AuditReportInput& input, const DisclosurePlan& plan,
@@ -153,16 +133,17 @@ void addPooled(const AuditReportInput& input, const DisclosurePlan& plan,
   table.align = {CellAlign::Left, CellAlign::Right, CellAlign::Right, CellAlign::Right,
                  CellAlign::Right};
   for (const PooledImputedMeasure& m : imputed.pooled) {
-    Interval ci;
-    const double complete = completeCaseValue(input.result, m.key, ci);
+    const Measure& measure = measureOfPooledKey(m.key);
+    const double complete = measure.estimate(input.result);
     const std::string completeText =
-        std::isfinite(ci.lo) ? formatWithCi(complete, ci, 3) : formatFixed(complete, 3);
+        measure.interval ? formatWithCi(complete, measure.interval(input.result), measure.decimals)
+                         : formatFixed(complete, measure.decimals);
     if (!m.problem.empty()) {
-      table.rows.push_back({imputedMeasureLabel(m.key), completeText, "not pooled", "", ""});
+      table.rows.push_back({measure.label, completeText, "not pooled", "", ""});
       continue;
     }
     table.rows.push_back(
-        {imputedMeasureLabel(m.key), completeText, formatWithCi(m.estimate, m.ci, 3),
+        {measure.label, completeText, formatWithCi(m.estimate, m.ci, measure.decimals),
          formatPercent(m.rubin.fractionMissingInformation, 1), formatFixed(m.rubin.df, 0)});
   }
   table.note =

@@ -4,6 +4,7 @@
 #include <sstream>
 
 #include "core/metrics/json_values.h"
+#include "core/present/measures.h"
 
 namespace calivera {
 
@@ -126,7 +127,7 @@ std::string missingDataSummaryText(const ValidationRun& run) {
   const ImputedValidation& imputed = *run.imputed;
   out << "\n" << imputedCopiesSentence(imputed) << "\n";
   for (const PooledImputedMeasure& m : imputed.pooled) {
-    out << "  " << imputedMeasureLabel(m.key) << ": ";
+    out << "  " << measureOfPooledKey(m.key).label << ": ";
     if (!m.problem.empty()) {
       out << "not pooled: " << m.problem << "\n";
       continue;

@@ -84,25 +84,6 @@ std::string warningsCsv(const ValidationRun& run) {
   return csv.str();
 }
 
-std::string pooledCsv(const ImputedValidation& imputed) {
-  CsvText csv({"measure", "estimate", "ci_lo", "ci_hi", "scale", "estimate_on_scale",
-               "within_variance", "between_variance", "total_variance",
-               "fraction_missing_information", "df", "complete_data_df", "problem"});
-  for (const PooledImputedMeasure& m : imputed.pooled) {
-    csv.field(m.key).num(m.estimate).ci(m.ci).field(m.scale);
-    if (m.problem.empty()) {
-      csv.num(m.rubin.estimate).num(m.rubin.withinVariance).num(m.rubin.betweenVariance);
-      csv.num(m.rubin.totalVariance).num(m.rubin.fractionMissingInformation).num(m.rubin.df);
-      csv.num(m.rubin.completeDataDf).field("");
-    } else {
-      for (int k = 0; k < 7; ++k) csv.field("");
-      csv.field(m.problem);
-    }
-    csv.end();
-  }
-  return csv.str();
-}
-
 }  // namespace
 
 std::vector<std::pair<std::string, std::string>> validationTables(const ValidationRun& run) {
@@ -120,7 +101,8 @@ std::vector<std::pair<std::string, std::string>> validationTables(const Validati
       {"warnings.csv", warningsCsv(run)},
       {"missing_patterns.csv", tableCsv(missingPatternsTable(run.missingPatterns))}};
   if (run.imputed) {
-    tables.emplace_back("pooled_imputations.csv", pooledCsv(*run.imputed));
+    tables.emplace_back("pooled_imputations.csv",
+                        tableCsv(pooledImputationsTable(*run.imputed, r)));
     tables.emplace_back("imputed_calibration_curve.csv", curveCsv(run.imputed->calibrationCurve));
     tables.emplace_back("imputed_decision_curve.csv", decisionCurveCsv(run.imputed->decisionCurve));
   }
