@@ -1,11 +1,24 @@
-# Helpers of the whole-process benchmarks (scripts/bench-whole.sh, scripts/bench-sites.sh),
+# Helpers of the whole-process benchmarks (scripts/bench-whole.sh, bench-sites.sh, bench-impute.sh),
 # sourced by them. The caller sets BIN (calivera), PY (python3), DATA (cohort folder), REPS, OUT
 # (the markdown table) and TMP (a scratch folder it removes).
+#   peer_prerequisites         stops without a built calivera; installs the peer's libraries
 #   cohort ROWS [PREDICTORS]   the synthetic cohort file (bench/whole/make_cohort.py), made once
 #   model COHORT               a model fitted on it with every x column, made once
 #   row WORKLOAD ROWS OURS... -- PEER...
 #                              REPS interleaved runs of each under /usr/bin/time; one table row
 #                              of medians (wall time, peak memory), their ratio and the load
+peer_prerequisites() {  # the built calivera, and the peer's Python libraries (installed as root)
+  [ -x "$BIN" ] || { echo "no $BIN; run scripts/build.sh first" >&2; exit 1; }
+  if ! $PY -c 'import numpy, pandas, scipy, sklearn' 2>/dev/null; then
+    if [ "$(id -u)" = 0 ]; then
+      DEBIAN_FRONTEND=noninteractive apt-get install -y --no-install-recommends \
+        python3-numpy python3-pandas python3-scipy python3-sklearn >/dev/null
+    else
+      echo "the peer needs: apt-get install python3-pandas python3-sklearn" >&2
+      exit 1
+    fi
+  fi
+}
 cohort() {  # rows [predictors]
   local file="$DATA/cohort_$1${2:+p$2}.csv"
   if [ ! -s "$file" ]; then

@@ -23,21 +23,12 @@ PY=/usr/bin/python3
 PEER=bench/whole/peer.py
 OUT=${CALIVERA_BENCH_OUT:-build/bench-whole.md}
 
-[ -x "$BIN" ] || { echo "no $BIN; run scripts/build.sh first" >&2; exit 1; }
-if ! $PY -c 'import numpy, pandas, scipy, sklearn' 2>/dev/null; then
-  if [ "$(id -u)" = 0 ]; then
-    DEBIAN_FRONTEND=noninteractive apt-get install -y --no-install-recommends \
-      python3-numpy python3-pandas python3-scipy python3-sklearn >/dev/null
-  else
-    echo "the peer needs: apt-get install python3-pandas python3-sklearn" >&2
-    exit 1
-  fi
-fi
+# cohort, model, timed, row, peer_prerequisites: shared with the other bench scripts.
+source scripts/bench-lib.sh
+peer_prerequisites
 mkdir -p "$DATA"
 TMP=$(mktemp -d)
 trap 'rm -rf "$TMP"' EXIT
-# cohort, model, timed, row: shared with scripts/bench-sites.sh.
-source scripts/bench-lib.sh
 
 {
   echo "Whole-process benchmark, $(date -u +%Y-%m-%d), $(nproc) cores, $(grep -m1 'model name' /proc/cpuinfo | cut -d: -f2 | xargs),"
