@@ -34,7 +34,8 @@ namespace {
 constexpr const char* kHelp =
     "usage: calivera validate --data COHORT.csv --outcome COL (--model MODEL.json | --risk COL)\n"
     "                         [--map VAR=COLUMN] [--map-level VAR:LEVEL=MODEL_LEVEL]\n"
-    "                         [--imputation-column COL | --impute M [--impute-iterations K]]\n"
+    "                         [--imputation-column COL |\n"
+    "                          --impute M [--impute-iterations K] [--impute-seed S]]\n"
     "                         [--development-data] [--groups G] [--thresholds "
     "FROM:TO:STEP | T1,T2,...]\n"
     "                         [--json REPORT.json] [--csv-dir DIR]\n"
@@ -68,6 +69,8 @@ constexpr const char* kHelp =
     "                       (default 1) gives the same copies for any --threads\n"
     "  --impute-iterations K\n"
     "                       cycles through the incomplete columns (default 10)\n"
+    "  --impute-seed S      seed of the imputation alone, when it differs from the\n"
+    "                       bootstrap's --seed\n"
     "  --groups G           risk groups for Hosmer-Lemeshow and the calibration table (10)\n"
     "  --thresholds T       FROM:TO:STEP or a list T1,T2,... strictly inside (0, 1)\n"
     "                       (0.01:0.99:0.01); a patient is flagged when risk >= threshold\n"
@@ -153,7 +156,8 @@ void addValidateOptions(OptionSpec& spec) {
                       "--report-thresholds",
                       "--imputation-column",
                       "--impute",
-                      "--impute-iterations"});
+                      "--impute-iterations",
+                      "--impute-seed"});
   spec.flags.insert({"--help", "--development-data"});
   addDataOptions(spec);
   addUncertaintyOptions(spec);  // uncertainty: --bootstrap, --compare, --subgroup, ...
@@ -267,11 +271,15 @@ ValidationRequest validationRequestFrom(const Arguments& arguments) {
       impute.iterations = static_cast<int>(iterations);
     }
     if (const auto seed = seedOption(arguments)) impute.seed = *seed;
+    if (const auto seed = seedOption(arguments, "--impute-seed")) impute.seed = *seed;
     if (const auto threads = threadsOption(arguments)) impute.threads = *threads;
     request.impute = impute;
-  } else if (arguments.has("--impute-iterations")) {
-    throw InputError("--impute-iterations: needs --impute M");
+  } else {
+    for (const char* option : {"--impute-iterations", "--impute-seed"}) {
+      if (arguments.has(option)) throw InputError(std::string(option) + ": needs --impute M");
+    }
   }
+  if (const auto threads = threadsOption(arguments)) request.copyThreads = *threads;
   if (const auto g = arguments.value("--groups")) {
     const long long groups = parseInteger(*g, "--groups");
     if (groups < kGroupsLimit.min || groups > kGroupsLimit.max) {

@@ -43,7 +43,8 @@ const char* uncertaintyOptionsHelp() {
   return "  --bootstrap B           percentile bootstrap 95% CIs and bands from B resamples\n"
          "  --seed S                seed of the bootstrap and of --impute (default 1); the same\n"
          "                          seed gives the same results for any --threads\n"
-         "  --threads N             bootstrap and imputation threads (default: all cores)\n"
+         "  --threads N             threads of the bootstrap, the imputation and the stacked\n"
+         "                          copies' validation (default: all cores)\n"
          "  --compare MODEL.json    compare a further model on the same patients (repeatable;\n"
          "                          a second --model does the same)\n"
          "  --subgroup COLUMN       every measure per level of COLUMN (repeatable)\n"
@@ -53,12 +54,12 @@ const char* uncertaintyOptionsHelp() {
          "  --size-thresholds T,..  thresholds for the net-benefit sample-size criterion\n";
 }
 
-std::optional<std::uint64_t> seedOption(const Arguments& args) {
-  const auto s = args.value("--seed");
+std::optional<std::uint64_t> seedOption(const Arguments& args, const std::string& option) {
+  const auto s = args.value(option);
   if (!s) return std::nullopt;
-  const long long seed = parseInteger(*s, "--seed");
+  const long long seed = parseInteger(*s, option);
   if (seed < kSeedLimit.min || seed > kSeedLimit.max) {
-    throw InputError("--seed: give a whole number from 0 to " + std::to_string(kSeedLimit.max));
+    throw InputError(option + ": give a whole number from 0 to " + std::to_string(kSeedLimit.max));
   }
   return static_cast<std::uint64_t>(seed);
 }

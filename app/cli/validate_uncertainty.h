@@ -27,7 +27,8 @@ UncertaintyRequest uncertaintyRequest(const Arguments& args);
 
 // --seed and --threads (shared by the bootstrap and --impute); std::nullopt when not given.
 // Throw InputError for a value out of range.
-std::optional<std::uint64_t> seedOption(const Arguments& args);
+std::optional<std::uint64_t> seedOption(const Arguments& args,
+                                        const std::string& option = "--seed");
 std::optional<unsigned> threadsOption(const Arguments& args);
 
 // The first --model (the validated one); std::nullopt without --model.

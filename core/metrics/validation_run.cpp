@@ -136,8 +136,12 @@ PerformanceDecision decidePerformance(const Model* model, const std::string& dat
   return {false, "risks read from a column; no development record, treated as new data"};
 }
 
-ValidationRun runValidation(const ValidationRequest& request, std::shared_ptr<const Table> table,
-                            std::string dataSha256, const PerformanceDecision* decided) {
+namespace {
+
+// One validation of one table: no imputation (the request's imputation fields are ignored).
+ValidationRun runSingleValidation(const ValidationRequest& request,
+                                  std::shared_ptr<const Table> table, std::string dataSha256,
+                                  const PerformanceDecision* decided) {
   if (!table) throw InputError("no cohort is loaded");
   ValidationRun run;
   run.request = request;
@@ -198,6 +202,8 @@ ValidationRun runValidation(const ValidationRequest& request, std::shared_ptr<co
   return run;
 }
 
+}  // namespace
+
 std::vector<std::string> analysisColumns(const ValidationRequest& request,
                                          const std::vector<std::string>& compareModelPaths,
                                          const std::vector<std::string>& subgroupColumns) {
@@ -230,7 +236,8 @@ namespace {
 // --impute: the complete-case validation of the cohort as read, then `copies` completed copies
 // made by chained equations, each validated (on the worker that made it) and pooled.
 ValidationRun runImputedValidation(const ValidationRequest& request,
-                                   std::shared_ptr<const Table> table, std::string sha) {
+                                   std::shared_ptr<const Table> table, const std::string& sha,
+                                   const PerformanceDecision* decided) {
   const ChainedEquationsOptions& impute = *request.impute;
   assert(impute.isValid());
   if (request.imputationColumn) {
@@ -246,7 +253,7 @@ ValidationRun runImputedValidation(const ValidationRequest& request,
   ValidationRequest each = request;
   each.impute.reset();
   each.options.progress = nullptr;
-  ValidationRun run = runValidation(each, std::move(table), sha);
+  ValidationRun run = runSingleValidation(each, std::move(table), sha, decided);
   const ChainedEquationsData data =
       prepareChainedEquations(*run.table, requiredColumns(*run.model), request.outcome);
   markStage("imputation prepared");
@@ -258,9 +265,9 @@ ValidationRun runImputedValidation(const ValidationRequest& request,
   const auto m = static_cast<std::size_t>(impute.copies);
   std::vector<CopyMeasures> copies(m);
   runIndexedTasks(m, impute.threads, request.options.progress, [&](std::size_t k) {
-    const ValidationRun copy =
-        runValidation(each, std::make_shared<const Table>(imputedCopy(*run.table, data, impute, k)),
-                      sha, &decision);
+    const ValidationRun copy = runSingleValidation(
+        each, std::make_shared<const Table>(imputedCopy(*run.table, data, impute, k)), sha,
+        &decision);
     if (copy.result.cohort.n != data.rows.size()) {
       throw InputError(run.table->sourceName + ": imputed copy " + std::to_string(k + 1) +
                        " analyses " + std::to_string(copy.result.cohort.n) + " of the " +
@@ -287,50 +294,42 @@ ValidationRun runImputedValidation(const ValidationRequest& request,
   return run;
 }
 
-}  // namespace
-
-ValidationRun runValidation(const ValidationRequest& request) {
-  std::future<std::string> hash = sha256OfFileInBackground(request.dataPath);
-  CohortFileRead read = readCohortFile(request.dataPath, request.csv);
-  markStage("cohort parsed");
-  std::string sha = hash.get();
-  markStage("cohort hashed");
-  if (request.impute) {
-    return runImputedValidation(request, std::make_shared<const Table>(std::move(read.table)),
-                                std::move(sha));
-  }
-  if (!request.imputationColumn) {
-    return runValidation(request, std::make_shared<const Table>(std::move(read.table)),
-                         std::move(sha));
-  }
+// --imputation-column: the complete-case validation of the original data (index 0), then every
+// stacked copy validated (in parallel, each copy a table of its own only while it is validated)
+// and pooled.
+ValidationRun runStackedValidation(const ValidationRequest& request, const Table& table,
+                                   const std::string& sha, const PerformanceDecision* decided) {
   const StackedImputations stacked =
-      splitStackedImputations(read.table, *request.imputationColumn, request.outcome.column);
+      splitStackedImputations(table, *request.imputationColumn, request.outcome.column);
   ValidationRequest each = request;
   each.imputationColumn.reset();
   each.options.progress = nullptr;
-  ValidationRun run = runValidation(
-      each, std::make_shared<const Table>(tableRows(read.table, stacked.originalRows)), sha);
+  ValidationRun run = runSingleValidation(
+      each, std::make_shared<const Table>(tableRows(table, stacked.originalRows)), sha, decided);
+  // Every copy validates the run's model (its mapping already applied) without reading the file
+  // again.
+  if (run.model) {
+    each.model = run.model;
+    each.modelPath.reset();
+  }
   const PerformanceDecision decision{run.performance == kPerformanceApparent, run.performanceBasis};
-  std::vector<CopyMeasures> copies;
-  copies.reserve(stacked.copyRows.size());
-  std::vector<std::uint32_t> firstRows;
-  for (std::size_t i = 0; i < stacked.copyRows.size(); ++i) {
-    reportProgress(request.options.progress,
-                   static_cast<double>(i + 1) / static_cast<double>(stacked.copyRows.size() + 1));
-    const ValidationRun copy = runValidation(
-        each, std::make_shared<const Table>(tableRows(read.table, stacked.copyRows[i])), sha,
-        &decision);
-    if (i == 0) {
-      firstRows = copy.cohort.rows;
-    } else if (copy.cohort.rows != firstRows) {
-      throw InputError(copy.table->sourceName + ": imputation " +
-                       std::to_string(stacked.indices[i]) + " analyses " +
-                       std::to_string(copy.result.cohort.n) + " patients, imputation " +
-                       std::to_string(stacked.indices[0]) + " " + std::to_string(firstRows.size()) +
-                       ": a column the analysis needs is still missing in a copy (each copy "
-                       "must be complete)");
-    }
-    copies.push_back(copyMeasures(copy, stacked.indices[i]));
+  const std::size_t m = stacked.copyRows.size();
+  std::vector<CopyMeasures> copies(m);
+  std::vector<std::vector<std::uint32_t>> analysedRows(m);
+  runIndexedTasks(m, request.copyThreads, request.options.progress, [&](std::size_t i) {
+    ValidationRun copy = runSingleValidation(
+        each, std::make_shared<const Table>(tableRows(table, stacked.copyRows[i])), sha, &decision);
+    copies[i] = copyMeasures(copy, stacked.indices[i]);
+    analysedRows[i] = std::move(copy.cohort.rows);
+  });
+  for (std::size_t i = 1; i < m; ++i) {
+    if (analysedRows[i] == analysedRows[0]) continue;
+    throw InputError(table.sourceName + ": imputation " + std::to_string(stacked.indices[i]) +
+                     " analyses " + std::to_string(analysedRows[i].size()) +
+                     " patients, imputation " + std::to_string(stacked.indices[0]) + " " +
+                     std::to_string(analysedRows[0].size()) +
+                     ": a column the analysis needs is still missing in a copy (each copy "
+                     "must be complete)");
   }
   markStage("imputed copies validated");
   run.imputed =
@@ -338,6 +337,26 @@ ValidationRun runValidation(const ValidationRequest& request) {
   run.request.imputationColumn = request.imputationColumn;  // the run as asked for
   markStage("imputations pooled");
   return run;
+}
+
+}  // namespace
+
+ValidationRun runValidation(const ValidationRequest& request, std::shared_ptr<const Table> table,
+                            std::string dataSha256, const PerformanceDecision* decided) {
+  if (!table) throw InputError("no cohort is loaded");
+  if (request.impute) return runImputedValidation(request, std::move(table), dataSha256, decided);
+  if (request.imputationColumn) return runStackedValidation(request, *table, dataSha256, decided);
+  return runSingleValidation(request, std::move(table), std::move(dataSha256), decided);
+}
+
+ValidationRun runValidation(const ValidationRequest& request) {
+  std::future<std::string> hash = sha256OfFileInBackground(request.dataPath);
+  CohortFileRead read = readCohortFile(request.dataPath, request.csv);
+  markStage("cohort parsed");
+  std::string sha = hash.get();
+  markStage("cohort hashed");
+  return runValidation(request, std::make_shared<const Table>(std::move(read.table)),
+                       std::move(sha));
 }
 
 }  // namespace calivera

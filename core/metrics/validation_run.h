@@ -59,6 +59,9 @@ struct ValidationRequest {
   // complete-case results come from the original data (index 0) and the pooled ones from the
   // copies. File route only (runValidation(request)).
   std::optional<std::string> imputationColumn;
+  // Worker threads validating the stacked copies (0: all hardware threads). Every copy's
+  // results are the same whatever the count.
+  unsigned copyThreads = 0;
   // Impute the model's missing predictor values here (core/imputation/chained_equations.h):
   // the complete-case results come from the cohort as read and the pooled ones from the
   // completed copies. File route and model route only; not with imputationColumn.
@@ -129,7 +132,8 @@ std::vector<std::string> analysisColumns(const ValidationRequest& request,
 // AnalysisError (one outcome class, no complete rows; exit 1) or Cancelled.
 ValidationRun runValidation(const ValidationRequest& request);
 
-// The same after the caller loaded the table (the workstation loads it once for its data view).
+// The same after the caller loaded the table (the workstation loads it once for its data view),
+// with the same imputation routes (request.impute, request.imputationColumn).
 // `decided`: apparent or new data as already decided for the cohort this table is part of (an
 // imputed copy takes the original data's decision); then no analysed-data fingerprint is made.
 ValidationRun runValidation(const ValidationRequest& request, std::shared_ptr<const Table> table,

@@ -100,9 +100,7 @@ std::vector<std::string> validateCommandWords(const ValidationRequest& validatio
     if (uncertainty.bootstrapReplicates <= 0) {
       w.insert(w.end(), {"--seed", std::to_string(validation.impute->seed)});
     } else if (uncertainty.seed != validation.impute->seed) {
-      throw InputError(
-          "the bootstrap and the imputation use different seeds, which one command "
-          "line (one --seed) cannot express");
+      w.insert(w.end(), {"--impute-seed", std::to_string(validation.impute->seed)});
     }
   }
   for (const std::string& path : uncertainty.compareModelPaths) {

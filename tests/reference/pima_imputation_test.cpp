@@ -191,6 +191,36 @@ TEST(PimaImputationReference, ChainedEquationsSummaryAndReproduceLine) {
   EXPECT_NE(run.out.find("--impute 3 --impute-iterations 4 --seed 1"), std::string::npos);
 }
 
+TEST(PimaImputationReference, StackedCopiesGiveTheSameResultsOnOneOrTwoThreads) {
+  const testing::TempDir dir("pima_stacked_threads");
+  json got[2];
+  for (int t = 0; t < 2; ++t) {
+    const std::string out = dir.file("t" + std::to_string(t + 1) + ".json");
+    const testing::CliRun run = validatePima({"--threads", std::to_string(t + 1), "--json", out});
+    ASSERT_EQ(run.status, 0) << run.err;
+    got[t] = json::parse(testing::readWhole(out));
+  }
+  EXPECT_EQ(got[0]["pooled"], got[1]["pooled"]);
+  EXPECT_EQ(got[0]["missing_data"], got[1]["missing_data"]);
+}
+
+TEST(PimaImputationReference, ImputationSeedApartFromTheBootstrapSeed) {
+  const json alone = imputePimaJson({"--impute", "4", "--seed", "7"}, "pima_seed7");
+  const json apart = imputePimaJson(
+      {"--impute", "4", "--impute-seed", "7", "--seed", "3", "--bootstrap", "20"}, "pima_apart");
+  ASSERT_TRUE(alone.is_object() && apart.is_object());
+  // The copies depend on the imputation's seed only.
+  EXPECT_EQ(alone["pooled"], apart["pooled"]);
+  EXPECT_EQ(apart["missing_data"]["chained_equations"]["seed"], 7);
+  const testing::CliRun run =
+      imputePima({"--impute", "3", "--impute-seed", "7", "--seed", "3", "--bootstrap", "20"});
+  ASSERT_EQ(run.status, 0) << run.err;
+  EXPECT_NE(run.out.find("--bootstrap 20 --seed 3 --impute 3 --impute-iterations 10 "
+                         "--impute-seed 7"),
+            std::string::npos)
+      << run.out;
+}
+
 TEST(PimaImputationReference, ImputeOptionsRefuseWhatCannotWork) {
   const auto refused = [](const std::vector<std::string>& extra, const std::string& words) {
     const testing::CliRun run = imputePima(extra);
@@ -200,6 +230,8 @@ TEST(PimaImputationReference, ImputeOptionsRefuseWhatCannotWork) {
   refused({"--impute", "1"}, "--impute: give 2 to 1000 copies");
   refused({"--impute", "x"}, "--impute");
   refused({"--impute-iterations", "3"}, "--impute-iterations: needs --impute M");
+  refused({"--impute-seed", "3"}, "--impute-seed: needs --impute M");
+  refused({"--impute", "5", "--impute-seed", "-1"}, "--impute-seed: give a whole number");
   refused({"--impute", "5", "--impute-iterations", "0"}, "give 1 to 1000 iterations");
   refused({"--impute", "5", "--imputation-column", "npreg"}, "not both");
   // A cohort without missing values in the model's columns: nothing to impute.
