@@ -13,6 +13,7 @@ build/bin/main_window_test screenshots >/dev/null
 build/bin/model_tools_test screenshots >/dev/null
 build/bin/site_summaries_window_test screenshots >/dev/null
 build/bin/import_dialog_test screenshots >/dev/null
+build/bin/missing_data_ui_test screenshots >/dev/null
 report=$(mktemp -d)
 trap 'rm -rf "$report"' EXIT
 SOURCE_DATE_EPOCH=1764547200 build/bin/calivera validate --data sample_data/local_cohort.csv --outcome complication_30d \

@@ -308,6 +308,9 @@ void MainWindow::buildMenus() {
   actionUncertainty_ = add(
       analysis, QStringLiteral("actionUncertainty"), tr("&Intervals, comparison and subgroups…"),
       QKeySequence(Qt::CTRL | Qt::SHIFT | Qt::Key_B), &MainWindow::onUncertainty);
+  actionMissingData_ =
+      add(analysis, QStringLiteral("actionMissingData"), tr("&Missing values and imputation…"),
+          QKeySequence(), &MainWindow::onMissingData);
   QAction* reproduce = analysis->addAction(tr("Re&produce on the command line…"));
   reproduce->setObjectName(QStringLiteral("actionReproduce"));
   connect(reproduce, &QAction::triggered, this,
@@ -469,11 +472,39 @@ QWidget* MainWindow::buildTablesTab() {
   connect(thresholdTable_, &QTableView::activated, this, moveThresholdTo);
   tabs->addTab(thresholdTable_, tr("Threshold trade-offs"));
   tabs->addTab(hlTable_, tr("Calibration groups (Hosmer-Lemeshow)"));
+  tabs->addTab(buildMissingDataPage(), tr("Missing data"));
+  return tabs;
+}
+
+QWidget* MainWindow::buildMissingDataPage() {
+  auto* page = new QWidget;
+  page->setObjectName(QStringLiteral("missingDataPage"));
+  auto* layout = new QVBoxLayout(page);
+  missingNote_ = new QLabel;
+  missingNote_->setObjectName(QStringLiteral("missingDataNote"));
+  missingNote_->setWordWrap(true);
+  missingNote_->setTextFormat(Qt::PlainText);  // column names come from the file
+  missingNote_->setTextInteractionFlags(Qt::TextSelectableByMouse);
+  layout->addWidget(missingNote_);
+  auto* patterns = new QLabel(tr("<b>Columns missing together</b> (the analysed columns)"));
+  layout->addWidget(patterns);
   missingModel_ = new RecordTableModel(this);
   missingModel_->setObjectName(QStringLiteral("missingPatternsModel"));
-  tabs->addTab(makeTableView(QStringLiteral("missingPatternsTable"), missingModel_, nullptr),
-               tr("Missing values by pattern"));
-  return tabs;
+  layout->addWidget(makeTableView(QStringLiteral("missingPatternsTable"), missingModel_, nullptr),
+                    1);
+  pooledBox_ = new QWidget;
+  pooledBox_->setObjectName(QStringLiteral("pooledImputationsBox"));
+  auto* pooledLayout = new QVBoxLayout(pooledBox_);
+  pooledLayout->setContentsMargins(0, 0, 0, 0);
+  pooledLayout->addWidget(
+      new QLabel(tr("<b>Complete cases and imputed copies pooled</b> (Rubin's rules)")));
+  pooledModel_ = new RecordTableModel(this);
+  pooledModel_->setObjectName(QStringLiteral("pooledImputationsModel"));
+  pooledLayout->addWidget(
+      makeTableView(QStringLiteral("pooledImputationsTable"), pooledModel_, nullptr), 1);
+  layout->addWidget(pooledBox_, 1);
+  pooledBox_->setVisible(false);
+  return page;
 }
 
 QWidget* MainWindow::buildModelTab() {
@@ -548,6 +579,8 @@ void MainWindow::updateActions() {
   actionCancel_->setEnabled(busy);
   actionUncertainty_->setEnabled(!busy && study.result != nullptr &&
                                  controller_->cohort() != nullptr);
+  actionMissingData_->setEnabled(!busy && study.model.has_value() &&
+                                 controller_->table() != nullptr);
   for (QAction* a : {actionInternal_, actionUpdate_}) {
     a->setEnabled(!busy && study.model.has_value() && controller_->cohort() != nullptr);
   }

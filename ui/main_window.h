@@ -147,6 +147,9 @@ class MainWindow : public QMainWindow {
   void onCopyTable();
   void onExportReport();
   void onUncertainty();
+  void onMissingData();
+  void showMissingData();  // the Missing data table page, from the current run
+  QWidget* buildMissingDataPage();
   void onInternalValidation();  // main_window_model_tools.cpp
   void onUpdateModel();
 
@@ -172,6 +175,9 @@ class MainWindow : public QMainWindow {
   RecordTableModel* thresholdModel_ = nullptr;
   RecordTableModel* hlModel_ = nullptr;
   RecordTableModel* missingModel_ = nullptr;  // the analysed columns missing together
+  RecordTableModel* pooledModel_ = nullptr;   // imputed copies pooled beside complete cases
+  QWidget* pooledBox_ = nullptr;
+  QLabel* missingNote_ = nullptr;  // how missing values were handled
   RecordTableModel* coefficientModel_ = nullptr;
   QSortFilterProxyModel* thresholdProxy_ = nullptr;
   QTableView* thresholdTable_ = nullptr;
@@ -192,6 +198,7 @@ class MainWindow : public QMainWindow {
   QAction* actionRun_ = nullptr;
   QAction* actionCancel_ = nullptr;
   QAction* actionUncertainty_ = nullptr;
+  QAction* actionMissingData_ = nullptr;
   QAction* actionInternal_ = nullptr;
   QAction* actionUpdate_ = nullptr;
   QAction* actionExportCharts_ = nullptr;

@@ -39,6 +39,7 @@
 #include "ui/dialogs/fit_dialog.h"
 #include "ui/dialogs/import_dialog.h"
 #include "ui/dialogs/mapping_dialog.h"
+#include "ui/dialogs/missing_data_dialog.h"
 #include "ui/dialogs/report_print.h"
 #include "ui/dialogs/uncertainty_dialog.h"
 #include "ui/main_window.h"
@@ -90,6 +91,9 @@ void MainWindow::rebuildViews() {
     thresholdModel_->setTable({}, {}, {});
     hlModel_->setTable({}, {}, {});
     missingModel_->setTable({}, {}, {});
+    pooledModel_->setTable({}, {}, {});
+    pooledBox_->setVisible(false);
+    missingNote_->clear();
     confusion_->clear();
   } else {
     auto* roc = new charts::RocChart(r->discrimination);
@@ -103,8 +107,7 @@ void MainWindow::rebuildViews() {
     distribution_->setLinkedChart(new charts::DistributionChart(r->distribution));
     showResultTable(*thresholdModel_, thresholdTable(*r));
     showResultTable(*hlModel_, hosmerLemeshowTable(r->hosmerLemeshow));
-    if (study().run)
-      showResultTable(*missingModel_, missingPatternsTable(study().run->missingPatterns));
+    showMissingData();
   }
   if (study().model) {
     fillCoefficientTable(*coefficientModel_, *study().model);
@@ -462,6 +465,39 @@ void MainWindow::onUncertainty() {
                            study().import.outcomeColumn, this);
   if (dialog.exec() != QDialog::Accepted) return;
   controller_->runUncertainty(dialog.settings());
+}
+
+void MainWindow::showMissingData() {
+  const ValidationRun* run = study().run.get();
+  if (run == nullptr) return;
+  showResultTable(*missingModel_, missingPatternsTable(run->missingPatterns));
+  const ExclusionReport& exclusions = run->cohort.exclusions;
+  QString note = exclusions.rowsExcluded == 0
+                     ? tr("Complete cases: no row lacks a value the analysis uses.")
+                     : tr("Complete cases: %1 of %2 rows are left out of every view but this "
+                          "one for a missing value.")
+                           .arg(exclusions.rowsExcluded)
+                           .arg(exclusions.rowsRead);
+  if (run->imputed) {
+    note += QLatin1Char(' ') + toQ(imputedCopiesSentence(*run->imputed)) +
+            tr(". The charts and other tables show the complete cases.");
+    showResultTable(*pooledModel_, pooledImputationsTable(*run->imputed, run->result));
+  } else {
+    note +=
+        tr(" Analysis → Missing values and imputation… adds results pooled over imputed "
+           "copies.");
+    pooledModel_->setTable({}, {}, {});
+  }
+  missingNote_->setText(note);
+  pooledBox_->setVisible(run->imputed != nullptr);
+}
+
+void MainWindow::onMissingData() {
+  if (!controller_->table()) return;
+  MissingDataDialog dialog(study().missingData, *controller_->table(), study().import.outcomeColumn,
+                           this);
+  if (dialog.exec() != QDialog::Accepted) return;
+  controller_->setMissingData(dialog.settings());
 }
 
 void MainWindow::onOpenStudy() {

@@ -15,6 +15,7 @@ StudySettings settingsOf(const StudyState& study) {
   s.heldValues = study.heldValues;
   s.columnMapping = study.columnMapping;
   s.levelMapping = study.levelMapping;
+  s.missingData = study.missingData;
   return s;
 }
 
@@ -28,6 +29,7 @@ void applySettings(const StudySettings& settings, StudyState& study) {
   study.heldValues = settings.heldValues;
   study.columnMapping = settings.columnMapping;
   study.levelMapping = settings.levelMapping;
+  study.missingData = settings.missingData;
 }
 
 SettingsCommand::SettingsCommand(StudyController* controller, StudySettings before,

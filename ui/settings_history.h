@@ -32,6 +32,7 @@ struct StudySettings {
   std::map<std::string, std::string> heldValues;
   std::map<std::string, std::string> columnMapping;
   std::map<std::string, std::map<std::string, std::string>> levelMapping;
+  MissingDataSettings missingData;
 
   bool operator==(const StudySettings&) const = default;
 };

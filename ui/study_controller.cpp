@@ -73,7 +73,9 @@ bool StudyController::startPipeline(PipelineRequest request, const QString& desc
                                                history](PipelineOutput& out) {
     if (history.clear) undoStack_->clear();
     applyPipeline(out, studyPathOnSuccess, leadNote);
-    if (history.before) recordSettings(*history.before, tr("Variable mapping"));
+    if (history.before) {
+      recordSettings(*history.before, history.text);
+    }
   };
   return job_->start<PipelineOutput>(description, work, done);
 }
@@ -195,8 +197,7 @@ bool StudyController::openInputs(const QString& data, const QString& model,
 
 bool StudyController::loadModelFile(const QString& path) {
   if (!study_.data) {
-    emit message(tr("Import a cohort first (File → Import cohort), then load the model."),
-                 true);
+    emit message(tr("Import a cohort first (File → Import cohort), then load the model."), true);
     return false;
   }
   PipelineRequest request;
@@ -254,7 +255,25 @@ bool StudyController::setColumnMapping(
   request.study.levelMapping = levels;
   request.table = table_;
   return startPipeline(std::move(request), tr("Validating"), {}, {},
-                       RunHistory{false, settingsOf(study_)});
+                       RunHistory{false, settingsOf(study_), tr("Variable mapping")});
+}
+
+bool StudyController::setMissingData(const MissingDataSettings& settings) {
+  if (!settings.isValid()) {
+    emit message(tr("The missing-data settings are out of range."), true);
+    return false;
+  }
+  if (!study_.data) {
+    emit message(tr("Import a cohort first (File → Import cohort)."), true);
+    return false;
+  }
+  PipelineRequest request;
+  request.study = study_;
+  request.study.missingData = settings;
+  request.table = table_;
+  return startPipeline(std::move(request),
+                       settings.imputesHere() ? tr("Imputing and validating") : tr("Validating"),
+                       {}, {}, RunHistory{false, settingsOf(study_), tr("missing-data handling")});
 }
 
 bool StudyController::runValidation() {
@@ -265,7 +284,7 @@ bool StudyController::runValidation() {
   PipelineRequest request;
   request.study = study_;
   request.table = table_;
-  return startPipeline(std::move(request), tr("Validating"), {}, {}, RunHistory{false, {}});
+  return startPipeline(std::move(request), tr("Validating"), {}, {}, RunHistory{false, {}, {}});
 }
 
 bool StudyController::runUncertainty(const UncertaintySettings& settings) {
@@ -365,14 +384,15 @@ bool StudyController::redo() {
 
 void StudyController::restoreSettings(const StudySettings& settings) {
   const StudySettings now = settingsOf(study_);
-  if (settings.columnMapping != now.columnMapping || settings.levelMapping != now.levelMapping) {
-    // A mapping decides which columns are analysed: restore it through a run, keeping the
-    // history (this is the history moving).
+  if (settings.columnMapping != now.columnMapping || settings.levelMapping != now.levelMapping ||
+      settings.missingData != now.missingData) {
+    // A mapping decides which columns are analysed, the missing-data handling what is pooled:
+    // restore them through a run, keeping the history (this is the history moving).
     PipelineRequest request;
     request.study = study_;
     applySettings(settings, request.study);
     request.table = table_;
-    startPipeline(std::move(request), tr("Validating"), {}, {}, RunHistory{false, {}});
+    startPipeline(std::move(request), tr("Validating"), {}, {}, RunHistory{false, {}, {}});
     return;
   }
   StudySettings thresholdOnly = now;

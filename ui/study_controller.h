@@ -38,6 +38,7 @@ class BackgroundJob;
 struct RunHistory {
   bool clear = true;
   std::optional<StudySettings> before;
+  QString text;  // the undo step's name (with `before`)
 };
 
 class StudyController : public QObject {
@@ -65,6 +66,9 @@ class StudyController : public QObject {
   bool setColumnMapping(const std::map<std::string, std::string>& mapping,
                         const std::map<std::string, std::map<std::string, std::string>>& levels);
   bool runValidation();
+  // How missing values are handled (complete cases, stacked copies, copies imputed here): a run
+  // with the new settings, one undoable step; a failing run keeps the current ones.
+  bool setMissingData(const MissingDataSettings& settings);
   // Bootstrap intervals and bands, comparison and subgroups on the current run. Success replaces
   // study().uncertainty and study().uncertaintySettings; cancel or failure keeps the previous
   // results, with a message.

@@ -261,12 +261,16 @@ ValidationRequest validationRequestFrom(const Arguments& arguments) {
     }
     ChainedEquationsOptions impute;
     const long long copies = parseInteger(*m, "--impute");
-    if (copies < 2 || copies > 1000) throw InputError("--impute: give 2 to 1000 copies");
+    if (copies < kImputeCopiesLimit.min || copies > kImputeCopiesLimit.max) {
+      throw InputError("--impute: give " + std::to_string(kImputeCopiesLimit.min) + " to " +
+                       std::to_string(kImputeCopiesLimit.max) + " copies");
+    }
     impute.copies = static_cast<int>(copies);
     if (const auto k = arguments.value("--impute-iterations")) {
       const long long iterations = parseInteger(*k, "--impute-iterations");
-      if (iterations < 1 || iterations > 1000) {
-        throw InputError("--impute-iterations: give 1 to 1000 iterations");
+      if (iterations < kImputeIterationsLimit.min || iterations > kImputeIterationsLimit.max) {
+        throw InputError("--impute-iterations: give " + std::to_string(kImputeIterationsLimit.min) +
+                         " to " + std::to_string(kImputeIterationsLimit.max) + " iterations");
       }
       impute.iterations = static_cast<int>(iterations);
     }

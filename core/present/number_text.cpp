@@ -22,6 +22,8 @@ std::string formatPValue(double p) {
 }
 
 std::string formatRange(double lo, double hi, int decimals) {
+  // No interval at all reads once, not "not defined to not defined".
+  if (std::isnan(lo) && std::isnan(hi)) return kNotDefinedText;
   return formatNumber(lo, decimals) + " to " + formatNumber(hi, decimals);
 }
 

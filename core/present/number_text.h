@@ -7,7 +7,8 @@
 //     empty field (core/metrics/json_values.h, core/report/csv_text.h), never a made-up number;
 //   - infinities are "inf" / "-inf";
 //   - p-values have three decimals with one floor, "< 0.001", so none reads as 0.000;
-//   - intervals are "LO to HI", so a negative bound keeps its sign clear ("-0.41 to -0.17").
+//   - intervals are "LO to HI", so a negative bound keeps its sign clear ("-0.41 to -0.17");
+//     an interval with neither bound is "not defined" once.
 
 #include <string>
 

@@ -19,6 +19,8 @@ inline constexpr IntegerLimit kGroupsLimit{"risk groups", 2, 1000};
 inline constexpr IntegerLimit kBootstrapLimit{"bootstrap resamples", 0, 100000};  // 0: none
 inline constexpr IntegerLimit kThreadsLimit{"threads", 0, 1024};                  // 0: all cores
 inline constexpr IntegerLimit kSeedLimit{"seed", 0, (1LL << 53)};  // exact in a JSON number
+inline constexpr IntegerLimit kImputeCopiesLimit{"imputed copies", 2, 1000};
+inline constexpr IntegerLimit kImputeIterationsLimit{"imputation iterations", 1, 1000};
 inline constexpr IntegerLimit kSuppressBelowLimit{"suppression threshold", 2, 1000};
 // A report title in bytes (the report itself shows at most 80 characters of it).
 inline constexpr std::size_t kMaxReportTitleBytes = 1000;

@@ -159,6 +159,18 @@ StudyRequests studyRequests(const StudyState& study) {
   v.options.groups = study.analysis.groups;
   v.options.thresholds = thresholdRange(0.01, 0.99, 0.01);
   out.uncertainty = uncertaintyRequest(study.uncertaintySettings, nullptr);
+  const MissingDataSettings& missing = study.missingData;
+  if (!missing.isValid()) throw InputError("the study's missing-data settings are out of range");
+  v.copyThreads = study.uncertaintySettings.threads;
+  if (!missing.imputationColumn.empty()) v.imputationColumn = missing.imputationColumn;
+  if (missing.imputesHere()) {
+    ChainedEquationsOptions impute;
+    impute.copies = missing.imputeCopies;
+    impute.iterations = missing.imputeIterations;
+    impute.seed = missing.imputeSeed;
+    impute.threads = study.uncertaintySettings.threads;
+    v.impute = impute;
+  }
   return out;
 }
 

@@ -15,6 +15,7 @@
 #include "core/metrics/validation.h"
 #include "core/metrics/validation_run.h"
 #include "core/model/model.h"
+#include "core/study/limits.h"
 #include "core/uncertainty/uncertainty_run.h"
 
 namespace calivera {
@@ -69,6 +70,31 @@ struct UncertaintySettings {
   }
 };
 
+// How missing values of the model's columns are handled (core/imputation/): complete cases only
+// (the default), imputed copies stacked in the cohort, or copies imputed here by chained
+// equations. Either way the complete-case results stay where they are; the pooled results are
+// added beside them. The workers are uncertaintySettings.threads.
+struct MissingDataSettings {
+  // Not empty: the cohort stacks imputed copies numbered by this column (0: the original data).
+  std::string imputationColumn;
+  int imputeCopies = 0;  // 0: none; else kImputeCopiesLimit (core/study/limits.h)
+  int imputeIterations = 10;
+  std::uint64_t imputeSeed = 1;
+
+  bool imputesHere() const { return imputeCopies > 0; }
+  bool any() const { return imputesHere() || !imputationColumn.empty(); }
+  // Within the limits, and not both routes at once.
+  bool isValid() const {
+    const bool copies = imputeCopies == 0 || (imputeCopies >= kImputeCopiesLimit.min &&
+                                              imputeCopies <= kImputeCopiesLimit.max);
+    const bool iterations = imputeIterations >= kImputeIterationsLimit.min &&
+                            imputeIterations <= kImputeIterationsLimit.max;
+    const bool seed = imputeSeed <= static_cast<std::uint64_t>(kSeedLimit.max);
+    return copies && iterations && seed && !(imputesHere() && !imputationColumn.empty());
+  }
+  bool operator==(const MissingDataSettings&) const = default;
+};
+
 // The PDF report's choices, saved with the study: `calivera run STUDY --pdf` writes the report the
 // workstation's export dialog last wrote for this study (command-line options override each).
 struct ReportSettings {
@@ -95,6 +121,7 @@ struct StudyState {
   std::vector<std::string> predictorView;
   std::map<std::string, std::string> heldValues;
   UncertaintySettings uncertaintySettings;
+  MissingDataSettings missingData;
   ReportSettings report;
 
   // Read, not saved: an input found through its relative path outside the study file's folder

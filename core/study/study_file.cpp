@@ -168,6 +168,11 @@ std::string studyToJson(const StudyState& study, const std::string& studyPath) {
                       {"subgroups", u.subgroupColumns},
                       {"sites", u.clusterColumn},
                       {"sizeThresholds", u.sizeThresholds}};
+  const MissingDataSettings& md = study.missingData;
+  j["missingData"] = {{"imputationColumn", md.imputationColumn},
+                      {"imputeCopies", md.imputeCopies},
+                      {"imputeIterations", md.imputeIterations},
+                      {"imputeSeed", md.imputeSeed}};
   j["report"] = {{"title", study.report.title},
                  {"thresholds", study.report.thresholds},
                  {"suppressBelow", study.report.suppressBelow},
@@ -272,6 +277,25 @@ StudyState parseStudyJson(const std::string& text, const std::string& studyPath)
         in.get<std::vector<double>>(u, "sizeThresholds", "uncertainty.sizeThresholds", {});
     for (double t : out.sizeThresholds) {
       if (!(t > 0.0 && t < 1.0)) in.fail("uncertainty.sizeThresholds", "each must lie in (0, 1)");
+    }
+  }
+  if (j.contains("missingData") && !j.at("missingData").is_null()) {
+    const json& md = in.object(j, "missingData", "missingData");
+    MissingDataSettings& out = s.missingData;
+    out.imputationColumn =
+        in.get<std::string>(md, "imputationColumn", "missingData.imputationColumn", "");
+    const long long copies = in.integer(md, "imputeCopies", "missingData.imputeCopies", 0,
+                                        IntegerLimit{"imputed copies", 0, kImputeCopiesLimit.max});
+    if (copies == 1) in.fail("missingData.imputeCopies", "0 (none) or 2 to 1000 copies");
+    out.imputeCopies = static_cast<int>(copies);
+    out.imputeIterations = static_cast<int>(in.integer(
+        md, "imputeIterations", "missingData.imputeIterations", 10, kImputeIterationsLimit));
+    out.imputeSeed = static_cast<std::uint64_t>(
+        in.integer(md, "imputeSeed", "missingData.imputeSeed", 1, kSeedLimit));
+    if (out.imputesHere() && !out.imputationColumn.empty()) {
+      in.fail("missingData",
+              "imputeCopies and imputationColumn: copies are either made here or "
+              "read from the cohort, not both");
     }
   }
   if (j.contains("report") && !j.at("report").is_null()) {

@@ -52,6 +52,8 @@ std::string validationBasis(const StudyState& study) {
   j["levels"] = study.levelMapping;
   j["groups"] = study.analysis.groups;
   j["apparent"] = study.analysis.apparent;
+  // Stacked copies: the analysed cohort is the original data (index 0), not the whole file.
+  j["imputation_column"] = study.missingData.imputationColumn;
   return j.dump();
 }
 

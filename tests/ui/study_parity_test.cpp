@@ -21,6 +21,7 @@
 #include "core/study/study_file.h"
 #include "core/util/sha256.h"
 #include "render/charts/predictor_charts.h"
+#include "tests/ui/open_study.h"
 #include "tests/ui/pdf_text.h"
 #include "tests/unit/cli_run.h"
 #include "tests/unit/study_fixture.h"
@@ -60,10 +61,7 @@ class StudyParityTest : public QObject {
 
   // Opens the study file in a window and waits for the run.
   void open(MainWindow& w, const StudyState& study, const char* name) {
-    writeStudyFile(path(name), study);
-    QVERIFY(w.controller().openStudy(QString::fromStdString(path(name))));
-    QTRY_VERIFY_WITH_TIMEOUT(!w.controller().job()->isRunning(), 60000);
-    QVERIFY2(w.controller().study().result != nullptr, qPrintable(w.messageText()));
+    calivera::testing::openStudyAndWait(w, study, path(name));
   }
 
   void compareWithCommandLine(const StudyState& windowStudy, const StudyState& saved) {

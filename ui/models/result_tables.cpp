@@ -25,7 +25,9 @@ TableCell count(std::size_t v) {
   return {QString::number(v), static_cast<double>(v)};
 }
 TableCell interval(const Interval& ci, int decimals) {
-  return {QStringLiteral("%1 to %2").arg(fixed(ci.lo, decimals), fixed(ci.hi, decimals)), ci.lo};
+  // The one wording of core/present/number_text.h ("LO to HI"; "not defined" once for none).
+  return {QString::fromStdString(formatRange(ci.lo, ci.hi, decimals)),
+          std::isnan(ci.lo) ? -std::numeric_limits<double>::infinity() : ci.lo};
 }
 TableCell text(const QString& s, std::size_t shownChars) {
   // Names from files (levels, model names) are shown with invisible and bidirectional controls
