@@ -1,21 +1,15 @@
 #include "core/data/cohort.h"
 
 #include <algorithm>
-#include <charconv>
 #include <map>
 
 #include "core/data/csv_field.h"
 #include "core/util/errors.h"
+#include "core/util/number_format.h"
 #include "core/util/shown_text.h"
 
 namespace calivera {
 namespace {
-
-std::string formatNumber(double value) {
-  char buffer[32];
-  const auto [end, error] = std::to_chars(buffer, buffer + sizeof buffer, value);
-  return error == std::errc() ? std::string(buffer, end) : std::string("?");
-}
 
 std::string where(const Table& table, std::size_t row) {
   return table.placeOfRow(row) + ": ";
@@ -47,7 +41,7 @@ std::vector<DistinctValue> distinctValues(const Column& column, std::size_t rowC
     if (value != value) continue;
     DistinctValue& entry = byValue[value];
     if (entry.rows++ == 0) {
-      entry.text = formatNumber(value);
+      entry.text = formatShortest(value);
       entry.firstRow = row;
     }
   }
@@ -96,7 +90,8 @@ std::vector<std::int8_t> eventIndicator(const Table& table, const Column& column
       const double value = column.numbers[row];
       if (value != value) continue;
       if (value != 0.0 && value != 1.0) {
-        throw InputError(where(table, row) + columnText + "outcome value '" + formatNumber(value) +
+        throw InputError(where(table, row) + columnText + "outcome value '" +
+                         formatShortest(value) +
                          "' is not 0 or 1 (give the value that means an event)");
       }
       event[row] = value == 1.0 ? 1 : 0;

@@ -4,7 +4,6 @@
 
 #include <algorithm>
 #include <cctype>
-#include <charconv>
 #include <cmath>
 #include <limits>
 #include <map>
@@ -15,6 +14,7 @@
 
 #include "core/data/csv_field.h"
 #include "core/util/errors.h"
+#include "core/util/number_format.h"
 #include "core/util/shown_text.h"
 
 namespace calivera {
@@ -54,12 +54,6 @@ bool isDateFormat(const std::string& format) {
     if (name.find(word) != std::string::npos) return true;
   }
   return name == "YEAR" || name == "DAY" || name == "MDY";
-}
-
-std::string formatCode(double value) {
-  char buffer[32];
-  const auto [end, error] = std::to_chars(buffer, buffer + sizeof buffer, value);
-  return error == std::errc() ? std::string(buffer, end) : std::string("?");
 }
 
 std::string trimmed(const char* text) {
@@ -199,7 +193,7 @@ bool labelledColumn(const VariableBuffer& buffer, const std::map<double, std::st
     const auto [at, inserted] = codeOfLabel.emplace(*label, code);
     if (!inserted) {
       refusal = "its value label '" + shownText(*label) + "' names two codes (" +
-                formatCode(at->second) + " and " + formatCode(code) +
+                formatShortest(at->second) + " and " + formatShortest(code) +
                 "), and reading both as one category would merge them";
       return true;
     }
@@ -207,7 +201,7 @@ bool labelledColumn(const VariableBuffer& buffer, const std::map<double, std::st
   column.kind = ColumnKind::Text;
   for (const auto& [label, code] : codeOfLabel) {  // byte order of the labels, as CSV's levels
     column.levels.push_back(label);
-    column.levelCodes.push_back(formatCode(code));
+    column.levelCodes.push_back(formatShortest(code));
   }
   std::map<double, std::int32_t> levelOfCode;
   for (std::size_t level = 0; level < column.levels.size(); ++level) {

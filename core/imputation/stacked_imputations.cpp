@@ -1,10 +1,10 @@
 #include "core/imputation/stacked_imputations.h"
 
-#include <charconv>
 #include <cmath>
 #include <map>
 
 #include "core/util/errors.h"
+#include "core/util/number_format.h"
 #include "core/util/shown_text.h"
 
 namespace calivera {
@@ -17,9 +17,7 @@ std::string outcomeText(const Column& column, std::size_t row) {
   if (column.kind == ColumnKind::Text) {
     return column.levels[static_cast<std::size_t>(column.codes[row])];
   }
-  char buffer[32];
-  const auto [end, error] = std::to_chars(buffer, buffer + sizeof buffer, column.numbers[row]);
-  return error == std::errc() ? std::string(buffer, end) : std::string("?");
+  return formatShortest(column.numbers[row]);
 }
 
 }  // namespace

@@ -1,10 +1,10 @@
 #include "core/report/imputation_json.h"
 
-#include <cstdio>
 #include <sstream>
 
 #include "core/metrics/json_values.h"
 #include "core/present/measures.h"
+#include "core/present/number_text.h"
 
 namespace calivera {
 
@@ -16,12 +16,6 @@ json spreadJson(const SpreadOverCopies& s) {
   return {{"smallest", jsonNumber(s.smallest)},
           {"median", jsonNumber(s.median)},
           {"largest", jsonNumber(s.largest)}};
-}
-
-std::string number(double value, int digits = 3) {
-  char buffer[64];
-  std::snprintf(buffer, sizeof buffer, "%.*f", digits, value);
-  return buffer;
 }
 
 }  // namespace
@@ -127,21 +121,23 @@ std::string missingDataSummaryText(const ValidationRun& run) {
   const ImputedValidation& imputed = *run.imputed;
   out << "\n" << imputedCopiesSentence(imputed) << "\n";
   for (const PooledImputedMeasure& m : imputed.pooled) {
-    out << "  " << measureOfPooledKey(m.key).label << ": ";
+    const Measure& measure = measureOfPooledKey(m.key);
+    out << "  " << measure.label << ": ";
     if (!m.problem.empty()) {
       out << "not pooled: " << m.problem << "\n";
       continue;
     }
-    out << number(m.estimate, 4) << " (95% CI " << number(m.ci.lo, 4) << " to "
-        << number(m.ci.hi, 4) << "), fraction of missing information "
-        << number(m.rubin.fractionMissingInformation) << ", df " << number(m.rubin.df, 1)
-        << ", pooled on the " << m.scale << " scale\n";
+    // The measure's own decimals, as everywhere it is printed (core/present/measures.h).
+    out << formatNumber(m.estimate, measure.decimals) << " (95% CI "
+        << formatRange(m.ci.lo, m.ci.hi, measure.decimals) << "), fraction of missing information "
+        << formatNumber(m.rubin.fractionMissingInformation, 3) << ", df "
+        << formatNumber(m.rubin.df, 1) << ", pooled on the " << m.scale << " scale\n";
   }
   out << "  Hosmer-Lemeshow per copy (not pooled): statistic "
-      << number(imputed.hosmerLemeshowStatistic.smallest, 2) << " to "
-      << number(imputed.hosmerLemeshowStatistic.largest, 2) << " (median "
-      << number(imputed.hosmerLemeshowStatistic.median, 2) << ") on " << imputed.hosmerLemeshowDf
-      << " df\n";
+      << formatNumber(imputed.hosmerLemeshowStatistic.smallest, 2) << " to "
+      << formatNumber(imputed.hosmerLemeshowStatistic.largest, 2) << " (median "
+      << formatNumber(imputed.hosmerLemeshowStatistic.median, 2) << ") on "
+      << imputed.hosmerLemeshowDf << " df\n";
   out << (imputed.column.empty()
               ? "  The results above are the complete cases of the cohort as read.\n"
               : "  The results above are the complete cases of the original data (index 0).\n");

@@ -24,6 +24,7 @@
 #include "tests/ui/open_study.h"
 #include "ui/async/background_job.h"
 #include "ui/dialogs/missing_data_dialog.h"
+#include "ui/dialogs/report_export_dialog.h"
 #include "ui/main_window.h"
 #include "ui/study_controller.h"
 
@@ -118,6 +119,12 @@ class MissingDataUiTest : public QObject {
     QCOMPARE(a["pooled"].dump(), b["pooled"].dump());
     QCOMPARE(a["missing_data"].dump(), b["missing_data"].dump());
 
+    // The workstation's report reads the same run: its missing-data part has the pooled results.
+    ReportExportRequest report;
+    report.title = "t";
+    const AuditReportInput input = auditInputFromStudy(study, report);
+    QVERIFY(input.imputed == study.run->imputed);
+
     // Saved and read back with the study.
     QVERIFY(w.controller().saveStudy(QString::fromStdString(path("imputed.cvstudy"))));
     QCOMPARE(readStudyFile(path("imputed.cvstudy")).missingData, settings);
@@ -185,6 +192,9 @@ class MissingDataUiTest : public QObject {
     QVERIFY(QTest::qWaitForWindowExposed(&w));
     QTest::qWait(50);
     QVERIFY(w.grab().save(QString::fromUtf8(folder) + "/missing_data_page.png"));
+    w.findChild<QTabWidget*>("mainTabs")->setCurrentWidget(w.findChild<QWidget*>("summaryPanel"));
+    QTest::qWait(50);
+    QVERIFY(w.grab().save(QString::fromUtf8(folder) + "/missing_data_summary.png"));
     MissingDataDialog dialog(w.controller().study().missingData, *w.controller().table(),
                              "diabetic", &w);
     dialog.show();

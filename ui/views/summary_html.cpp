@@ -157,6 +157,17 @@ QString summaryHtml(const StudyState& study) {
                 reasons.isEmpty() ? QStringLiteral("no missing values in the columns used")
                                   : reasons + QStringLiteral(" (a row may miss several)"));
     html += row(QStringLiteral("Rows analysed"), QString::number(ex.rowsAnalysed));
+    const ImputedValidation* imputed = study.run ? study.run->imputed.get() : nullptr;
+    html += row(QStringLiteral("Missing values"),
+                imputed == nullptr
+                    ? QStringLiteral("complete cases only")
+                    : QStringLiteral("complete cases here; pooled over %1 imputed copies in "
+                                     "Tables → Missing data")
+                          .arg(imputed->indices.size()),
+                imputed == nullptr ? QStringLiteral("Analysis → Missing values and imputation…")
+                                   : esc(imputed->method == "chained_equations"
+                                             ? std::string("imputed here by chained equations")
+                                             : "copies stacked in column " + imputed->column));
   }
   html += QStringLiteral("</table>");
   if (study.model) {
