@@ -9,6 +9,7 @@
 #include <QComboBox>
 #include <QLabel>
 #include <QRadioButton>
+#include <QSignalSpy>
 #include <QSpinBox>
 #include <QTabWidget>
 #include <QTableView>
@@ -152,6 +153,24 @@ class MissingDataUiTest : public QObject {
     const ValidationRun cli = runValidation(studyRequests(study).validation);
     QCOMPARE(nlohmann::json::parse(validationJsonText(*study.run))["pooled"].dump(),
              nlohmann::json::parse(validationJsonText(cli))["pooled"].dump());
+  }
+
+  void cancelledImputationKeepsTheStudy() {
+    MainWindow w;
+    open(w, pimaStudy(kData), "cancel.cvstudy");
+    const auto before = w.controller().study().run;
+    MissingDataSettings settings;
+    settings.imputeCopies = 1000;  // long enough to be running when cancelled
+    settings.imputeIterations = 50;
+    QSignalSpy cancelled(w.controller().job(), &BackgroundJob::cancelled);
+    QVERIFY(w.controller().setMissingData(settings));
+    QVERIFY(w.controller().job()->isRunning());
+    QTest::qWait(100);
+    w.controller().job()->cancel();
+    QTRY_VERIFY_WITH_TIMEOUT(!w.controller().job()->isRunning(), 20000);
+    QCOMPARE(cancelled.count(), 1);
+    QVERIFY(!w.controller().study().missingData.any());
+    QVERIFY(w.controller().study().run == before);
   }
 
   void refusedSettingsChangeNothing() {
