@@ -3,7 +3,6 @@
 #include <Eigen/Dense>
 #include <algorithm>
 #include <boost/math/distributions/chi_squared.hpp>
-#include <boost/sort/spreadsort/float_sort.hpp>
 #include <cmath>
 #include <limits>
 #include <numbers>
@@ -125,17 +124,7 @@ void imputeByMatching(const Eigen::MatrixXd& xObserved, const Eigen::MatrixXd& x
   for (std::size_t i = 0; i < sorted.size(); ++i) {
     sorted[i] = {fitted(static_cast<Eigen::Index>(i)), static_cast<std::uint32_t>(i)};
   }
-  // Boost's radix-based float sort: the same order as std::sort on (fitted, index) pairs (a
-  // strict total order has one sorted sequence), faster on the ~10^5 observed values sorted
-  // again at every step.
-  boost::sort::spreadsort::float_sort(
-      sorted.begin(), sorted.end(),
-      [](const std::pair<double, std::uint32_t>& p, unsigned offset) {
-        return boost::sort::spreadsort::float_mem_cast<double, std::int64_t>(p.first) >> offset;
-      },
-      [](const std::pair<double, std::uint32_t>& a, const std::pair<double, std::uint32_t>& b) {
-        return a < b;
-      });
+  std::sort(sorted.begin(), sorted.end());
   const Eigen::VectorXd predicted = xMissing * drawn;
   const std::size_t pool =
       std::min<std::size_t>(static_cast<std::size_t>(options.donors), sorted.size());
