@@ -5,7 +5,8 @@ set -euo pipefail
 packages=(
   build-essential cmake ninja-build pkg-config
   qt6-base-dev qt6-charts-dev qt6-svg-dev libqt6opengl6-dev libgl1-mesa-dev
-  libeigen3-dev libboost-math-dev nlohmann-json3-dev libssl-dev libreadstat-dev
+  libeigen3-dev libboost-math-dev nlohmann-json3-dev libssl-dev libreadstat-dev libpqxx-dev
+  postgresql-15
   libgtest-dev libgmock-dev
   poppler-utils fonts-dejavu-core
   clang libclang-rt-14-dev

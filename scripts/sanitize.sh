@@ -13,7 +13,7 @@ export UBSAN_OPTIONS=halt_on_error=1:print_stacktrace=1
 cmake -S . -B build-asan -G Ninja -DCMAKE_BUILD_TYPE=None -DCMAKE_CXX_FLAGS="-O1 -g1" \
   -DCALIVERA_SANITIZE=ON \
   -DCALIVERA_BUILD_UI=OFF -DCALIVERA_WERROR=ON >/dev/null
-cmake --build build-asan -j "$jobs" --target calivera calivera_tests
+cmake --build build-asan -j "$jobs" --target calivera calivera_tests calivera_database_tests
 ctest --test-dir build-asan --output-on-failure -j "$jobs"
 
 cmake -S . -B build-asan-ui -G Ninja -DCMAKE_BUILD_TYPE=None -DCMAKE_CXX_FLAGS="-O1 -g1" \

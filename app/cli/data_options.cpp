@@ -1,11 +1,12 @@
 #include "app/cli/data_options.h"
 
+#include "core/data/cohort_source.h"
 #include "core/util/errors.h"
 
 namespace calivera::cli {
 
 void addDataOptions(OptionSpec& spec) {
-  spec.valued.insert({"--delimiter", "--missing", "--event-value"});
+  spec.valued.insert({"--delimiter", "--missing", "--event-value", "--table", "--query"});
 }
 
 CsvOptions csvOptionsFrom(const Arguments& arguments) {
@@ -24,6 +25,18 @@ CsvOptions csvOptionsFrom(const Arguments& arguments) {
     options.missingTokens.push_back(token);
   }
   return options;
+}
+
+std::optional<DatabaseSelection> databaseSelectionFrom(const Arguments& arguments) {
+  std::optional<DatabaseSelection> selection;
+  const auto table = arguments.value("--table");
+  const auto query = arguments.value("--query");
+  if (table || query) {
+    if (table && query) throw InputError("--table, --query: give one of them, not both");
+    selection = DatabaseSelection{table.value_or(""), query.value_or("")};
+  }
+  checkCohortSource(arguments.required("--data"), selection);
+  return selection;
 }
 
 std::optional<std::string> eventValueFrom(const Arguments& arguments) {

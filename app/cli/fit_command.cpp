@@ -8,7 +8,8 @@
 #include <utility>
 
 #include "app/cli/arguments.h"
-#include "core/data/cohort_file.h"
+#include "app/cli/data_options.h"
+#include "core/data/cohort_source.h"
 #include "core/data/csv_reader.h"
 #include "core/fit/cohort_fit.h"
 #include "core/model/model_io.h"
@@ -44,6 +45,8 @@ constexpr const char* kUsage =
     "  --max-iterations N     Newton-Raphson iteration limit (default 100)\n"
     "  --name TEXT            model name stored in the file\n"
     "  --delimiter C          CSV only: ',', ';' or 'tab' (default: detected from the header)\n"
+    "  --table NAME           with --data postgresql://HOST:PORT/DB: fit on this table\n"
+    "  --query 'SELECT ...'   with --data postgresql://HOST:PORT/DB: fit on this query's rows\n"
     "  --missing TOKEN        an extra field value that means missing (repeatable; '' and NA\n"
     "                         always do)\n"
     "  --out FILE             model file to write (JSON, format calivera-model/1)\n"
@@ -137,10 +140,10 @@ void printSummary(const CohortFit& result, const std::string& dataPath) {
 }  // namespace
 
 int runFitCommand(const std::vector<std::string>& words) {
-  const OptionSpec spec{
-      {"--data", "--outcome", "--predictors", "--out", "--reference", "--delimiter", "--missing",
-       "--event-value", "--name", "--categorical", "--max-iterations", "--spline"},
-      {"--firth", "--profile-ci", "--help"}};
+  const OptionSpec spec{{"--data", "--outcome", "--predictors", "--out", "--reference",
+                         "--delimiter", "--missing", "--event-value", "--name", "--categorical",
+                         "--max-iterations", "--spline", "--table", "--query"},
+                        {"--firth", "--profile-ci", "--help"}};
   const Arguments args(words, spec);
   if (args.has("--help")) {
     std::cout << kUsage;
@@ -152,6 +155,7 @@ int runFitCommand(const std::vector<std::string>& words) {
   }
   const std::string dataPath = args.required("--data");
   const std::string outPath = args.required("--out");
+  const std::optional<DatabaseSelection> database = databaseSelectionFrom(args);
   CohortFitSpec fitSpec;
   fitSpec.outcome.column = args.required("--outcome");
   fitSpec.outcome.eventValue = args.value("--event-value");
@@ -199,16 +203,16 @@ int runFitCommand(const std::vector<std::string>& words) {
   csv.onlyColumns = fitSpec.predictors;
   csv.onlyColumns.push_back(fitSpec.outcome.column);
 
-  std::future<std::string> hash = sha256OfFileInBackground(dataPath);
-  CohortFileRead read = readCohortFile(dataPath, csv);
-  const std::string dataSha256 = hash.get();
-  markStage("cohort parsed and hashed");
+  CohortRead read = readCohort(dataPath, database, csv);
   CohortFit result = fitCohortModel(std::move(read.table), fitSpec);
   markStage("fitted");
   Model& model = result.model;
-  model.development.dataSha256 = dataSha256;
-  model.development.description = "fitted by calivera fit on " +
-                                  std::filesystem::path(dataPath).filename().string() + " (" +
+  model.development.dataSha256 = read.sha256;
+  const std::string cohortName =
+      read.database ? "PostgreSQL database " + read.database->database +
+                          (database->table.empty() ? " (query)" : " table " + database->table)
+                    : std::filesystem::path(dataPath).filename().string();
+  model.development.description = "fitted by calivera fit on " + cohortName + " (" +
                                   std::to_string(result.exclusions.rowsAnalysed) + " of " +
                                   std::to_string(result.exclusions.rowsRead) + " rows complete)";
   writeModelFile(outPath, model);

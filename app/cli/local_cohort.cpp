@@ -12,6 +12,7 @@ CohortData loadLocalCohort(const Arguments& args, const std::string& modelPath,
   ValidationRequest request;
   request.dataPath = args.required("--data");
   request.csv = csvOptionsFrom(args);
+  request.database = databaseSelectionFrom(args);
   request.outcome = OutcomeSpec{args.required("--outcome"), eventValueFrom(args)};
   request.modelPath = modelPath;
   request.developmentData = developmentData;
@@ -21,7 +22,8 @@ CohortData loadLocalCohort(const Arguments& args, const std::string& modelPath,
 void printExclusions(std::ostream& out, const CohortData& cohort) {
   const ValidationRun& run = *cohort.run;
   const ExclusionReport& e = run.cohort.exclusions;
-  out << "data: " << run.request.dataPath << " (sha256 " << run.dataSha256 << ")\n"
+  out << "data: " << run.request.dataPath << (run.database ? " (result sha256 " : " (sha256 ")
+      << run.dataSha256 << ")\n"
       << "  " << e.rowsRead << " rows read, " << e.rowsExcluded << " excluded for missing values";
   bool first = true;
   for (const auto& c : e.byColumn) {

@@ -28,7 +28,8 @@ constexpr const char* kHelp =
     "software version and the suppression applied. No patient row, identifier or single\n"
     "patient's value. `calivera pool` combines the summaries of several sites.\n\n"
     "options:\n"
-    "  --site NAME            the site's name in every output (default: the cohort file's name)\n"
+    "  --site NAME            the site's name in every output (default: the cohort file's name,\n"
+    "                         or the database table's; required with --query)\n"
     "  --suppress-below N     withhold threshold counts and group counts with a cell below N,\n"
     "                         merge histogram bins until each holds 0 or >= N of each outcome\n"
     "  --groups G             risk groups (default 10)\n"
@@ -57,8 +58,15 @@ int runSummarizeCommand(const std::vector<std::string>& words) {
   ValidationRequest request = validationRequestFrom(arguments);
   const std::string out = arguments.required("--out");
   SummaryOptions options;
-  options.site =
-      arguments.value("--site").value_or(std::filesystem::path(request.dataPath).stem().string());
+  if (const auto site = arguments.value("--site")) {
+    options.site = *site;
+  } else if (!request.database) {
+    options.site = std::filesystem::path(request.dataPath).stem().string();
+  } else if (!request.database->table.empty()) {
+    options.site = request.database->table;  // a database table names the site as a file does
+  } else {
+    throw InputError("--site: give the site's name (a query has no file name to default to)");
+  }
   if (options.site.empty() || options.site.size() > kMaxSiteNameBytes) {
     throw InputError("--site: give a name of 1 to " + std::to_string(kMaxSiteNameBytes) + " bytes");
   }

@@ -217,6 +217,7 @@ ValidationRequest validationRequestFrom(const Arguments& arguments) {
   request.outcome.column = arguments.required("--outcome");
   request.outcome.eventValue = eventValueFrom(arguments);
   request.csv = csvOptionsFrom(arguments);
+  request.database = databaseSelectionFrom(arguments);
   request.modelPath = primaryModelPath(arguments);  // uncertainty: later --model are compared
   request.riskColumn = arguments.value("--risk");
   if (request.modelPath.has_value() == request.riskColumn.has_value()) {

@@ -1,11 +1,13 @@
 #include "core/data/cohort_file.h"
 
+#include "core/data/database_source.h"
 #include "core/data/package_file_reader.h"
 #include "core/util/errors.h"
 
 namespace calivera {
 
 std::string cohortFileFormat(const std::string& path) {
+  if (isDatabaseUri(path)) return "PostgreSQL";
   PackageFormat format{};
   return packageFormatOf(path, format) ? packageFormatName(format) : std::string("CSV");
 }

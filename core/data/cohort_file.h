@@ -20,7 +20,8 @@ struct CohortFileRead {
   bool hadByteOrderMark = false;
 };
 
-// The format name of a cohort path, by its extension ("CSV" for any other).
+// The format name of a cohort path, by its extension ("CSV" for any other); "PostgreSQL" for a
+// database URI.
 std::string cohortFileFormat(const std::string& path);
 
 // Reads the file by its format. For statistical-package files the CSV options' missing tokens

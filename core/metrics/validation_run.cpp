@@ -7,6 +7,7 @@
 #include <sstream>
 #include <utility>
 
+#include "core/data/cohort_source.h"
 #include "core/imputation/stacked_imputations.h"
 #include "core/model/analysed_fingerprint.h"
 #include "core/model/category_levels.h"
@@ -115,20 +116,22 @@ PerformanceDecision decidePerformance(const Model* model, const std::string& dat
                                       const std::string& analysedSha256,
                                       bool statedDevelopmentData) {
   if (isApparent(model, dataSha256)) {
-    return {true, "the cohort file is the model's development data (SHA-256 match)"};
+    return {true,
+            "the cohort is the model's development data (SHA-256 match of the file, or of the "
+            "database result)"};
   }
   if (isApparent(model, {}, analysedSha256)) {
     return {true,
             "the analysed values are the model's development data (analysed-data fingerprint "
-            "match), although the file's bytes differ"};
+            "match), although the file's bytes or the database result differ"};
   }
   if (statedDevelopmentData) {
     return {true, "stated by the user: the cohort is the model's development data"};
   }
   if (model && (model->development.dataSha256 || model->development.analysedSha256)) {
     return {false,
-            "the cohort differs from the model's development data (file SHA-256 and "
-            "analysed-data fingerprint)"};
+            "the cohort differs from the model's development data (SHA-256 of the file or "
+            "database result, and analysed-data fingerprint)"};
   }
   if (model) {
     return {false, "the model file records no development data SHA-256; treated as new data"};
@@ -350,13 +353,12 @@ ValidationRun runValidation(const ValidationRequest& request, std::shared_ptr<co
 }
 
 ValidationRun runValidation(const ValidationRequest& request) {
-  std::future<std::string> hash = sha256OfFileInBackground(request.dataPath);
-  CohortFileRead read = readCohortFile(request.dataPath, request.csv);
-  markStage("cohort parsed");
-  std::string sha = hash.get();
-  markStage("cohort hashed");
-  return runValidation(request, std::make_shared<const Table>(std::move(read.table)),
-                       std::move(sha));
+  CohortRead read =
+      readCohort(request.dataPath, request.database, request.csv, request.options.progress);
+  ValidationRun run = runValidation(request, std::make_shared<const Table>(std::move(read.table)),
+                                    std::move(read.sha256));
+  run.database = std::move(read.database);
+  return run;
 }
 
 }  // namespace calivera

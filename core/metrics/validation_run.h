@@ -24,6 +24,7 @@
 #include "core/data/cohort.h"
 #include "core/data/cohort_file.h"
 #include "core/data/csv_reader.h"
+#include "core/data/database_source.h"
 #include "core/data/table.h"
 #include "core/imputation/chained_equations.h"
 #include "core/imputation/imputed_validation.h"
@@ -37,7 +38,9 @@ inline constexpr const char* kPerformanceApparent = "apparent";
 inline constexpr const char* kPerformanceNewData = "new data";
 
 struct ValidationRequest {
-  std::string dataPath;
+  std::string dataPath;  // a cohort file, or a PostgreSQL URI when `database` is set
+  // The table or query of a PostgreSQL source (core/data/database_source.h).
+  std::optional<DatabaseSelection> database;
   CsvOptions csv;
   OutcomeSpec outcome;
   std::optional<std::string> modelPath;  // exactly one of modelPath, model and riskColumn
@@ -79,7 +82,10 @@ struct PreparedCohort {
 
 struct ValidationRun {
   ValidationRequest request;  // as given, with options.thresholds filled in
+  // The cohort file's SHA-256, or the database result's fingerprint.
   std::string dataSha256;
+  // A PostgreSQL source: where the rows came from (runValidation(request) only).
+  std::optional<DatabaseProvenance> database;
   // The analysed-data fingerprint (core/model/analysed_fingerprint.h); model route only.
   std::string analysedSha256;
   std::optional<Model> model;          // model route only

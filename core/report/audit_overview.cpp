@@ -34,9 +34,8 @@ void addOverview(const AuditReportInput& input, const AuditDocument& doc,
       reportName(input.model.name.empty() ? fileNameOnly(input.modelFile.name) : input.model.name);
   table.rows.push_back(
       {"What was validated",
-       model + " (" + fileNameOnly(input.modelFile.name) + "), on " +
-           fileNameOnly(input.cohortFile.name) + ": " + plan.rowsAnalysed() + " patients, " +
-           plan.events() + " with the event; " +
+       model + " (" + fileNameOnly(input.modelFile.name) + "), on " + cohortShortName(input) +
+           ": " + plan.rowsAnalysed() + " patients, " + plan.events() + " with the event; " +
            (input.settings.apparent ? "apparent performance (the cohort is the development data)"
                                     : "new data (external validation)")});
   if (input.studyFile) {

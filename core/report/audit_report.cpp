@@ -106,14 +106,33 @@ std::vector<ThresholdRow> selectTableRows(const AuditReportInput& input) {
   return rows;
 }
 
+// A query is shown whole up to this many characters (it is what was run).
+constexpr std::size_t kReportQueryChars = 600;
+
 void addIdentification(const AuditReportInput& input, const DisclosurePlan& plan,
                        const std::vector<ThresholdRow>& tableRows,
                        std::vector<ReportBlock>& blocks) {
   blocks.push_back(reportHeading("1  What was validated"));
-  ReportTable cohort = keyValueTable(std::string(kTablePrefix) + "Cohort file");
-  cohort.rows.push_back({"File name", fileNameOnly(input.cohortFile.name)});
-  cohort.rows.push_back({"Format", cohortFileFormat(input.cohortFile.name)});
-  cohort.rows.push_back({"SHA-256", input.cohortFile.sha256});
+  ReportTable cohort =
+      keyValueTable(std::string(kTablePrefix) + (input.database ? "Cohort source" : "Cohort file"));
+  if (input.database) {
+    const DatabaseProvenance& db = *input.database;
+    cohort.rows.push_back({"Source", "PostgreSQL " + reportName(db.serverVersion) + " database"});
+    cohort.rows.push_back({"Server", reportName(db.server)});
+    cohort.rows.push_back({"Database", reportName(db.database)});
+    if (!db.selection.table.empty()) {
+      cohort.rows.push_back({"Table", reportName(db.selection.table)});
+    } else {
+      cohort.rows.push_back({"Query", visibleName(db.selection.query, kReportQueryChars)});
+    }
+    cohort.rows.push_back({"Rows fetched", std::to_string(db.rows)});
+    cohort.rows.push_back({"Result fingerprint", input.cohortFile.sha256});
+    cohort.rows.push_back({"Fingerprint rule", kDatabaseFingerprintRule});
+  } else {
+    cohort.rows.push_back({"File name", fileNameOnly(input.cohortFile.name)});
+    cohort.rows.push_back({"Format", cohortFileFormat(input.cohortFile.name)});
+    cohort.rows.push_back({"SHA-256", input.cohortFile.sha256});
+  }
   if (!input.analysedSha256.empty()) {
     cohort.rows.push_back({"Analysed-data fingerprint", input.analysedSha256});
   }
@@ -522,7 +541,7 @@ AuditDocument buildAuditDocument(const AuditReportInput& input) {
   doc.subtitle = "Created " + input.createdAt + "  |  Calivera " + input.softwareVersion;
   doc.caution = auditCautionText();
   doc.footer = {
-      "Cohort " + fileNameOnly(input.cohortFile.name) + "  SHA-256 " + input.cohortFile.sha256,
+      "Cohort " + cohortShortName(input) + "  SHA-256 " + input.cohortFile.sha256,
       "Model " + fileNameOnly(input.modelFile.name) + "  SHA-256 " + input.modelFile.sha256};
   doc.suppressBelow = plan.active() ? plan.below() : 0;
   doc.suppressionApplied = plan.anyHidden();
@@ -582,6 +601,15 @@ void numberTables(std::vector<ReportBlock>& blocks) {
       continue;
     block.table.caption.replace(0, prefix.size(), "Table " + std::to_string(++number) + ". ");
   }
+}
+
+std::string cohortShortName(const AuditReportInput& input) {
+  if (!input.database) return fileNameOnly(input.cohortFile.name);
+  const DatabaseProvenance& db = *input.database;
+  const std::string database = "PostgreSQL database '" + reportName(db.database) + "'";
+  return db.selection.table.empty()
+             ? "a query of " + database
+             : "table '" + reportName(db.selection.table) + "' of " + database;
 }
 
 }  // namespace calivera

@@ -22,6 +22,7 @@
 #include <vector>
 
 #include "core/data/cohort.h"
+#include "core/data/database_source.h"
 #include "core/imputation/imputed_validation.h"
 #include "core/imputation/missing_patterns.h"
 #include "core/metrics/threshold_table.h"  // defaultTableThresholds
@@ -60,8 +61,9 @@ struct AuditReportInput {
   std::string title;
   std::string createdAt;  // as printed, e.g. "2026-12-01 22:40:00 UTC"
   std::string softwareVersion;
-  FileFingerprint cohortFile;
-  std::string analysedSha256;  // analysed-data fingerprint; empty for a risk column
+  FileFingerprint cohortFile;  // for a database: its URI and the result's fingerprint
+  std::optional<DatabaseProvenance> database;  // a PostgreSQL source: where the rows came from
+  std::string analysedSha256;                  // analysed-data fingerprint; empty for a risk column
   ExclusionReport exclusions;
   FileFingerprint modelFile;
   Model model;
@@ -78,6 +80,10 @@ struct AuditReportInput {
   MissingPatternReport missingPatterns;
   std::shared_ptr<const ImputedValidation> imputed;
 };
+
+// The cohort as the report names it in a sentence or a footer: the file's name without folders,
+// or "table 'T' of PostgreSQL database 'D'" / "a query of PostgreSQL database 'D'".
+std::string cohortShortName(const AuditReportInput& input);
 
 enum class CellAlign { Left, Right };
 

@@ -10,6 +10,7 @@ AuditReportInput auditInputFromRun(const ValidationRun& run, const std::string& 
   input.title = title;
   input.softwareVersion = run.softwareVersion.empty() ? CALIVERA_VERSION : run.softwareVersion;
   input.cohortFile = {run.request.dataPath, run.dataSha256};
+  input.database = run.database;
   input.analysedSha256 = run.analysedSha256;
   input.exclusions = run.cohort.exclusions;
   input.missingPatterns = run.missingPatterns;

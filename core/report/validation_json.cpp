@@ -125,14 +125,33 @@ json cohortJson(const ValidationRun& run) {
           {"performance_basis", run.performanceBasis}};
 }
 
+// A PostgreSQL source as the reports record it: where, what and the result's fingerprint; never
+// a password (core/data/database_source.h refuses a URI that carries one).
+json databaseSourceJson(const DatabaseProvenance& p) {
+  json data = {{"uri", p.uri},
+               {"format", "PostgreSQL"},
+               {"server", p.server},
+               {"database", p.database},
+               {"user", p.user},
+               {"server_version", p.serverVersion},
+               {"statement", p.statement},
+               {"rows_fetched", p.rows},
+               {"result_sha256", p.resultSha256},
+               {"fingerprint_rule", kDatabaseFingerprintRule}};
+  if (!p.selection.table.empty()) data["table"] = p.selection.table;
+  if (!p.selection.query.empty()) data["query"] = p.selection.query;
+  return data;
+}
+
 json inputsJson(const ValidationRun& run) {
   const ValidationRequest& r = run.request;
   json model = nullptr;
   if (r.modelPath) model = {{"file", *r.modelPath}, {"sha256", run.modelSha256}};
   json data = {
       {"file", r.dataPath}, {"format", cohortFileFormat(r.dataPath)}, {"sha256", run.dataSha256}};
+  if (run.database) data = databaseSourceJson(*run.database);
   if (!run.analysedSha256.empty()) data["analysed_data_sha256"] = run.analysedSha256;
-  return {{"source", "file"},
+  return {{"source", run.database ? "postgresql" : "file"},
           {"data", data},
           {"model", model},
           {"risk_column", r.riskColumn ? json(*r.riskColumn) : json(nullptr)}};

@@ -12,6 +12,7 @@
 #include "core/report/audit_run.h"
 #include "core/report/imputation_json.h"
 #include "core/report/validation_json.h"
+#include "core/util/shown_text.h"
 
 namespace calivera {
 namespace {
@@ -36,8 +37,17 @@ std::string validationSummaryText(const ValidationRun& run, const std::string& b
   const Calibration& c = r.calibration;
   std::ostringstream out;
   out << "Calivera " << run.softwareVersion << " - validation of " << run.modelName << "\n\n";
-  out << "Cohort file   " << run.request.dataPath << " (" << cohortFileFormat(run.request.dataPath)
-      << ")\n  SHA-256     " << run.dataSha256 << "\n";
+  if (run.database) {
+    const DatabaseProvenance& db = *run.database;
+    out << "Cohort        PostgreSQL database " << db.database << " on " << db.server << " ("
+        << (db.selection.table.empty() ? "query" : "table " + db.selection.table) << ")\n"
+        << "  statement   " << shownText(db.statement, 200) << "\n"
+        << "  rows        " << db.rows << " fetched\n"
+        << "  result      " << run.dataSha256 << " (SHA-256 of the rows as received)\n";
+  } else {
+    out << "Cohort file   " << run.request.dataPath << " ("
+        << cohortFileFormat(run.request.dataPath) << ")\n  SHA-256     " << run.dataSha256 << "\n";
+  }
   if (!run.analysedSha256.empty()) out << "  analysed    " << run.analysedSha256 << "\n";
   if (run.request.modelPath) {
     out << "Model file    " << *run.request.modelPath << "\n  SHA-256     " << run.modelSha256

@@ -63,6 +63,12 @@ void addLevelMappingWords(std::vector<std::string>& w,
 std::vector<std::string> validateCommandWords(const ValidationRequest& validation,
                                               const UncertaintyRequest& uncertainty) {
   std::vector<std::string> w{"--data", validation.dataPath};
+  if (validation.database) {
+    if (!validation.database->table.empty())
+      w.insert(w.end(), {"--table", validation.database->table});
+    if (!validation.database->query.empty())
+      w.insert(w.end(), {"--query", validation.database->query});
+  }
   addImportWords(w, validation.csv, validation.outcome);
   if (validation.model) {
     w.insert(w.end(), {"--model", kFittedModelFile});

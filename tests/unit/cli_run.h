@@ -59,10 +59,9 @@ inline CliRun runCalivera(const std::vector<std::string>& words, int seconds = 0
   return run;
 }
 
-// A PDF's text as poppler's pdftotext (an outside reader, Debian poppler-utils) extracts it,
-// with -layout so table rows stay on one line.
-inline std::string pdfText(const std::string& path) {
-  FILE* pipe = ::popen(("pdftotext -layout " + shellQuote(path) + " -").c_str(), "r");
+// What a shell command writes to standard output (empty when it cannot start).
+inline std::string commandOutput(const std::string& command) {
+  FILE* pipe = ::popen(command.c_str(), "r");
   std::string text;
   if (pipe == nullptr) return text;
   char buffer[4096];
@@ -71,6 +70,12 @@ inline std::string pdfText(const std::string& path) {
   }
   ::pclose(pipe);
   return text;
+}
+
+// A PDF's text as poppler's pdftotext (an outside reader, Debian poppler-utils) extracts it,
+// with -layout so table rows stay on one line.
+inline std::string pdfText(const std::string& path) {
+  return commandOutput("pdftotext -layout " + shellQuote(path) + " -");
 }
 
 // A fresh empty folder under the temporary directory, removed with the object.
