@@ -61,7 +61,7 @@ int runRunCommand(const std::vector<std::string>& words) {
   for (const std::string& note : study.pathNotes) {
     std::cerr << "warning: " << studyPath << ": " << note << '\n';
   }
-  if (study.data && !std::filesystem::exists(study.data->path)) {
+  if (study.data && !study.data->database && !std::filesystem::exists(study.data->path)) {
     std::cerr << "warning: " << studyPath << ": cohort data " << study.data->path << " missing\n";
   }
   const StudyRequests requests = studyRequests(study);

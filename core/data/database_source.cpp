@@ -9,6 +9,7 @@
 #include <exception>
 #include <limits>
 #include <map>
+#include <memory>
 #include <mutex>
 #include <pqxx/pqxx>
 #include <set>
@@ -328,28 +329,29 @@ std::string versionText(int version) {
   return std::to_string(version / 10000) + "." + std::to_string(version % 10000);
 }
 
-std::string sourceNameOf(const std::string& uri, const DatabaseSelection& selection) {
+}  // namespace
+
+std::string databaseSourceName(const std::string& uri, const DatabaseSelection& selection) {
   return uri + (selection.table.empty() ? " (query)"
                                         : " (table '" + shownText(selection.table, 80) + "')");
 }
-
-}  // namespace
 
 bool isDatabaseUri(std::string_view data) {
   return data.rfind("postgresql://", 0) == 0 || data.rfind("postgres://", 0) == 0;
 }
 
-void checkDatabaseUri(const std::string& uri) {
+void checkDatabaseUri(const std::string& uri, const std::string& label) {
+  const std::string prefix = label.empty() ? std::string() : label + ": ";
   if (!isDatabaseUri(uri)) {
-    throw InputError("--data: '" + shownText(uri, 80) +
+    throw InputError(prefix + "'" + shownText(uri, 80) +
                      "' is not a PostgreSQL URI (postgresql://HOST:PORT/DATABASE)");
   }
   if (uri.size() > kMaxUriBytes) {
-    throw InputError("--data: the PostgreSQL URI is longer than " + std::to_string(kMaxUriBytes) +
+    throw InputError(prefix + "the PostgreSQL URI is longer than " + std::to_string(kMaxUriBytes) +
                      " bytes");
   }
   if (uri.find('\0') != std::string::npos) {
-    throw InputError("--data: the PostgreSQL URI holds a NUL byte");
+    throw InputError(prefix + "the PostgreSQL URI holds a NUL byte");
   }
   const std::string refusal =
       ": Calivera never takes a password on the command line, in a study file or in a report; "
@@ -360,7 +362,7 @@ void checkDatabaseUri(const std::string& uri) {
       uri.substr(start, end == std::string::npos ? std::string::npos : end - start);
   const std::size_t at = authority.rfind('@');
   if (at != std::string::npos && authority.substr(0, at).find(':') != std::string::npos) {
-    throw InputError("--data: the PostgreSQL URI carries a password" + refusal);
+    throw InputError(prefix + "the PostgreSQL URI carries a password" + refusal);
   }
   const std::size_t question = uri.find('?');
   if (question != std::string::npos) {
@@ -370,7 +372,7 @@ void checkDatabaseUri(const std::string& uri) {
       const std::string item = uri.substr(begin, amp - begin);
       const std::string key = item.substr(0, item.find('='));
       if (key == "password") {
-        throw InputError("--data: the PostgreSQL URI carries a password (password=)" + refusal);
+        throw InputError(prefix + "the PostgreSQL URI carries a password (password=)" + refusal);
       }
       begin = amp + 1;
     }
@@ -410,7 +412,7 @@ DatabaseRead readDatabase(const std::string& uri, const DatabaseSelection& selec
   checkDatabaseUri(uri);
   checkDatabaseSelection(selection);
   assert(options.isValid());
-  const std::string source = sourceNameOf(uri, selection);
+  const std::string source = databaseSourceName(uri, selection);
   DatabaseRead out;
   DatabaseProvenance& provenance = out.provenance;
   provenance.uri = uri;
@@ -565,6 +567,7 @@ DatabaseRead readDatabase(const std::string& uri, const DatabaseSelection& selec
         break;
     }
   }
+  table.database = std::make_shared<const DatabaseProvenance>(provenance);
   return out;
 }
 

@@ -29,9 +29,10 @@
 // - The result fingerprint (`resultSha256`, where a file has its SHA-256) is the SHA-256 of the
 //   result as received (the statement recorded says which columns): for each column its name
 //   and type OID, then for each row and column a NULL marker or the value's bytes as the server
-//   sent them in its binary format, with their length (the exact layout is in docs/methods.md). The same columns and rows in the same order
-//   give the same fingerprint on any server; `fit` and `validate` of one model on one table read
-//   the same columns, so the model's development record matches.
+//   sent them in its binary format, with their length (the exact layout is in docs/methods.md). The
+//   same columns and rows in the same order give the same fingerprint on any server; `fit` and
+//   `validate` of one model on one table read the same columns, so the model's development record
+//   matches.
 
 #include <cstddef>
 #include <optional>
@@ -39,6 +40,7 @@
 #include <string_view>
 #include <vector>
 
+#include "core/data/database_provenance.h"
 #include "core/data/table.h"
 #include "core/util/progress.h"
 
@@ -51,38 +53,20 @@ inline constexpr std::size_t kMaxDatabaseRows = 0xFFFFFFFEu;
 // A query's text is bounded so that it fits in reports and study files.
 inline constexpr std::size_t kMaxQueryBytes = 64 * 1024;
 
-// What to read from the database: exactly one of a table (NAME or SCHEMA.NAME) and a query.
-struct DatabaseSelection {
-  std::string table;
-  std::string query;
-
-  bool isValid() const { return table.empty() != query.empty(); }
-  friend bool operator==(const DatabaseSelection&, const DatabaseSelection&) = default;
-};
-
 // True when `data` names a PostgreSQL database (postgresql:// or postgres://) rather than a file.
 bool isDatabaseUri(std::string_view data);
 
+// The name messages give the source: "URI (table 'T')" or "URI (query)"; Table::sourceName.
+std::string databaseSourceName(const std::string& uri, const DatabaseSelection& selection);
+
 // Throws InputError when the URI carries a password, or is longer than a URI may be; says how
 // to give the password instead.
-void checkDatabaseUri(const std::string& uri);
+// `label` starts each message ("--data"; empty for none).
+void checkDatabaseUri(const std::string& uri, const std::string& label = "--data");
 
 // Throws InputError unless the selection is valid and its table name or query is one Calivera
 // sends (not empty, bounded, no NUL byte; a table name of one or two non-empty parts).
 void checkDatabaseSelection(const DatabaseSelection& selection);
-
-// Where the rows came from, as the reports record it (never a password).
-struct DatabaseProvenance {
-  std::string uri;            // as given, password-free
-  std::string server;         // "HOST:PORT", or the socket directory and port
-  std::string database;       // the database connected to
-  std::string user;           // the role connected as
-  std::string serverVersion;  // e.g. "15.18"
-  DatabaseSelection selection;
-  std::string statement;  // the SELECT the cursor ran
-  std::size_t rows = 0;
-  std::string resultSha256;  // the result fingerprint (above)
-};
 
 // One sentence for reports: what the result fingerprint is a digest of.
 inline constexpr const char* kDatabaseFingerprintRule =

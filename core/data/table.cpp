@@ -84,6 +84,7 @@ Table tableRows(const Table& table, const std::vector<std::uint32_t>& rows) {
   part.rowCount = rows.size();
   part.headerNames = table.headerNames;
   part.refusedColumns = table.refusedColumns;
+  part.database = table.database;
   part.recordLines.reserve(rows.size());
   for (std::uint32_t row : rows) {
     part.recordLines.push_back(static_cast<std::uint32_t>(

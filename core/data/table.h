@@ -6,10 +6,13 @@
 
 #include <cstddef>
 #include <cstdint>
+#include <memory>
 #include <optional>
 #include <string>
 #include <string_view>
 #include <vector>
+
+#include "core/data/database_provenance.h"
 
 namespace calivera {
 
@@ -64,6 +67,10 @@ struct Table {
   std::vector<std::string> headerNames;
 
   std::vector<RefusedColumn> refusedColumns;
+
+  // Read from a database (core/data/database_source.h): where the rows came from; null for a
+  // file. Tables cut from this one share it.
+  std::shared_ptr<const DatabaseProvenance> database;
 
   // The file's column names: headerNames, or the names of `columns`.
   std::vector<std::string> fileColumnNames() const;

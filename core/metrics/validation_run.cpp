@@ -151,6 +151,7 @@ ValidationRun runSingleValidation(const ValidationRequest& request,
   run.request.model.reset();  // kept once, in run.model
   run.softwareVersion = CALIVERA_VERSION;
   run.dataSha256 = std::move(dataSha256);
+  run.database = table->database;
   reportProgress(request.options.progress, 0.0);
   if (request.model) {
     run.model = *request.model;
@@ -355,10 +356,8 @@ ValidationRun runValidation(const ValidationRequest& request, std::shared_ptr<co
 ValidationRun runValidation(const ValidationRequest& request) {
   CohortRead read =
       readCohort(request.dataPath, request.database, request.csv, request.options.progress);
-  ValidationRun run = runValidation(request, std::make_shared<const Table>(std::move(read.table)),
-                                    std::move(read.sha256));
-  run.database = std::move(read.database);
-  return run;
+  return runValidation(request, std::make_shared<const Table>(std::move(read.table)),
+                       std::move(read.sha256));
 }
 
 }  // namespace calivera

@@ -84,8 +84,8 @@ struct ValidationRun {
   ValidationRequest request;  // as given, with options.thresholds filled in
   // The cohort file's SHA-256, or the database result's fingerprint.
   std::string dataSha256;
-  // A PostgreSQL source: where the rows came from (runValidation(request) only).
-  std::optional<DatabaseProvenance> database;
+  // A PostgreSQL source: where the rows came from (the table's Table::database); null for a file.
+  std::shared_ptr<const DatabaseProvenance> database;
   // The analysed-data fingerprint (core/model/analysed_fingerprint.h); model route only.
   std::string analysedSha256;
   std::optional<Model> model;          // model route only

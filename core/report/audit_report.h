@@ -62,8 +62,9 @@ struct AuditReportInput {
   std::string createdAt;  // as printed, e.g. "2026-12-01 22:40:00 UTC"
   std::string softwareVersion;
   FileFingerprint cohortFile;  // for a database: its URI and the result's fingerprint
-  std::optional<DatabaseProvenance> database;  // a PostgreSQL source: where the rows came from
-  std::string analysedSha256;                  // analysed-data fingerprint; empty for a risk column
+  // A PostgreSQL source: where the rows came from; null for a file.
+  std::shared_ptr<const DatabaseProvenance> database;
+  std::string analysedSha256;  // analysed-data fingerprint; empty for a risk column
   ExclusionReport exclusions;
   FileFingerprint modelFile;
   Model model;

@@ -60,15 +60,21 @@ void addLevelMappingWords(std::vector<std::string>& w,
 
 }  // namespace
 
+namespace {
+
+// --table or --query after --data for a database source.
+void addDatabaseWords(std::vector<std::string>& w, const std::optional<DatabaseSelection>& db) {
+  if (!db) return;
+  if (!db->table.empty()) w.insert(w.end(), {"--table", db->table});
+  if (!db->query.empty()) w.insert(w.end(), {"--query", db->query});
+}
+
+}  // namespace
+
 std::vector<std::string> validateCommandWords(const ValidationRequest& validation,
                                               const UncertaintyRequest& uncertainty) {
   std::vector<std::string> w{"--data", validation.dataPath};
-  if (validation.database) {
-    if (!validation.database->table.empty())
-      w.insert(w.end(), {"--table", validation.database->table});
-    if (!validation.database->query.empty())
-      w.insert(w.end(), {"--query", validation.database->query});
-  }
+  addDatabaseWords(w, validation.database);
   addImportWords(w, validation.csv, validation.outcome);
   if (validation.model) {
     w.insert(w.end(), {"--model", kFittedModelFile});
@@ -126,6 +132,7 @@ std::vector<std::string> validateCommandWords(const ValidationRequest& validatio
 std::optional<std::vector<std::string>> fitCommandWords(const StudyState& study) {
   if (study.modelSource != ModelSource::Fitted || !study.data) return std::nullopt;
   std::vector<std::string> w{"--data", study.data->path};
+  addDatabaseWords(w, study.data->database);
   addImportWords(w, csvOptionsFor(study.import),
                  OutcomeSpec{study.import.outcomeColumn, study.import.eventValue});
   w.insert(w.end(), {"--predictors", joined(study.fit.predictors)});
@@ -144,6 +151,7 @@ StudyRequests studyRequests(const StudyState& study) {
   StudyRequests out;
   ValidationRequest& v = out.validation;
   v.dataPath = study.data->path;
+  v.database = study.data->database;
   v.csv = csvOptionsFor(study.import);
   v.outcome = OutcomeSpec{study.import.outcomeColumn, study.import.eventValue};
   switch (study.modelSource) {

@@ -9,9 +9,11 @@
 #include <memory>
 #include <optional>
 #include <string>
+#include <utility>
 #include <vector>
 
 #include "core/data/cohort.h"
+#include "core/data/database_provenance.h"
 #include "core/metrics/validation.h"
 #include "core/metrics/validation_run.h"
 #include "core/model/model.h"
@@ -21,8 +23,18 @@
 namespace calivera {
 
 struct InputFileRecord {
-  std::string path;    // absolute path at the time it was loaded
-  std::string sha256;  // lowercase hex of the file contents when loaded
+  InputFileRecord() = default;
+  InputFileRecord(std::string filePath, std::string fileSha256,
+                  std::optional<DatabaseSelection> databaseSelection = std::nullopt)
+      : path(std::move(filePath)),
+        sha256(std::move(fileSha256)),
+        database(std::move(databaseSelection)) {}
+
+  std::string path;    // absolute path at the time it was loaded; a PostgreSQL URI for a database
+  std::string sha256;  // lowercase hex of the file contents (a database: the result's fingerprint)
+  // A cohort in a PostgreSQL database (core/data/database_source.h): the table or query read
+  // from the URI in `path`. Reopening the study reconnects and reads it again.
+  std::optional<DatabaseSelection> database;
 };
 
 struct ImportSettings {

@@ -6,6 +6,7 @@
 #include <future>
 
 #include "core/data/cohort.h"
+#include "core/data/cohort_source.h"
 #include "core/fit/cohort_fit.h"
 #include "core/metrics/validation_run.h"
 #include "core/study/reproduce_command.h"
@@ -52,6 +53,21 @@ LoadedTable loadCohortFile(const std::string& path, const ImportSettings& settin
   loaded.record.path = std::filesystem::absolute(path).string();
   loaded.record.sha256 = hash.get();
   return loaded;
+}
+
+LoadedTable loadCohort(const InputFileRecord& source, const ImportSettings& settings,
+                       const ProgressCallback& progress) {
+  if (!source.database) return loadCohortFile(source.path, settings);
+  CohortRead read = readCohort(source.path, source.database, csvOptionsFor(settings), progress);
+  LoadedTable loaded;
+  loaded.table = std::make_shared<const Table>(std::move(read.table));
+  loaded.record = InputFileRecord{source.path, read.sha256, source.database};
+  loaded.delimiter = 0;
+  return loaded;
+}
+
+std::string cohortSourceName(const InputFileRecord& source) {
+  return source.database ? databaseSourceName(source.path, *source.database) : source.path;
 }
 
 ValidationRequest validationRequestFor(const StudyState& study, const Model& model) {

@@ -61,6 +61,12 @@ struct LoadedTable {
 
 CsvOptions csvOptionsFor(const ImportSettings& settings);
 LoadedTable loadCohortFile(const std::string& path, const ImportSettings& settings);
+// A study's cohort, a file or a PostgreSQL table or query (reconnecting to read it again);
+// `progress` is polled between the database's batches.
+LoadedTable loadCohort(const InputFileRecord& source, const ImportSettings& settings,
+                       const ProgressCallback& progress = {});
+// Table::sourceName of the table loadCohort gives for `source`: whether a loaded table is it.
+std::string cohortSourceName(const InputFileRecord& source);
 
 // The request the study stands for (studyRequests, core/study/reproduce_command.h, the one
 // `calivera run` executes) with `model`, as the pipeline read or fitted it, held in memory.

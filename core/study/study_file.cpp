@@ -6,6 +6,7 @@
 #include <nlohmann/json.hpp>
 #include <sstream>
 
+#include "core/data/database_source.h"
 #include "core/metrics/validation.h"
 #include "core/model/model_io.h"
 #include "core/study/limits.h"
@@ -24,6 +25,15 @@ namespace {
 
 json fileRecord(const InputFileRecord& r, const std::string& studyPath) {
   json j;
+  if (r.database) {
+    // A database source: the URI (never a password: checkDatabaseUri refused any), what was read
+    // and the result's fingerprint.
+    j["uri"] = r.path;
+    if (!r.database->table.empty()) j["table"] = r.database->table;
+    if (!r.database->query.empty()) j["query"] = r.database->query;
+    j["sha256"] = r.sha256;
+    return j;
+  }
   j["path"] = r.path;
   std::error_code ec;
   const fs::path folder = fs::absolute(studyPath).parent_path();
@@ -192,7 +202,25 @@ StudyState parseStudyJson(const std::string& text, const std::string& studyPath)
     in.fail("format", std::string("expected \"") + kStudyFormatId + "\"");
   }
   const fs::path folder = fs::absolute(studyPath).parent_path();
-  if (j.contains("data") && !j.at("data").is_null()) s.data = in.file(j.at("data"), "data", folder);
+  if (j.contains("data") && !j.at("data").is_null()) {
+    const json& data = j.at("data");
+    if (data.is_object() && data.contains("uri")) {
+      InputFileRecord r;
+      r.path = in.get<std::string>(data, "uri", "data.uri", "");
+      r.sha256 = in.get<std::string>(data, "sha256", "data.sha256", "");
+      r.database = DatabaseSelection{in.get<std::string>(data, "table", "data.table", ""),
+                                     in.get<std::string>(data, "query", "data.query", "")};
+      try {
+        checkDatabaseUri(r.path, "");
+        checkDatabaseSelection(*r.database);
+      } catch (const InputError& e) {
+        in.fail("data", e.what());
+      }
+      s.data = std::move(r);
+    } else {
+      s.data = in.file(data, "data", folder);
+    }
+  }
 
   const json& import = in.object(j, "import", "import");
   const std::string delimiter =
@@ -350,6 +378,7 @@ std::vector<InputCheck> checkInputs(const StudyState& study, const std::string& 
   auto check = [&](const std::optional<InputFileRecord>& r, const char* role,
                    const std::string& known = {}) {
     if (!r) return;
+    if (r->database && known.empty()) return;  // read by the pipeline, which passes `known`
     std::error_code ec;
     if (known.empty() && !fs::exists(r->path, ec)) {
       out.push_back({role, r->path, "missing"});

@@ -40,14 +40,21 @@ PipelineOutput runPipeline(const PipelineRequest& request, const ProgressCallbac
 
   if (!s.data) throw InputError("no cohort file is chosen");
   const StudyState recorded = s;  // the fingerprints as saved, for the changed-input check
-  if (request.table && request.table->sourceName == s.data->path) {
+  if (request.table && request.table->sourceName == cohortSourceName(*s.data)) {
     out.table = request.table;
   } else {
-    LoadedTable loaded = loadCohortFile(s.data->path, s.import);
+    LoadedTable loaded = loadCohort(*s.data, s.import, [&](double) {
+      return progress ? progress(0.0) : true;  // a database is polled between batches
+    });
     s.data = loaded.record;
     out.table = loaded.table;
   }
-  if (s.data->sha256.empty()) s.data->sha256 = sha256OfFile(s.data->path);
+  if (s.data->sha256.empty()) {
+    // A table the import dialog read: a file is hashed here, a database result carries its own.
+    s.data->sha256 = s.data->database
+                         ? (out.table->database ? out.table->database->resultSha256 : "")
+                         : sha256OfFile(s.data->path);
+  }
   if (request.checkRecordedInputs) {
     // The cohort was hashed as it was read; only the (small) model files are hashed here.
     out.inputWarnings = s.pathNotes;

@@ -21,7 +21,9 @@
 #include "core/data/csv_reader.h"
 #include "core/data/database_source.h"
 #include "core/model/model_io.h"
+#include "core/study/study_file.h"
 #include "core/util/errors.h"
+#include "core/util/sha256.h"
 #include "tests/reference/reference_csv.h"
 #include "tests/unit/cli_run.h"
 
@@ -358,6 +360,61 @@ TEST_F(PostgresSource, SiteSummaryFromATableEqualsTheCsvSites) {
       summarize({"--data", adminUri(), "--query", "SELECT * FROM pima_tr"}, "q.cvsummary", {});
   EXPECT_EQ(query.status, 2);
   EXPECT_NE(query.err.find("--site: give the site's name"), std::string::npos) << query.err;
+}
+
+// A study saved with a database source reopens by reconnecting: `calivera run` reads the table
+// again, gives the CSV route's results, prints the validate line that reproduces it, and warns
+// when the rows changed since the study was saved. A password in the study's URI is refused.
+TEST_F(PostgresSource, StudyWithADatabaseSourceRunsAgainAndNoticesChanges) {
+  REQUIRE_SERVER();
+  const json csv = validate({"--data", referencePath("pima_tr.csv")}, "csv.json");
+  const json db = validate({"--data", adminUri(), "--table", "pima_tr"}, "db.json");
+  StudyState study;
+  study.data = InputFileRecord{adminUri(), db["inputs"]["data"]["result_sha256"],
+                               DatabaseSelection{"pima_tr", ""}};
+  study.import.outcomeColumn = "diabetic";
+  study.modelSource = ModelSource::File;
+  const std::string model = dir_.file("pima_model.json");
+  study.modelFile = InputFileRecord{model, sha256OfFile(model)};
+  const std::string studyPath = dir_.file("db.cvstudy");
+  writeStudyFile(studyPath, study);
+  const json saved = json::parse(testing::readWhole(studyPath));
+  EXPECT_EQ(saved["data"]["uri"], adminUri());
+  EXPECT_EQ(saved["data"]["table"], "pima_tr");
+  EXPECT_FALSE(saved["data"].contains("relativePath"));
+  const StudyState reread = readStudyFile(studyPath);
+  ASSERT_TRUE(reread.data && reread.data->database);
+  EXPECT_EQ(reread.data->database->table, "pima_tr");
+
+  const CliRun run = runCalivera({"run", studyPath, "--json", dir_.file("run.json")}, 120);
+  ASSERT_EQ(run.status, 0) << run.err;
+  EXPECT_EQ(run.err.find("warning"), std::string::npos) << run.err;
+  const json ran = json::parse(testing::readWhole(dir_.file("run.json")));
+  expectSameResults(ran, csv, "study run");
+  EXPECT_EQ(ran["inputs"]["source"], "postgresql");
+  const CliRun summary = runCalivera({"run", studyPath}, 120);
+  EXPECT_NE(summary.out.find("--table pima_tr"), std::string::npos) << summary.out;
+
+  // Rows that changed since the study was saved: it still runs, with a warning.
+  study.data->sha256 = std::string(64, '0');
+  writeStudyFile(studyPath, study);
+  const CliRun changed = runCalivera({"run", studyPath, "--json", dir_.file("run2.json")}, 120);
+  EXPECT_EQ(changed.status, 0) << changed.err;
+  EXPECT_NE(changed.err.find("changed since the study was saved"), std::string::npos)
+      << changed.err;
+
+  // A password in a study file's URI is refused when the study is read.
+  std::string text = testing::readWhole(studyPath);
+  const std::string uriKey = "\"uri\": \"postgresql://calivera_admin@";
+  const std::size_t at = text.find(uriKey);
+  ASSERT_NE(at, std::string::npos) << text;
+  text.replace(at, uriKey.size(), "\"uri\": \"postgresql://calivera_admin:pw-in-study@");
+  const std::string withPassword = dir_.write("password.cvstudy", text);
+  const CliRun refused = runCalivera({"run", withPassword, "--json", dir_.file("run3.json")});
+  EXPECT_EQ(refused.status, 2);
+  EXPECT_NE(refused.err.find("carries a password"), std::string::npos) << refused.err;
+  EXPECT_EQ(refused.err.find("pw-in-study"), std::string::npos) << refused.err;
+  EXPECT_FALSE(std::filesystem::exists(dir_.file("run3.json")));
 }
 
 // The reader itself, column by column against the CSV reader, across many small batches (the
