@@ -237,7 +237,7 @@ void MainWindow::updateStatus() {
   QStringList parts;
   QStringList full;
   if (study().data) {
-    const std::string file = std::filesystem::path(study().data->path).filename().string();
+    const std::string file = cohortShortLabel(*study().data);
     parts << tr("Cohort: %1 (%2 rows)")
                  .arg(name(file, 40))
                  .arg(controller_->table() ? controller_->table()->rowCount : 0);
@@ -272,7 +272,9 @@ QStringList MainWindow::exportFooter() const {
   };
   QStringList lines{cautionText()};
   if (study().data) {
-    lines << tr("Cohort %1  SHA-256 %2").arg(name(study().data->path), toQ(study().data->sha256));
+    lines << tr("Cohort %1  SHA-256 %2")
+                 .arg(toQ(visibleName(cohortShortLabel(*study().data), 80)),
+                      toQ(study().data->sha256));
   }
   if (study().model) {
     QString model = tr("Model %1").arg(toQ(visibleName(study().model->name, 80)));
@@ -319,9 +321,14 @@ void MainWindow::onImportCohort() {
 
 void MainWindow::importCohortFrom(const QString& path) {
   ImportDialog dialog(this);
-  if (!path.isEmpty()) dialog.setInitial(path, study().import);
+  if (!path.isEmpty()) {
+    // The study's own source (a database's table or query too) when re-importing it.
+    const bool same = study().data && toQ(study().data->path) == path;
+    dialog.setInitial(path, study().import, same ? study().data->database : std::nullopt);
+  }
   if (dialog.exec() != QDialog::Accepted) return;
-  controller_->importCohort(dialog.path(), dialog.settings(), dialog.loadedTable());
+  controller_->importCohort(dialog.path(), dialog.settings(), dialog.loadedTable(),
+                            dialog.databaseSelection());
 }
 
 namespace {

@@ -170,10 +170,12 @@ bool StudyController::newStudy() {
 }
 
 bool StudyController::importCohort(const QString& path, const ImportSettings& settings,
-                                   std::shared_ptr<const Table> loaded) {
+                                   std::shared_ptr<const Table> loaded,
+                                   const std::optional<DatabaseSelection>& database) {
   PipelineRequest request;
   request.study = study_;
-  request.study.data = InputFileRecord{absolutePath(path), {}};
+  request.study.data = database ? InputFileRecord{path.toStdString(), {}, database}
+                                : InputFileRecord{absolutePath(path), {}};
   request.study.import = settings;
   request.table = std::move(loaded);
   if (request.study.modelSource == ModelSource::Fitted) {

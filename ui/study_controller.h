@@ -54,8 +54,11 @@ class StudyController : public QObject {
   bool openStudy(const QString& path);
   // Cohort and model in one run (the command line's --data/--model); model may be empty.
   bool openInputs(const QString& data, const QString& model, const ImportSettings& settings);
+  // `database`: the table or query when `path` is a PostgreSQL URI (kept as given, not made a
+  // file path).
   bool importCohort(const QString& path, const ImportSettings& settings,
-                    std::shared_ptr<const Table> loaded = nullptr);
+                    std::shared_ptr<const Table> loaded = nullptr,
+                    const std::optional<DatabaseSelection>& database = std::nullopt);
   bool loadModelFile(const QString& path);
   // A model file saved by the update dialog, validated on the same patients: marked apparent,
   // with the study's uncertainty settings run again for it.

@@ -66,6 +66,12 @@ LoadedTable loadCohort(const InputFileRecord& source, const ImportSettings& sett
   return loaded;
 }
 
+std::string cohortShortLabel(const InputFileRecord& source) {
+  if (!source.database) return std::filesystem::path(source.path).filename().string();
+  return source.database->table.empty() ? std::string("query (PostgreSQL)")
+                                        : "table " + source.database->table + " (PostgreSQL)";
+}
+
 std::string cohortSourceName(const InputFileRecord& source) {
   return source.database ? databaseSourceName(source.path, *source.database) : source.path;
 }

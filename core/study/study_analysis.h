@@ -65,6 +65,11 @@ LoadedTable loadCohortFile(const std::string& path, const ImportSettings& settin
 // `progress` is polled between the database's batches.
 LoadedTable loadCohort(const InputFileRecord& source, const ImportSettings& settings,
                        const ProgressCallback& progress = {});
+// How windows, chart footers and file names name the cohort: the file's name without folders, or
+// "table T (PostgreSQL)" / "query (PostgreSQL)" for a database (the URI names the server; a
+// footer must not).
+std::string cohortShortLabel(const InputFileRecord& source);
+
 // Table::sourceName of the table loadCohort gives for `source`: whether a loaded table is it.
 std::string cohortSourceName(const InputFileRecord& source);
 

@@ -18,6 +18,7 @@
 
 #include "core/data/cohort.h"
 #include "core/data/csv_reader.h"
+#include "core/data/database_source.h"
 #include "core/data/package_file_reader.h"
 #include "core/study/study_analysis.h"
 #include "ui/async/background_job.h"
@@ -68,10 +69,32 @@ ImportDialog::ImportDialog(QWidget* parent) : QDialog(parent) {
   browse->setObjectName(QStringLiteral("importBrowse"));
   pathRow->addWidget(path_, 1);
   pathRow->addWidget(browse);
+  path_->setPlaceholderText(tr("a cohort file, or postgresql://HOST:PORT/DATABASE"));
+  path_->setToolTip(
+      tr("A CSV, SAS, Stata or SPSS file, or a PostgreSQL database as a URI without a password "
+         "(postgresql://HOST:PORT/DATABASE, or postgresql:///DATABASE?service=NAME). The "
+         "password comes from ~/.pgpass, PGPASSFILE or the service file, never from here."));
   // A row holding a layout gets no buddy of its own: without one the '&' would show literally.
-  auto* fileLabel = new QLabel(tr("&File:"));
+  auto* fileLabel = new QLabel(tr("&File or database:"));
   fileLabel->setBuddy(path_);
   form->addRow(fileLabel, pathRow);
+
+  auto* databaseRow = new QHBoxLayout;
+  databaseKind_ = new QComboBox;
+  databaseKind_->setObjectName(QStringLiteral("importDatabaseKind"));
+  databaseKind_->addItem(tr("Table"));
+  databaseKind_->addItem(tr("Query"));
+  databaseText_ = new QLineEdit;
+  databaseText_->setObjectName(QStringLiteral("importDatabaseText"));
+  databaseText_->setPlaceholderText(tr("schema.table, or one SELECT statement"));
+  databaseText_->setToolTip(
+      tr("Read only: a table or view (NAME or SCHEMA.NAME), or one SELECT statement. Rows are "
+         "read in a read-only transaction."));
+  databaseRow->addWidget(databaseKind_);
+  databaseRow->addWidget(databaseText_, 1);
+  auto* databaseLabel = new QLabel(tr("&Rows from:"));
+  databaseLabel->setBuddy(databaseText_);
+  form->addRow(databaseLabel, databaseRow);
 
   delimiter_ = new QComboBox;
   delimiter_->setObjectName(QStringLiteral("importDelimiter"));
@@ -137,6 +160,8 @@ ImportDialog::ImportDialog(QWidget* parent) : QDialog(parent) {
     if (!p.isEmpty()) setPath(p);
   });
   connect(path_, &QLineEdit::editingFinished, this, &ImportDialog::refresh);
+  connect(databaseKind_, &QComboBox::currentIndexChanged, this, &ImportDialog::refresh);
+  connect(databaseText_, &QLineEdit::editingFinished, this, &ImportDialog::refresh);
   connect(delimiter_, &QComboBox::currentIndexChanged, this, &ImportDialog::refresh);
   connect(emptyIsMissing_, &QCheckBox::toggled, this, &ImportDialog::refresh);
   connect(missingTokens_, &QLineEdit::editingFinished, this, &ImportDialog::refresh);
@@ -146,7 +171,9 @@ ImportDialog::ImportDialog(QWidget* parent) : QDialog(parent) {
   });
   connect(eventValue_, &QComboBox::currentIndexChanged, this, &ImportDialog::refreshSummary);
   connect(job_, &BackgroundJob::failed, this, [this](const QString& message) {
-    summary_->setText(tr("<b>The file cannot be imported:</b> %1").arg(message.toHtmlEscaped()));
+    summary_->setText((isDatabase() ? tr("<b>The rows cannot be imported:</b> %1")
+                                    : tr("<b>The file cannot be imported:</b> %1"))
+                          .arg(message.toHtmlEscaped()));
   });
   connect(job_, &BackgroundJob::finished, this, [this]() {
     if (refreshQueued_) {
@@ -158,7 +185,13 @@ ImportDialog::ImportDialog(QWidget* parent) : QDialog(parent) {
   refresh();
 }
 
-void ImportDialog::setInitial(const QString& path, const ImportSettings& settings) {
+void ImportDialog::setInitial(const QString& path, const ImportSettings& settings,
+                              const std::optional<DatabaseSelection>& database) {
+  if (database) {
+    databaseKind_->setCurrentIndex(database->table.empty() ? 1 : 0);
+    databaseText_->setText(
+        QString::fromStdString(database->table.empty() ? database->query : database->table));
+  }
   const int d = delimiter_->findData(int(settings.delimiter));
   delimiter_->setCurrentIndex(d < 0 ? 0 : d);
   QStringList others;
@@ -186,11 +219,24 @@ QString ImportDialog::path() const {
   return path_->text().trimmed();
 }
 
+bool ImportDialog::isDatabase() const {
+  return isDatabaseUri(path().toStdString());
+}
+
+std::optional<DatabaseSelection> ImportDialog::databaseSelection() const {
+  const QString text = databaseText_->text().trimmed();
+  if (!isDatabase() || text.isEmpty()) return std::nullopt;
+  DatabaseSelection selection;
+  (databaseKind_->currentIndex() == 0 ? selection.table : selection.query) = text.toStdString();
+  return selection;
+}
+
 ImportSettings ImportDialog::settings() const {
   ImportSettings s;
   // A statistical-package file has no delimiter.
-  s.delimiter =
-      isPackageFile(path()) ? char(0) : static_cast<char>(delimiter_->currentData().toInt());
+  s.delimiter = isPackageFile(path()) || isDatabase()
+                    ? char(0)
+                    : static_cast<char>(delimiter_->currentData().toInt());
   s.missingTokens.clear();
   if (emptyIsMissing_->isChecked()) s.missingTokens.emplace_back();
   for (const QString& t : missingTokens_->text().split(',', Qt::SkipEmptyParts)) {
@@ -214,14 +260,27 @@ void ImportDialog::refreshPreview() {
   preview_->clear();
   preview_->setRowCount(0);
   preview_->setColumnCount(0);
+  databaseKind_->setEnabled(isDatabase());
+  databaseText_->setEnabled(isDatabase());
   if (path().isEmpty()) {
     previewNote_->setText(
         tr("Choose a cohort file with one row per patient: CSV with a header "
            "row, or a SAS (.sas7bdat), Stata (.dta) or SPSS (.sav, .zsav) "
-           "file."));
+           "file. Or give a PostgreSQL database as postgresql://HOST:PORT/DATABASE and a "
+           "table or query."));
     return;
   }
-  delimiter_->setEnabled(!isPackageFile(path()));
+  delimiter_->setEnabled(!isPackageFile(path()) && !isDatabase());
+  if (isDatabase()) {
+    // No connection on this thread: the rows are read in the background, and the preview shows
+    // the first of them when the read ends.
+    previewNote_->setText(
+        databaseSelection()
+            ? tr("Reading from the database in the background; the first rows show here when "
+                 "the read ends.")
+            : tr("Give the table (NAME or SCHEMA.NAME) or one SELECT statement to read."));
+    return;
+  }
   if (isPackageFile(path())) {
     refreshPackagePreview();
     return;
@@ -270,29 +329,8 @@ void ImportDialog::refreshPackagePreview() {
     options.rowLimit = kPreviewRows;
     const Table t = readPackageFile(path().toStdString(), format, options);
     const int rows = static_cast<int>(std::min<std::size_t>(t.rowCount, kPreviewRows));
-    const int read = static_cast<int>(t.columns.size());
+    showTablePreview(t, rows);
     const int refused = static_cast<int>(t.refusedColumns.size());
-    preview_->setColumnCount(read + refused);
-    preview_->setRowCount(rows);
-    QStringList headers;
-    for (const Column& c : t.columns) {
-      headers << QStringLiteral("%1\n(%2)").arg(QString::fromStdString(c.name), kindText(c));
-    }
-    for (const RefusedColumn& r : t.refusedColumns) {
-      headers << QStringLiteral("%1\n(%2)").arg(QString::fromStdString(r.name), tr("not used"));
-    }
-    preview_->setHorizontalHeaderLabels(headers);
-    for (int k = 0; k < refused; ++k) {
-      const QString reason = QString::fromStdString(t.refusedColumns[std::size_t(k)].reason);
-      preview_->horizontalHeaderItem(read + k)->setToolTip(reason);
-    }
-    for (int row = 0; row < rows; ++row) {
-      for (int col = 0; col < read; ++col) {
-        preview_->setItem(row, col,
-                          new QTableWidgetItem(levelText(t.columns[std::size_t(col)], row)));
-      }
-    }
-    preview_->horizontalHeader()->setSectionResizeMode(QHeaderView::ResizeToContents);
     QString note = tr("First %1 records of the %2 file. Value labels are read as categories "
                       "(shown with their codes), and the file's own missing values (system, "
                       "tagged and user-defined) as missing.")
@@ -314,6 +352,32 @@ void ImportDialog::refreshPackagePreview() {
   }
 }
 
+void ImportDialog::showTablePreview(const Table& t, int rows) {
+  const int read = static_cast<int>(t.columns.size());
+  const int refused = static_cast<int>(t.refusedColumns.size());
+  preview_->setColumnCount(read + refused);
+  preview_->setRowCount(rows);
+  QStringList headers;
+  for (const Column& c : t.columns) {
+    headers << QStringLiteral("%1\n(%2)").arg(QString::fromStdString(c.name), kindText(c));
+  }
+  for (const RefusedColumn& r : t.refusedColumns) {
+    headers << QStringLiteral("%1\n(%2)").arg(QString::fromStdString(r.name), tr("not used"));
+  }
+  preview_->setHorizontalHeaderLabels(headers);
+  for (int k = 0; k < refused; ++k) {
+    const QString reason = QString::fromStdString(t.refusedColumns[std::size_t(k)].reason);
+    preview_->horizontalHeaderItem(read + k)->setToolTip(reason);
+  }
+  for (int row = 0; row < rows; ++row) {
+    for (int col = 0; col < read; ++col) {
+      preview_->setItem(row, col,
+                        new QTableWidgetItem(levelText(t.columns[std::size_t(col)], row)));
+    }
+  }
+  preview_->horizontalHeader()->setSectionResizeMode(QHeaderView::ResizeToContents);
+}
+
 void ImportDialog::startFullRead() {
   table_.reset();
   buttons_->button(QDialogButtonBox::Ok)->setEnabled(false);
@@ -323,14 +387,33 @@ void ImportDialog::startFullRead() {
     refreshQueued_ = true;
     return;
   }
-  summary_->setText(tr("Reading the whole file…"));
-  const std::string file = path().toStdString();
+  const std::optional<DatabaseSelection> database = databaseSelection();
+  if (isDatabase() && !database) {
+    summary_->setText(tr("Give a table or a query to read from the database."));
+    return;
+  }
+  summary_->setText(isDatabase() ? tr("Reading the rows from the database…")
+                                 : tr("Reading the whole file…"));
+  const InputFileRecord source{path().toStdString(), {}, database};
   const ImportSettings s = settings();
   std::function<std::shared_ptr<const Table>(const ProgressCallback&)> work =
-      [file, s](const ProgressCallback&) { return loadCohortFile(file, s).table; };
+      [source, s](const ProgressCallback& progress) {
+        return loadCohort(source, s, progress).table;
+      };
   std::function<void(std::shared_ptr<const Table>&)> done =
       [this](std::shared_ptr<const Table>& t) {
         table_ = t;
+        if (table_->database) {
+          const int rows = static_cast<int>(std::min<std::size_t>(table_->rowCount, kPreviewRows));
+          showTablePreview(*table_, rows);
+          previewNote_->setText(
+              tr("First %1 of %2 rows from database %3 on %4 (read only). Types follow the "
+                 "database's column types.")
+                  .arg(rows)
+                  .arg(table_->rowCount)
+                  .arg(QString::fromStdString(table_->database->database),
+                       QString::fromStdString(table_->database->server)));
+        }
         const QString keep = pendingOutcome_;
         outcome_->blockSignals(true);
         outcome_->clear();

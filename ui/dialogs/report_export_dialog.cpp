@@ -3,6 +3,7 @@
 #include <QComboBox>
 #include <QDialog>
 #include <QDialogButtonBox>
+#include <QDir>
 #include <QFileDialog>
 #include <QFileInfo>
 #include <QFormLayout>
@@ -189,9 +190,17 @@ void showReportExportDialog(QWidget* parent, const StudyState& study,
 
   auto* path = new QLineEdit(&dialog);
   path->setObjectName(QStringLiteral("reportPathEdit"));
-  const QFileInfo data(QString::fromStdString(study.data->path));
-  path->setText(
-      data.absoluteDir().filePath(data.completeBaseName() + QStringLiteral("_report.pdf")));
+  if (study.data->database) {
+    // A database has no folder: the report goes to the working folder, named after the table.
+    const std::string stem =
+        study.data->database->table.empty() ? "query" : study.data->database->table;
+    path->setText(
+        QDir::current().filePath(QString::fromStdString(stem) + QStringLiteral("_report.pdf")));
+  } else {
+    const QFileInfo data(QString::fromStdString(study.data->path));
+    path->setText(
+        data.absoluteDir().filePath(data.completeBaseName() + QStringLiteral("_report.pdf")));
+  }
   auto* browse = new QPushButton(QObject::tr("Browse..."), &dialog);
   browse->setObjectName(QStringLiteral("reportBrowseButton"));
   QObject::connect(browse, &QPushButton::clicked, &dialog, [&dialog, path] {

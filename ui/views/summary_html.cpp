@@ -6,6 +6,7 @@
 #include "core/present/measures.h"
 #include "core/present/readings.h"
 #include "core/present/wording.h"
+#include "core/study/study_analysis.h"
 #include "render/charts/chart_text.h"
 
 namespace calivera::ui {
@@ -140,8 +141,8 @@ QString summaryHtml(const StudyState& study) {
   QString html = QStringLiteral("<html><body style='font-size:10pt'>");
   html += QStringLiteral("<h3>Cohort</h3><table>");
   if (study.data) {
-    html += row(QStringLiteral("File"),
-                QFileInfo(QString::fromStdString(study.data->path)).fileName().toHtmlEscaped(),
+    html += row(study.data->database ? QStringLiteral("Source") : QStringLiteral("File"),
+                QString::fromStdString(cohortShortLabel(*study.data)).toHtmlEscaped(),
                 QStringLiteral("SHA-256 %1…").arg(esc(study.data->sha256.substr(0, 16))));
   }
   const ExclusionReport& ex = study.exclusions;
