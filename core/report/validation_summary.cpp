@@ -39,8 +39,10 @@ std::string validationSummaryText(const ValidationRun& run, const std::string& b
   out << "Calivera " << run.softwareVersion << " - validation of " << run.modelName << "\n\n";
   if (run.database) {
     const DatabaseProvenance& db = *run.database;
-    out << "Cohort        PostgreSQL database " << db.database << " on " << db.server << " ("
-        << (db.selection.table.empty() ? "query" : "table " + db.selection.table) << ")\n"
+    out << "Cohort        PostgreSQL database " << shownText(db.database, 80) << " on "
+        << shownText(db.server, 120) << " ("
+        << (db.selection.table.empty() ? "query" : "table " + shownText(db.selection.table, 80))
+        << ")\n"
         << "  statement   " << shownText(db.statement, 200) << "\n"
         << "  rows        " << db.rows << " fetched\n"
         << "  result      " << run.dataSha256 << " (SHA-256 of the rows as received)\n";
