@@ -204,14 +204,15 @@ int runFitCommand(const std::vector<std::string>& words) {
   csv.onlyColumns.push_back(fitSpec.outcome.column);
 
   CohortRead read = readCohort(dataPath, database, csv);
+  const std::shared_ptr<const DatabaseProvenance> source = read.table.database;
   CohortFit result = fitCohortModel(std::move(read.table), fitSpec);
   markStage("fitted");
   Model& model = result.model;
   model.development.dataSha256 = read.sha256;
   const std::string cohortName =
-      read.database ? "PostgreSQL database " + read.database->database +
-                          (database->table.empty() ? " (query)" : " table " + database->table)
-                    : std::filesystem::path(dataPath).filename().string();
+      source ? "PostgreSQL database " + source->database +
+                   (database->table.empty() ? " (query)" : " table " + database->table)
+             : std::filesystem::path(dataPath).filename().string();
   model.development.description = "fitted by calivera fit on " + cohortName + " (" +
                                   std::to_string(result.exclusions.rowsAnalysed) + " of " +
                                   std::to_string(result.exclusions.rowsRead) + " rows complete)";

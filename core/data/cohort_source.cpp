@@ -39,8 +39,7 @@ CohortRead readCohort(const std::string& data, const std::optional<DatabaseSelec
     DatabaseRead rows = readDatabase(data, *database, options);
     markStage("cohort fetched from the database");
     read.table = std::move(rows.table);
-    read.sha256 = rows.provenance.resultSha256;
-    read.database = std::move(rows.provenance);
+    read.sha256 = rows.provenance.resultSha256;  // the table carries the whole provenance
     return read;
   }
   std::future<std::string> hash = sha256OfFileInBackground(data);

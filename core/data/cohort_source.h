@@ -18,7 +18,6 @@ struct CohortRead {
   Table table;
   // The file's SHA-256, or the database result's fingerprint (DatabaseProvenance::resultSha256).
   std::string sha256;
-  std::optional<DatabaseProvenance> database;  // set for a PostgreSQL source
 };
 
 // Throws InputError when `data` and `database` do not go together: a PostgreSQL URI needs a
